@@ -1,0 +1,69 @@
+// What a run hands to io/ for writing: plain data in SI units, no file format inside.
+// Complex spectra are the running DFT  F(omega) = sum_n f(t_n) exp(i omega t_n) dt  (exp(-i omega t)
+// convention), with t_n the true sample time of each Yee component (H lags E by half a step).
+#pragma once
+
+#include <complex>
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include "base/vec3.h"
+#include "solver/scene.h"
+
+namespace yeegap::solver {
+
+struct ProbeResult {
+  std::string name;
+  Vec3 position;                           // m, as requested
+  std::vector<Component> components;
+  std::vector<Vec3> sampled_at;            // m, the Yee location actually sampled, per component
+  std::vector<double> time;                // s, the E sample times (H samples are at time - dt/2)
+  std::vector<std::vector<double>> values; // [component][sample], V/m or A/m
+};
+
+struct FieldMapResult {
+  std::string name;
+  std::vector<double> x, y, z;             // m, coordinates of the sampled grid nodes per axis
+  std::vector<double> omegas;              // rad/s
+  std::vector<Component> components;
+  /// [frequency][component] -> complex values on the nodes, x fastest: index (k*ny + j)*nx + i.
+  /// Components are interpolated from their Yee locations to the nodes.
+  std::vector<std::vector<std::vector<std::complex<double>>>> values;
+};
+
+struct FluxResult {
+  std::string name;
+  bool closed = false;                     // a closed box (outward flux) or a plane (flux towards +axis)
+  int normal_axis = -1;                    // for a plane: 0, 1, 2
+  std::vector<double> omegas;              // rad/s
+  /// 0.5 Re of the integral of E(omega) x H(omega)* over the surface, from DFT spectra: J/Hz^2-like
+  /// units (W s^2); divide by |source spectrum|^2 terms to normalise.
+  std::vector<double> power;
+};
+
+struct RunSummary {
+  long steps = 0;
+  double time_step = 0;                    // s
+  double simulated_time = 0;               // s
+  double wall_seconds = 0;
+  double cell_updates_per_second = 0;
+  std::string stop_reason;                 // "time", "decayed", "max_steps"
+  double final_energy_fraction = 0;        // field energy at the end / its peak
+};
+
+struct RunResults {
+  RunSummary summary;
+  std::vector<double> grid_x, grid_y, grid_z;    // m, cell edges (node coordinates) per axis
+  std::vector<std::string> material_names;       // index -> name
+  std::vector<std::uint8_t> material_map;        // per cell (material at the cell centre), x fastest
+  /// DFT of each dipole's current moment I*l(t) (A m) at the union of all output frequencies,
+  /// for normalising spectra: one entry per dipole, each aligned with `source_omegas`.
+  std::vector<double> source_omegas;
+  std::vector<std::vector<std::complex<double>>> source_spectra;
+  std::vector<ProbeResult> probes;
+  std::vector<FieldMapResult> field_maps;
+  std::vector<FluxResult> fluxes;
+};
+
+}  // namespace yeegap::solver

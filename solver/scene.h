@@ -1,0 +1,131 @@
+// The typed, validated description of one run, in SI units: what io/ reads from a scene file and
+// what the solver builds its model from. Plain aggregates only (design.md: plain data crosses
+// folders), so a test builds one in a few lines without any file.
+#pragma once
+
+#include <array>
+#include <cstdint>
+#include <string>
+#include <vector>
+
+#include "base/vec3.h"
+#include "base/where.h"
+#include "geometry/shape.h"
+#include "materials/pole_set.h"
+
+namespace yeegap::solver {
+
+enum class Component : std::uint8_t { Ex, Ey, Ez, Hx, Hy, Hz };
+inline constexpr std::array<const char*, 6> component_names = {"Ex", "Ey", "Ez", "Hx", "Hy", "Hz"};
+
+/// What happens at one face of the domain.
+enum class EdgeKind : std::uint8_t {
+  absorber,  // CPML (Roden & Gedney 2000) inside the domain, backed by a perfect conductor
+  periodic,  // the field repeats with the domain size
+  metal,     // perfect electric conductor: tangential E = 0 on the face
+};
+inline constexpr std::array<const char*, 3> edge_kind_names = {"absorber", "periodic", "metal"};
+
+/// CPML grading (physics.md 3.5): sigma(x) = sigma_max (x/d)^m, kappa(x) = 1 + (kappa_max-1)(x/d)^m,
+/// alpha(x) = alpha_max (1 - x/d). sigma_max follows from the target normal-incidence reflection.
+struct AbsorberSpec {
+  int cells = 12;                 // layer thickness in cells
+  double grading_order = 3.0;     // m
+  double reflection = 1e-8;       // target R(0) of the layer for a normal plane wave
+  double kappa_max = 1.0;         // coordinate stretching; > 1 helps evanescent and grazing waves
+  double alpha_max = 0.0;         // CFS shift, S/m; 0 = derive from the lowest frequency of interest
+};
+
+struct DomainSpec {
+  Vec3 size;                      // m, the whole domain including absorber layers
+  Vec3 center;                    // m
+  Vec3 step;                      // m, base cell size per axis
+  std::array<EdgeKind, 6> edges{};  // faces x-, x+, y-, y+, z-, z+
+  AbsorberSpec absorber;
+  int background = 0;             // index into Scene::materials
+  double courant_safety = 0.99;   // fraction of the Courant-limit time step
+  double time_step = 0.0;         // s; 0 = courant_safety * limit. Above the limit it is refused.
+};
+
+struct MaterialSpec {
+  std::string name;
+  materials::PoleSet poles;       // eps_inf, conductivity, poles
+  bool perfect_conductor = false; // E = 0 inside
+  Where where;                    // where it was defined, for messages
+};
+
+struct BodySpec {
+  geometry::ShapePtr shape;
+  int material = 0;               // index into Scene::materials
+  Where where;
+};
+
+/// A pulse or a continuous wave, as the time dependence of a source.
+struct Waveform {
+  enum class Kind : std::uint8_t { pulse, continuous } kind = Kind::pulse;
+  double omega_min = 0;           // rad/s: the band a pulse covers; at its edges the pulse spectrum
+  double omega_max = 0;           // carries 1 % of its peak power. A continuous wave: both = its frequency
+  double ramp_time = 0;           // s: smooth turn-on of a continuous wave
+};
+
+struct DipoleSpec {
+  Vec3 position;                  // m
+  Vec3 direction{0, 0, 1};        // unit vector of the dipole moment
+  double moment = 1e-30;          // C m, peak dipole moment amplitude
+  Waveform waveform;
+  Where where;
+};
+
+/// A set of angular frequencies (rad/s) at which frequency-domain outputs are accumulated.
+using FrequencyList = std::vector<double>;
+
+struct ProbeSpec {
+  std::string name;
+  Vec3 position;                  // m; the nearest Yee location of each component is sampled
+  std::vector<Component> components;
+  Where where;
+};
+
+/// A region given by two corners. A zero extent along one axis makes a plane.
+struct Region {
+  Vec3 lo, hi;                    // m
+};
+
+struct FieldMapSpec {
+  std::string name;
+  Region region;                  // a plane or a volume
+  FrequencyList omegas;
+  std::vector<Component> components;
+  Where where;
+};
+
+struct FluxSpec {
+  std::string name;
+  Region region;                  // a plane (flux along its normal, towards +) or a closed box (outward)
+  FrequencyList omegas;
+  Where where;
+};
+
+struct StopSpec {
+  double after = 0;               // s; 0 = not set
+  double decayed = 0;             // stop when the field energy falls below this fraction of its peak
+                                  // after all sources have ended; 0 = not set
+  long max_steps = 10'000'000;    // hard cap
+};
+
+struct Scene {
+  int version = 1;
+  std::string title;
+  std::string file;               // path as given, for messages
+  std::string text;               // the scene file's text, stored with the results
+  DomainSpec domain;
+  std::vector<MaterialSpec> materials;  // [0] is the background unless domain.background says otherwise
+  std::vector<BodySpec> bodies;   // later bodies overwrite earlier ones
+  std::vector<DipoleSpec> dipoles;
+  std::vector<ProbeSpec> probes;
+  std::vector<FieldMapSpec> field_maps;
+  std::vector<FluxSpec> fluxes;
+  StopSpec stop;
+};
+
+}  // namespace yeegap::solver
