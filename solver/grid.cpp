@@ -1,0 +1,90 @@
+// Grid geometry helpers (see grid.h).
+#include "solver/grid.h"
+
+#include <algorithm>
+#include <cmath>
+
+#include "base/constants.h"
+#include "base/errors.h"
+
+namespace yeegap::solver {
+
+Grid Grid::uniform(const DomainSpec& d) {
+  Grid g;
+  for (int a = 0; a < 3; ++a) {
+    YG_CHECK(d.size[a] > 0 && d.step[a] > 0, "domain size and step must be positive");
+    // Round the cell count to the nearest integer so the requested size is kept exactly and the
+    // step changes by at most half a cell over the whole axis.
+    const int cells = std::max(1, static_cast<int>(std::lround(d.size[a] / d.step[a])));
+    g.n[a] = cells;
+    g.periodic[a] = d.edges[2 * a] == EdgeKind::periodic;
+    const double lo = d.center[a] - 0.5 * d.size[a];
+    const double h = d.size[a] / cells;
+    g.nodes[a].resize(cells + 1);
+    for (int i = 0; i <= cells; ++i) g.nodes[a][i] = lo + h * i;
+  }
+  return g;
+}
+
+double Grid::primal(int a, int i) const {
+  const int m = n[a];
+  if (periodic[a]) i = ((i % m) + m) % m;
+  i = std::clamp(i, 0, m - 1);
+  return nodes[a][i + 1] - nodes[a][i];
+}
+
+double Grid::dual(int a, int i) const {
+  const int m = n[a];
+  if (periodic[a]) return 0.5 * (primal(a, i - 1) + primal(a, i));
+  if (i <= 0) return 0.5 * primal(a, 0);
+  if (i >= m) return 0.5 * primal(a, m - 1);
+  return 0.5 * (primal(a, i - 1) + primal(a, i));
+}
+
+double Grid::position(int a, int i, bool half) const {
+  const int m = n[a];
+  const double length = nodes[a][m] - nodes[a][0];
+  int wraps = 0;
+  if (periodic[a]) {
+    wraps = static_cast<int>(std::floor(static_cast<double>(i) / m));
+    i -= wraps * m;
+  }
+  i = std::clamp(i, 0, m);
+  double x = nodes[a][i];
+  if (half) x += 0.5 * primal(a, i);
+  return x + wraps * length;
+}
+
+double Grid::min_spacing(int a) const {
+  double d = nodes[a][1] - nodes[a][0];
+  for (int i = 1; i < n[a]; ++i) d = std::min(d, nodes[a][i + 1] - nodes[a][i]);
+  return d;
+}
+
+double Grid::courant_limit() const {
+  double s = 0;
+  for (int a = 0; a < 3; ++a)
+    if (!invariant(a)) s += 1.0 / (min_spacing(a) * min_spacing(a));
+  YG_CHECK(s > 0, "at least one axis must vary");
+  return 1.0 / (constants::c0 * std::sqrt(s));
+}
+
+int Grid::nearest_node(int a, double x) const {
+  const auto& v = nodes[a];
+  auto it = std::lower_bound(v.begin(), v.end(), x);
+  int i = static_cast<int>(it - v.begin());
+  if (i > 0 && (i == static_cast<int>(v.size()) || std::abs(v[i - 1] - x) <= std::abs(v[i] - x))) --i;
+  return std::clamp(i, 0, n[a]);
+}
+
+int Grid::cell_of(int a, double x) const {
+  const auto& v = nodes[a];
+  int i = static_cast<int>(std::upper_bound(v.begin(), v.end(), x) - v.begin()) - 1;
+  return std::clamp(i, 0, n[a] - 1);
+}
+
+Vec3 yee_position(const Grid& g, Component c, int i, int j, int k) {
+  return {g.position(0, i, staggered(c, 0)), g.position(1, j, staggered(c, 1)), g.position(2, k, staggered(c, 2))};
+}
+
+}  // namespace yeegap::solver

@@ -1,0 +1,302 @@
+// Model building and the time loop (see simulation.h).
+#include "solver/simulation.h"
+
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <limits>
+#include <set>
+
+#include <fmt/format.h>
+
+#include "base/constants.h"
+#include "base/errors.h"
+#include "solver/material_map.h"
+
+namespace yeegap::solver {
+
+namespace {
+
+// How often (in steps) the field energy is measured for the decay stop rule; a full pass over
+// the fields costs about half a step, so every 20th step adds 2.5 %.
+constexpr long energy_interval = 20;
+
+double choose_time_step(const Scene& s, const Grid& g) {
+  const double limit = g.courant_limit();
+  if (s.domain.time_step > 0) {
+    if (s.domain.time_step > limit)
+      throw RunError(fmt::format(
+          "{}: domain.time_step {:.6g} s is above the Courant limit {:.6g} s of the smallest cell; the run would "
+          "grow without bound. Use at most {:.6g} s or leave time_step out.",
+          s.file, s.domain.time_step, limit, limit));
+    return s.domain.time_step;
+  }
+  if (!(s.domain.courant_safety > 0 && s.domain.courant_safety <= 1))
+    throw RunError(fmt::format("{}: domain.courant must lie in (0, 1], got {}", s.file, s.domain.courant_safety));
+  return s.domain.courant_safety * limit;
+}
+
+void check_scene(const Scene& s, const Grid& g) {
+  for (int a = 0; a < 3; ++a) {
+    const bool lo_p = s.domain.edges[2 * a] == EdgeKind::periodic, hi_p = s.domain.edges[2 * a + 1] == EdgeKind::periodic;
+    if (lo_p != hi_p) throw RunError(fmt::format("{}: periodic edges must come in pairs (axis {})", s.file, "xyz"[a]));
+    if (g.n[a] < 2 && !lo_p)
+      throw RunError(fmt::format("{}: axis {} has {} cell; a bounded axis needs at least 2 (use periodic edges for an "
+                                 "invariant direction)", s.file, "xyz"[a], g.n[a]));
+    for (int side = 0; side < 2; ++side)
+      if (s.domain.edges[2 * a + side] == EdgeKind::absorber && 2 * s.domain.absorber.cells + 2 > g.n[a])
+        throw RunError(fmt::format("{}: axis {} has {} cells, too few for two absorbing layers of {} cells", s.file,
+                                   "xyz"[a], g.n[a], s.domain.absorber.cells));
+  }
+  if (s.materials.empty()) throw RunError(s.file + ": no materials");
+  for (const auto& m : s.materials)
+    if (m.poles.dispersive())
+      throw RunError(fmt::format("{}: material '{}' has Drude/Lorentz poles; dispersive materials are not supported "
+                                 "by this build yet", m.where.location(), m.name));
+}
+
+CurlCoefficients plain_curls(const Grid& g, double dt) {
+  CurlCoefficients c;
+  for (int a = 0; a < 3; ++a) {
+    c.h[a].resize(g.n[a]);
+    c.e[a].resize(g.n[a]);
+    for (int i = 0; i < g.n[a]; ++i) {
+      c.h[a][i] = static_cast<real>(dt / (constants::mu0 * g.primal(a, i)));
+      c.e[a][i] = static_cast<real>(1.0 / g.dual(a, i));
+    }
+  }
+  return c;
+}
+
+double lowest_source_omega(const Scene& s) {
+  double w = std::numeric_limits<double>::infinity();
+  for (const auto& d : s.dipoles) w = std::min(w, d.waveform.omega_min > 0 ? d.waveform.omega_min : d.waveform.omega_max);
+  return std::isfinite(w) ? w : 0.0;
+}
+
+}  // namespace
+
+Simulation::Simulation(const Scene& scene)
+    : scene_(scene),
+      grid_(Grid::uniform(scene.domain)),
+      dt_(choose_time_step(scene_, grid_)),
+      fields_(BlockLayout::of(grid_.n)) {
+  check_scene(scene_, grid_);
+  curls_ = plain_curls(grid_, dt_);
+  ecoef_ = e_coefficients(scene_, dt_);
+  fill_material_index(scene_, grid_, fields_.layout, mindex_);
+
+  std::array<bool, 6> absorbing{};
+  for (int f = 0; f < 6; ++f) absorbing[f] = scene_.domain.edges[f] == EdgeKind::absorber;
+  if (std::any_of(absorbing.begin(), absorbing.end(), [](bool b) { return b; })) {
+    const AbsorberSpec& a = scene_.domain.absorber;
+    const double n_bg = std::sqrt(scene_.materials[scene_.domain.background].poles.eps_inf);
+    CpmlProfile p;
+    p.cells = a.cells;
+    p.order = a.grading_order;
+    p.kappa_max = a.kappa_max;
+    // Thickness of the thinnest absorbing layer sets sigma_max (uniform grid: all layers alike).
+    double thickness = std::numeric_limits<double>::infinity();
+    for (int ax = 0; ax < 3; ++ax)
+      if (absorbing[2 * ax] || absorbing[2 * ax + 1]) thickness = std::min(thickness, a.cells * grid_.min_spacing(ax));
+    p.sigma_max = cpml_sigma_max(p.order, a.reflection, thickness, n_bg);
+    // CFS shift: alpha/eps0 a tenth of the lowest source frequency keeps propagating waves absorbed
+    // over the band while damping the late-time low-frequency tail (common practice).
+    p.alpha_max = a.alpha_max > 0 ? a.alpha_max : 0.1 * lowest_source_omega(scene_) * constants::eps0;
+    cpml_ = std::make_unique<Cpml>(grid_, absorbing, p, dt_, curls_);
+  }
+
+  for (const auto& d : scene_.dipoles) dipoles_.emplace_back(d, grid_, fields_.layout);
+  for (const auto& p : scene_.probes) probes_.emplace_back(p, grid_, fields_.layout);
+  for (const auto& m : scene_.field_maps) maps_.emplace_back(m, grid_, fields_.layout);
+  for (const auto& f : scene_.fluxes) fluxes_.emplace_back(f, grid_, fields_.layout);
+  std::set<double> omegas;
+  for (const auto& m : scene_.field_maps) omegas.insert(m.omegas.begin(), m.omegas.end());
+  for (const auto& f : scene_.fluxes) omegas.insert(f.omegas.begin(), f.omegas.end());
+  all_omegas_.assign(omegas.begin(), omegas.end());
+  source_dft_.assign(dipoles_.size(), std::vector<Complex>(all_omegas_.size()));
+}
+
+Simulation::~Simulation() = default;
+
+double Simulation::sources_end_time() const {
+  double t = 0;
+  for (const auto& d : dipoles_) t = std::max(t, d.time().end_time());
+  return t;
+}
+
+ModelSummary Simulation::summary() const {
+  ModelSummary m;
+  m.cells = grid_.n;
+  m.cell_count = grid_.cell_count();
+  m.time_step = dt_;
+  m.courant_limit = grid_.courant_limit();
+  m.smallest_cell = std::min({grid_.min_spacing(0), grid_.min_spacing(1), grid_.min_spacing(2)});
+  m.largest_cell = 0;
+  for (int a = 0; a < 3; ++a)
+    for (int i = 0; i < grid_.n[a]; ++i) m.largest_cell = std::max(m.largest_cell, grid_.primal(a, i));
+  const StopSpec& st = scene_.stop;
+  if (st.after > 0) {
+    m.steps = std::min<long>(st.max_steps, static_cast<long>(std::ceil(st.after / dt_)));
+  } else {
+    // A decay stop has no known length: guess the source duration plus ten light crossings of the
+    // domain's longest side, which is what a weakly resonant scene needs (common practice).
+    double longest = 0;
+    for (int a = 0; a < 3; ++a) longest = std::max(longest, grid_.nodes[a].back() - grid_.nodes[a].front());
+    const double t = std::min(sources_end_time(), 1e300) + 10.0 * longest / constants::c0;
+    m.steps = std::min<long>(st.max_steps, static_cast<long>(std::ceil(t / dt_)));
+    m.steps_estimated = true;
+  }
+  std::size_t bytes = 6 * fields_.layout.total * sizeof(real) + 3 * fields_.layout.total;
+  if (cpml_) bytes += cpml_->memory_bytes();
+  for (const auto& r : maps_) bytes += r.memory_bytes();
+  for (const auto& r : fluxes_) bytes += r.memory_bytes();
+  m.memory_bytes = bytes;
+  return m;
+}
+
+void Simulation::fill_periodic_halos(bool electric) {
+  // E is read at index n by the H update; H at index -1 by the E update.
+  const BlockLayout& L = fields_.layout;
+  const int first = electric ? 0 : 3;
+  for (int a = 0; a < 3; ++a) {
+    if (!grid_.periodic[a]) continue;
+    const int n = L.n[a];
+    const int from = electric ? 0 : n - 1, to = electric ? n : -1;
+    const int b = (a + 1) % 3, c = (a + 2) % 3;
+    for (int comp = first; comp < first + 3; ++comp) {
+      real* d = fields_.c[comp].data();
+      // Copy the whole plane including the other axes' halos, so corners stay consistent.
+#pragma omp parallel for schedule(static) if (parallel_worth(L.n[b], L.n[c], 1))
+      for (int q = -1; q <= L.n[c]; ++q)
+        for (int p = -1; p <= L.n[b]; ++p) {
+          std::array<int, 3> src{}, dst{};
+          src[a] = from, dst[a] = to;
+          src[b] = dst[b] = p;
+          src[c] = dst[c] = q;
+          d[L.at(dst[0], dst[1], dst[2])] = d[L.at(src[0], src[1], src[2])];
+        }
+    }
+  }
+}
+
+void Simulation::step() {
+  const double t_h = (n_ + 0.5) * dt_, t_e = (n_ + 1.0) * dt_;
+
+  fill_periodic_halos(true);
+  update_h(fields_, curls_);
+  if (cpml_) cpml_->apply_h(fields_, dt_);
+  if (!maps_.empty() || !fluxes_.empty() || !dipoles_.empty()) {
+    const auto phase = dft_phases(all_omegas_, t_h, dt_);
+    for (std::size_t d = 0; d < dipoles_.size(); ++d) {
+      const double il = dipoles_[d].current_moment(t_h);
+      for (std::size_t q = 0; q < phase.size(); ++q) source_dft_[d][q] += il * phase[q];
+    }
+    if (!maps_.empty() || !fluxes_.empty()) {
+      for (auto& m : maps_) m.record(fields_, false, dft_phases(m.result_omegas(), t_h, dt_));
+      for (auto& f : fluxes_) f.record(fields_, false, dft_phases(f.result_omegas(), t_h, dt_));
+    }
+  }
+  for (auto& p : probes_) p.record(fields_, false, t_h);
+
+  fill_periodic_halos(false);
+  update_e(fields_, curls_, ecoef_, mindex_);
+  if (cpml_) cpml_->apply_e(fields_, ecoef_, mindex_);
+  for (const auto& d : dipoles_) d.apply_e(fields_, ecoef_, mindex_, t_h);
+  for (auto& m : maps_) m.record(fields_, true, dft_phases(m.result_omegas(), t_e, dt_));
+  for (auto& f : fluxes_) f.record(fields_, true, dft_phases(f.result_omegas(), t_e, dt_));
+  for (auto& p : probes_) p.record(fields_, true, t_e);
+  ++n_;
+}
+
+double Simulation::field_energy() const {
+  const BlockLayout& L = fields_.layout;
+  std::vector<double> eps(ecoef_.ca.size(), 0.0);
+  for (std::size_t m = 0; m < scene_.materials.size(); ++m) eps[m] = constants::eps0 * scene_.materials[m].poles.eps_inf;
+  std::vector<double> per_plane(L.n[2], 0.0);
+#pragma omp parallel for schedule(static) if (parallel_worth(L.n[0], L.n[1], L.n[2]))
+  for (int k = 0; k < L.n[2]; ++k) {
+    double s = 0;
+    for (int j = 0; j < L.n[1]; ++j)
+      for (int i = 0; i < L.n[0]; ++i) {
+        const std::ptrdiff_t o = L.at(i, j, k);
+        const double v = grid_.primal(0, i) * grid_.primal(1, j) * grid_.primal(2, k);
+        double e = 0, h = 0;
+        for (int c = 0; c < 3; ++c) {
+          const double ev = fields_.c[c][o], hv = fields_.c[3 + c][o];
+          e += eps[mindex_.e[c][o]] * ev * ev;
+          h += hv * hv;
+        }
+        s += 0.5 * v * (e + constants::mu0 * h);
+      }
+    per_plane[k] = s;
+  }
+  double total = 0;
+  for (double s : per_plane) total += s;  // fixed order: the same sum for any thread count
+  return total;
+}
+
+RunResults Simulation::run(const std::function<void(const Progress&)>& progress) {
+  using clock = std::chrono::steady_clock;
+  const ModelSummary plan = summary();
+  const StopSpec& st = scene_.stop;
+  const long after_steps = st.after > 0 ? static_cast<long>(std::ceil(st.after / dt_)) : -1;
+  const double source_end = sources_end_time();
+  const auto start = clock::now();
+  auto last_report = start;
+  stop_reason_.clear();
+  while (stop_reason_.empty()) {
+    step();
+    if (after_steps >= 0 && n_ >= after_steps) stop_reason_ = "time";
+    else if (n_ >= st.max_steps) stop_reason_ = "max_steps";
+    else if (st.decayed > 0 && n_ % energy_interval == 0) {
+      last_energy_ = field_energy();
+      peak_energy_ = std::max(peak_energy_, last_energy_);
+      if (n_ * dt_ > source_end && peak_energy_ > 0 && last_energy_ < st.decayed * peak_energy_) stop_reason_ = "decayed";
+    }
+    if (progress && (n_ & 15) == 0) {
+      const auto now = clock::now();
+      if (std::chrono::duration<double>(now - last_report).count() > 0.5) {
+        last_report = now;
+        Progress p;
+        p.step = n_;
+        p.planned_steps = after_steps >= 0 ? after_steps : std::max(plan.steps, n_);
+        const double elapsed = std::chrono::duration<double>(now - start).count();
+        p.steps_per_second = n_ / elapsed;
+        p.cells_per_second = p.steps_per_second * static_cast<double>(grid_.cell_count());
+        p.eta_seconds = (p.planned_steps - n_) / p.steps_per_second;
+        progress(p);
+      }
+    }
+  }
+  wall_seconds_ = std::chrono::duration<double>(clock::now() - start).count();
+  if (st.decayed > 0 || peak_energy_ == 0) {
+    last_energy_ = field_energy();
+    peak_energy_ = std::max(peak_energy_, last_energy_);
+  }
+  return results();
+}
+
+RunResults Simulation::results() const {
+  RunResults r;
+  r.summary.steps = n_;
+  r.summary.time_step = dt_;
+  r.summary.simulated_time = n_ * dt_;
+  r.summary.wall_seconds = wall_seconds_;
+  r.summary.cell_updates_per_second = wall_seconds_ > 0 ? n_ * static_cast<double>(grid_.cell_count()) / wall_seconds_ : 0;
+  r.summary.stop_reason = stop_reason_;
+  r.summary.final_energy_fraction = peak_energy_ > 0 ? last_energy_ / peak_energy_ : 0;
+  r.grid_x = grid_.nodes[0];
+  r.grid_y = grid_.nodes[1];
+  r.grid_z = grid_.nodes[2];
+  for (const auto& m : scene_.materials) r.material_names.push_back(m.name);
+  r.material_map = cell_material_map(scene_, grid_);
+  r.source_omegas = all_omegas_;
+  r.source_spectra = source_dft_;
+  for (const auto& p : probes_) r.probes.push_back(p.result());
+  for (const auto& m : maps_) r.field_maps.push_back(m.result());
+  for (const auto& f : fluxes_) r.fluxes.push_back(f.result());
+  return r;
+}
+
+}  // namespace yeegap::solver

@@ -1,0 +1,93 @@
+// One run: builds the model from a Scene (grid, material index, coefficients, absorbing layers,
+// sources, recorders) and advances it. Per step (Taflove & Hagness 2005, ch. 3):
+//   periodic E halos -> H update -> CPML(H) -> record H
+//   periodic H halos -> E update -> CPML(E) -> sources -> record E
+// Nothing global: a test may hold two Simulations at once.
+#pragma once
+
+#include <functional>
+#include <memory>
+#include <optional>
+#include <vector>
+
+#include "solver/cpml.h"
+#include "solver/dipole_source.h"
+#include "solver/fields.h"
+#include "solver/grid.h"
+#include "solver/recorders.h"
+#include "solver/results.h"
+#include "solver/scene.h"
+#include "solver/yee_kernels.h"
+
+namespace yeegap::solver {
+
+/// Figures `yeegap check` prints, known before any step runs.
+struct ModelSummary {
+  std::array<int, 3> cells{};
+  long long cell_count = 0;
+  double time_step = 0;            // s
+  double courant_limit = 0;        // s
+  long steps = 0;                  // planned (or estimated) steps
+  bool steps_estimated = false;    // true when the stop rule is a decay, so the count is a guess
+  std::size_t memory_bytes = 0;    // fields, material index, absorbers, recorders
+  double smallest_cell = 0, largest_cell = 0;  // m
+};
+
+struct Progress {
+  long step = 0;
+  long planned_steps = 0;          // best current estimate
+  double steps_per_second = 0;
+  double cells_per_second = 0;
+  double eta_seconds = 0;          // < 0 when unknown
+};
+
+class Simulation {
+ public:
+  /// Builds everything; throws RunError for settings that cannot run (unstable time step, ...).
+  explicit Simulation(const Scene& scene);
+  Simulation(const Simulation&) = delete;
+  Simulation& operator=(const Simulation&) = delete;
+  ~Simulation();
+
+  ModelSummary summary() const;
+  /// Advances one full step (H then E).
+  void step();
+  /// Runs until the stop rule holds; `progress` is called about twice a second.
+  RunResults run(const std::function<void(const Progress&)>& progress = {});
+  /// Collects the results at the current time (also usable after step()).
+  RunResults results() const;
+
+  // Access for tests and tools.
+  const Grid& grid() const { return grid_; }
+  Fields& fields() { return fields_; }
+  double dt() const { return dt_; }
+  long steps_done() const { return n_; }
+  /// Field energy 1/2 sum (eps E^2 + mu0 H^2) dV over the interior, J (per unit length along
+  /// invariant axes scaled by their cell size).
+  double field_energy() const;
+
+ private:
+  void fill_periodic_halos(bool electric);
+  double sources_end_time() const;
+
+  Scene scene_;
+  Grid grid_;
+  double dt_ = 0;
+  Fields fields_;
+  CurlCoefficients curls_;
+  ECoefficients ecoef_;
+  MaterialIndex mindex_;
+  std::unique_ptr<Cpml> cpml_;
+  std::vector<DipoleSource> dipoles_;
+  std::vector<ProbeRecorder> probes_;
+  std::vector<FieldMapRecorder> maps_;
+  std::vector<FluxRecorder> fluxes_;
+  std::vector<double> all_omegas_;                 // union of output frequencies, for source spectra
+  std::vector<std::vector<Complex>> source_dft_;   // per dipole
+  long n_ = 0;
+  double wall_seconds_ = 0;
+  std::string stop_reason_;
+  double peak_energy_ = 0, last_energy_ = 0;
+};
+
+}  // namespace yeegap::solver
