@@ -4,6 +4,10 @@
 //   Drude:   -omega_p^2 / (omega^2 + i gamma omega)
 //   Lorentz: delta_eps omega_0^2 / (omega_0^2 - omega^2 - i gamma omega)
 //   conductivity: + i sigma / (eps0 omega)
+//   critical point (Etchegoin, Le Ru, Meyer, J. Chem. Phys. 125, 164705 (2006)):
+//            A Omega [ e^{i phi}/(Omega - omega - i Gamma) + e^{-i phi}/(Omega + omega + i Gamma) ]
+//   A critical point is a Lorentz-like pole with a complex numerator; it cannot be written as Drude or
+//   Lorentz poles, so it has its own list. discrete_permittivity.h gives its time-stepping form.
 #pragma once
 
 #include <complex>
@@ -23,16 +27,29 @@ struct LorentzPole {
   double gamma = 0;      // damping, rad/s
 };
 
+/// One critical-point term (a conjugate pair of poles with phase phi). A single term need not be
+/// passive on its own (Im < 0 is possible below Omega); only the whole PoleSet must be.
+struct CriticalPoint {
+  double amplitude = 0;  // A (dimensionless)
+  double phase = 0;      // phi, rad
+  double omega = 0;      // Omega: transition frequency, rad/s
+  double gamma = 0;      // Gamma: broadening, rad/s
+};
+
 struct PoleSet {
   double eps_inf = 1.0;
   double conductivity = 0.0;  // static conductivity sigma, S/m
   std::vector<DrudePole> drude;
   std::vector<LorentzPole> lorentz;
+  std::vector<CriticalPoint> critical_points;
 
-  bool dispersive() const { return !drude.empty() || !lorentz.empty(); }
+  bool dispersive() const { return !drude.empty() || !lorentz.empty() || !critical_points.empty(); }
 };
 
 /// The continuous model's relative permittivity at angular frequency omega (rad/s, > 0).
 std::complex<double> permittivity(const PoleSet& poles, double omega);
+
+/// The complex refractive index n + i k = sqrt(eps), principal root (k >= 0 for a passive medium).
+std::complex<double> refractive_index(const PoleSet& poles, double omega);
 
 }  // namespace yeegap::materials
