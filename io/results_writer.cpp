@@ -1,0 +1,331 @@
+// The results file layout of io/README.md, written group by group. Sizes inside RunResults are
+// checked as each group is written; a mismatch is our bug, reported with the output's name, and
+// (like any failure) leaves no .partial file and no damage to an older results file.
+#include "io/results_writer.h"
+
+#include <fcntl.h>
+#include <fmt/format.h>
+#include <unistd.h>
+
+#include <cerrno>
+#include <cstdio>
+#include <cstring>
+#include <filesystem>
+#include <stdexcept>
+
+#include "base/units.h"
+#include "io/h5.h"
+
+namespace yeegap::io {
+
+namespace fs = std::filesystem;
+using solver::Component;
+
+namespace {
+
+// Big arrays (field maps, material map) are chunked and compressed; the shuffle filter groups the
+// bytes of doubles by significance, which is what lets smooth fields compress at all.
+h5::Storage compressed() { return {.chunk = {}, .deflate_level = 1, .shuffle = true}; }
+
+void require(bool ok, const std::string& message) {
+  if (!ok) throw std::invalid_argument(message);
+}
+
+bool is_electric(Component c) { return c == Component::Ex || c == Component::Ey || c == Component::Ez; }
+const char* name_of(Component c) { return solver::component_names[static_cast<int>(c)]; }
+
+std::vector<std::string> names_of(const std::vector<Component>& components) {
+  std::vector<std::string> names;
+  for (Component c : components) names.emplace_back(name_of(c));
+  return names;
+}
+
+/// Every dataset carries a `units` attribute ("1" dimensionless, "none" for labels and indices).
+h5::Dataset with_units(h5::Dataset d, const char* units) {
+  d.set_attribute("units", units);
+  return d;
+}
+
+/// Cells per axis of a grid given by its node coordinates.
+hsize_t cells(const std::vector<double>& nodes) { return nodes.empty() ? 0 : nodes.size() - 1; }
+
+/// A spectrum's frequency axis, also as vacuum wavelength and photon energy, for plotting either way.
+void write_frequency_axes(const h5::Group& g, const std::vector<double>& omegas) {
+  std::vector<double> wavelength_nm, energy_eV;
+  for (double w : omegas) {
+    wavelength_nm.push_back(units::omega_to_wavelength(w) / units::nm);
+    energy_eV.push_back(units::omega_to_eV(w));
+  }
+  with_units(g.write("omega", omegas), "rad/s");
+  with_units(g.write("wavelength_nm", wavelength_nm), "nm").set_attribute("description", "vacuum wavelength 2 pi c / omega");
+  with_units(g.write("photon_energy_eV", energy_eV), "eV").set_attribute("description", "hbar omega");
+}
+
+std::vector<double> flatten(const std::vector<Vec3>& points) {
+  std::vector<double> flat;
+  for (const Vec3& p : points) flat.insert(flat.end(), {p.x, p.y, p.z});
+  return flat;
+}
+
+void write_scene(const h5::File& file, const solver::Scene& scene) {
+  const h5::Group g = file.create_group("scene");
+  g.set_attribute("file", scene.file);
+  g.set_attribute("title", scene.title);
+  g.set_attribute("version", std::int32_t{scene.version});
+  // A dataset, not an attribute: attributes are limited to 64 KiB and a scene file need not be.
+  with_units(g.write_string("text", scene.text), "none")
+      .set_attribute("description", "the scene file's text, byte for byte");
+}
+
+void write_program(const h5::File& file, const WriteInfo& info) {
+  const h5::Group g = file.create_group("program");
+  g.set_attribute("version", info.program_version);
+  g.set_attribute("command_line", info.command_line);
+  g.set_attribute("start_time", info.start_time);
+  g.set_attribute("threads", std::int32_t{info.threads});
+  unsigned major = 0, minor = 0, release = 0;
+  H5get_libversion(&major, &minor, &release);
+  g.set_attribute("hdf5_version", fmt::format("{}.{}.{}", major, minor, release));
+}
+
+void write_summary(const h5::File& file, const solver::RunSummary& s) {
+  const h5::Group g = file.create_group("summary");
+  g.set_attribute("steps", std::int64_t{s.steps});
+  g.set_attribute("time_step", s.time_step);
+  g.set_attribute("simulated_time", s.simulated_time);
+  g.set_attribute("wall_seconds", s.wall_seconds);
+  g.set_attribute("cell_updates_per_second", s.cell_updates_per_second);
+  g.set_attribute("stop_reason", s.stop_reason);
+  g.set_attribute("final_energy_fraction", s.final_energy_fraction);
+}
+
+void write_grid(const h5::File& file, const solver::RunResults& r) {
+  const h5::Group g = file.create_group("grid");
+  g.set_attribute("description", "node coordinates (cell edges) per axis");
+  with_units(g.write("x", r.grid_x), "m");
+  with_units(g.write("y", r.grid_y), "m");
+  with_units(g.write("z", r.grid_z), "m");
+}
+
+void write_materials(const h5::File& file, const solver::RunResults& r) {
+  const h5::Shape shape{cells(r.grid_z), cells(r.grid_y), cells(r.grid_x)};
+  require(r.material_map.size() == shape[0] * shape[1] * shape[2],
+          fmt::format("the material map has {} entries for a grid of {} x {} x {} cells", r.material_map.size(),
+                      shape[2], shape[1], shape[0]));
+  for (std::uint8_t index : r.material_map)
+    require(index < r.material_names.size(),
+            fmt::format("the material map holds index {} but only {} materials are named", int(index),
+                        r.material_names.size()));
+  const h5::Group g = file.create_group("materials");
+  with_units(g.write_strings("names", r.material_names), "none");
+  with_units(g.write("map", r.material_map, shape, compressed()), "none")
+      .set_attribute("description", "index into names of the material at each cell centre, x fastest");
+}
+
+void write_sources(const h5::File& file, const solver::RunResults& r, const solver::Scene& scene) {
+  const h5::Group g = file.create_group("sources");
+  const hsize_t n_freq = r.source_omegas.size();
+  const hsize_t n_dipoles = scene.dipoles.size();
+  require(r.source_spectra.empty() || r.source_spectra.size() == n_dipoles,
+          fmt::format("there are {} source spectra for {} dipoles", r.source_spectra.size(), n_dipoles));
+  write_frequency_axes(g, r.source_omegas);
+
+  std::vector<std::complex<double>> spectra;
+  for (std::size_t d = 0; d < r.source_spectra.size(); ++d) {
+    require(r.source_spectra[d].size() == n_freq, fmt::format("source spectrum {} has {} values for {} frequencies",
+                                                              d, r.source_spectra[d].size(), n_freq));
+    spectra.insert(spectra.end(), r.source_spectra[d].begin(), r.source_spectra[d].end());
+  }
+  const h5::ComplexDataset s = g.write_complex("spectrum", spectra, {r.source_spectra.size(), n_freq});
+  for (const h5::Dataset* part : {&s.re, &s.im}) {
+    part->set_attribute("units", "A m s");
+    part->set_attribute("description", "DFT of each dipole's current moment I l(t), [dipole, frequency]");
+  }
+
+  std::vector<Vec3> positions, directions;
+  std::vector<double> moments;
+  for (const auto& d : scene.dipoles) {
+    positions.push_back(d.position);
+    directions.push_back(d.direction);
+    moments.push_back(d.moment);
+  }
+  with_units(g.write("position", flatten(positions), {n_dipoles, 3}), "m");
+  with_units(g.write("direction", flatten(directions), {n_dipoles, 3}), "1");
+  with_units(g.write("moment", moments), "C m").set_attribute("description", "peak dipole moment");
+}
+
+void check_output_name(const h5::Group& outputs, const std::string& name) {
+  require(!name.empty() && name.find('/') == std::string::npos && name != "." && name != "..",
+          fmt::format("output name '{}' cannot be a group name (empty, '.', '..' or containing '/')", name));
+  require(!outputs.contains(name), fmt::format("two outputs are named '{}'", name));
+}
+
+void write_probe(const h5::Group& outputs, const solver::ProbeResult& p, double time_step) {
+  check_output_name(outputs, p.name);
+  const std::size_t n_comp = p.components.size();
+  require(p.values.size() == n_comp && p.sampled_at.size() == n_comp,
+          fmt::format("probe '{}' has {} components, {} value series and {} sample positions", p.name, n_comp,
+                      p.values.size(), p.sampled_at.size()));
+  const h5::Group g = outputs.create_group(p.name);
+  g.set_attribute("kind", "probe");
+  g.set_attribute("position", std::vector<double>{p.position.x, p.position.y, p.position.z});
+  g.set_attribute("components", names_of(p.components));
+  with_units(g.write("time", p.time), "s").set_attribute("description", "sample times of the E components");
+  with_units(g.write("sampled_at", flatten(p.sampled_at), {n_comp, 3}), "m")
+      .set_attribute("description", "Yee location actually sampled, [component, xyz]");
+  for (std::size_t c = 0; c < n_comp; ++c) {
+    const Component comp = p.components[c];
+    require(p.values[c].size() == p.time.size(), fmt::format("probe '{}' component {} has {} samples for {} times",
+                                                             p.name, name_of(comp), p.values[c].size(), p.time.size()));
+    const h5::Dataset d = with_units(g.write(name_of(comp), p.values[c]), is_electric(comp) ? "V/m" : "A/m");
+    // H lives half a step before E in the leapfrog, so its samples are taken at time - dt/2.
+    d.set_attribute("sample_time_offset", is_electric(comp) ? 0.0 : -0.5 * time_step);
+  }
+}
+
+void write_field_map(const h5::Group& outputs, const solver::FieldMapResult& m) {
+  check_output_name(outputs, m.name);
+  const hsize_t nf = m.omegas.size(), nx = m.x.size(), ny = m.y.size(), nz = m.z.size();
+  const std::size_t nodes = nx * ny * nz;
+  require(m.values.size() == nf, fmt::format("field map '{}' has values for {} frequencies, {} listed", m.name,
+                                             m.values.size(), nf));
+  for (std::size_t f = 0; f < nf; ++f) {
+    require(m.values[f].size() == m.components.size(),
+            fmt::format("field map '{}' frequency {} has {} components, {} listed", m.name, f, m.values[f].size(),
+                        m.components.size()));
+    for (std::size_t c = 0; c < m.components.size(); ++c)
+      require(m.values[f][c].size() == nodes,
+              fmt::format("field map '{}' {} at frequency {} has {} values for {} x {} x {} nodes", m.name,
+                          name_of(m.components[c]), f, m.values[f][c].size(), nx, ny, nz));
+  }
+  const h5::Group g = outputs.create_group(m.name);
+  g.set_attribute("kind", "field_map");
+  g.set_attribute("components", names_of(m.components));
+  with_units(g.write("x", m.x), "m");
+  with_units(g.write("y", m.y), "m");
+  with_units(g.write("z", m.z), "m");
+  write_frequency_axes(g, m.omegas);
+
+  const h5::Shape shape{nf, nz, ny, nx};
+  // Written one frequency at a time, so memory beyond the results themselves stays at one slab.
+  std::vector<std::string> electric;
+  std::vector<std::vector<double>> e_squared(nf, std::vector<double>(nodes, 0.0));
+  for (std::size_t c = 0; c < m.components.size(); ++c) {
+    const Component comp = m.components[c];
+    const h5::ComplexDataset d = g.create_complex(name_of(comp), shape, compressed());
+    for (const h5::Dataset* part : {&d.re, &d.im}) {
+      part->set_attribute("units", is_electric(comp) ? "V s/m" : "A s/m");
+      part->set_attribute("description", "DFT sum_n f(t_n) exp(i omega t_n) dt, [frequency, z, y, x]");
+    }
+    for (std::size_t f = 0; f < nf; ++f) {
+      d.write_slab(f, m.values[f][c]);
+      if (is_electric(comp))
+        for (std::size_t i = 0; i < nodes; ++i) e_squared[f][i] += std::norm(m.values[f][c][i]);
+    }
+    if (is_electric(comp)) electric.emplace_back(name_of(comp));
+  }
+  if (electric.empty()) return;
+  const h5::Dataset e2 = with_units(g.create_dataset<double>("E_squared", shape, compressed()), "V^2 s^2/m^2");
+  e2.set_attribute("description", "sum of |E_c|^2 over the E components listed in components");
+  e2.set_attribute("components", electric);
+  for (std::size_t f = 0; f < nf; ++f) e2.write_slab(f, std::span<const double>(e_squared[f]));
+}
+
+void write_flux(const h5::Group& outputs, const solver::FluxResult& x) {
+  check_output_name(outputs, x.name);
+  require(x.power.size() == x.omegas.size(),
+          fmt::format("flux '{}' has {} powers for {} frequencies", x.name, x.power.size(), x.omegas.size()));
+  const h5::Group g = outputs.create_group(x.name);
+  g.set_attribute("kind", "flux");
+  g.set_attribute("closed", std::int32_t{x.closed ? 1 : 0});
+  g.set_attribute("normal_axis", std::int32_t{x.normal_axis});
+  write_frequency_axes(g, x.omegas);
+  with_units(g.write("power", x.power), "W s^2")
+      .set_attribute("description",
+                     "0.5 Re of the surface integral of E x conj(H) from DFT spectra; outward for a closed box, "
+                     "towards +normal_axis for a plane");
+}
+
+void write_layout(const h5::File& file, const solver::RunResults& r, const solver::Scene& scene,
+                  const WriteInfo& info) {
+  file.set_attribute("format", results_format);
+  file.set_attribute("format_version", std::int32_t{results_format_version});
+  write_scene(file, scene);
+  write_program(file, info);
+  write_summary(file, r.summary);
+  write_grid(file, r);
+  write_materials(file, r);
+  write_sources(file, r, scene);
+  const h5::Group outputs = file.create_group("outputs");
+  for (const auto& p : r.probes) write_probe(outputs, p, r.summary.time_step);
+  for (const auto& m : r.field_maps) write_field_map(outputs, m);
+  for (const auto& x : r.fluxes) write_flux(outputs, x);
+}
+
+/// Forces the file's bytes to disk, so the rename cannot expose an empty file after a crash.
+void sync_file(const std::string& path) {
+  const int fd = ::open(path.c_str(), O_RDONLY);
+  if (fd < 0 || ::fsync(fd) != 0) {
+    const int err = errno;
+    if (fd >= 0) ::close(fd);
+    throw std::runtime_error(fmt::format("cannot flush '{}' to disk: {}", path, std::strerror(err)));
+  }
+  ::close(fd);
+}
+
+/// Makes the rename itself durable; best effort, since some file systems refuse fsync on a directory.
+void sync_directory(const fs::path& dir) {
+  const int fd = ::open(dir.empty() ? "." : dir.c_str(), O_RDONLY | O_DIRECTORY);
+  if (fd < 0) return;
+  ::fsync(fd);
+  ::close(fd);
+}
+
+}  // namespace
+
+void check_writable(const std::string& path) {
+  const auto refuse = [&](const std::string& why) {
+    throw std::runtime_error(fmt::format("cannot write results file '{}': {}", path, why));
+  };
+  if (path.empty()) refuse("the path is empty");
+  const fs::path target(path);
+  const fs::path dir = target.has_parent_path() ? target.parent_path() : fs::path(".");
+  std::error_code ec;
+  const fs::file_status dir_status = fs::status(dir, ec);
+  if (!fs::exists(dir_status)) refuse(fmt::format("directory '{}' does not exist", dir.string()));
+  if (!fs::is_directory(dir_status)) refuse(fmt::format("'{}' is not a directory", dir.string()));
+  if (fs::is_directory(fs::status(target, ec))) refuse("a directory of that name exists");
+
+  // Try for real: permission bits do not show root's rights, read-only mounts or full quotas.
+  const std::string probe = fmt::format("{}.write-check-{}", path, ::getpid());
+  std::FILE* f = std::fopen(probe.c_str(), "wb");
+  if (f == nullptr) refuse(fmt::format("directory '{}' is not writable: {}", dir.string(), std::strerror(errno)));
+  std::fclose(f);
+  fs::remove(probe, ec);
+}
+
+void write_results(const std::string& path, const solver::RunResults& results, const solver::Scene& scene,
+                   const WriteInfo& info) {
+  const std::string partial = path + ".partial";
+  bool partial_is_ours = false;  // never remove something of that name that we did not create
+  try {
+    {
+      h5::File file = h5::File::create(partial);
+      partial_is_ours = true;
+      write_layout(file, results, scene, info);
+      file.close();  // every group and dataset above is closed by now, as File::close requires
+    }
+    sync_file(partial);
+    fs::rename(partial, path);  // atomic replacement of an older file within one file system (POSIX)
+    partial_is_ours = false;
+    sync_directory(fs::path(path).parent_path());
+  } catch (const std::exception& e) {
+    if (partial_is_ours) {
+      std::error_code ec;
+      fs::remove(partial, ec);
+    }
+    throw std::runtime_error(fmt::format("cannot write results file '{}': {}", path, e.what()));
+  }
+}
+
+}  // namespace yeegap::io
