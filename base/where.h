@@ -15,7 +15,13 @@ struct Where {
   /// "scene.yaml:14:13" (or "scene.yaml" when the position is unknown).
   std::string location() const {
     std::string s = file;
-    if (line > 0) s += ":" + std::to_string(line) + ":" + std::to_string(column);
+    if (line > 0) {
+      // Appended piecewise: GCC 12 warns falsely (-Wrestrict) on chained operator+ here.
+      s += ':';
+      s += std::to_string(line);
+      s += ':';
+      s += std::to_string(column);
+    }
     return s;
   }
 };
