@@ -119,6 +119,60 @@ Simulation::Simulation(const Scene& scene)
 
 Simulation::~Simulation() = default;
 
+ModelSummary Simulation::plan(const Scene& scene) {
+  const Grid g = Grid::uniform(scene.domain);
+  const double dt = choose_time_step(scene, g);
+  check_scene(scene, g);
+  ModelSummary m;
+  m.cells = g.n;
+  m.cell_count = g.cell_count();
+  m.time_step = dt;
+  m.courant_limit = g.courant_limit();
+  m.smallest_cell = std::min({g.min_spacing(0), g.min_spacing(1), g.min_spacing(2)});
+  for (int a = 0; a < 3; ++a)
+    for (int i = 0; i < g.n[a]; ++i) m.largest_cell = std::max(m.largest_cell, g.primal(a, i));
+  const BlockLayout L = BlockLayout::of(g.n);
+  std::size_t bytes = 6 * L.total * sizeof(real) + 3 * L.total;
+  // CPML: four psi arrays per absorbing face over its slab.
+  for (int a = 0; a < 3; ++a)
+    for (int side = 0; side < 2; ++side)
+      if (scene.domain.edges[2 * a + side] == EdgeKind::absorber)
+        bytes += 4 * sizeof(real) * static_cast<std::size_t>(scene.domain.absorber.cells) * (L.total / (g.n[a] + 2));
+  // Recorders: complex double per sampled point and frequency.
+  for (const auto& f : scene.field_maps) {
+    std::size_t pts = 1;
+    for (int a = 0; a < 3; ++a) {
+      const auto r = node_range(g, a, f.region.lo[a], f.region.hi[a]);
+      pts *= static_cast<std::size_t>(r[1] - r[0] + 2);
+    }
+    bytes += pts * f.components.size() * f.omegas.size() * sizeof(Complex);
+  }
+  for (const auto& f : scene.fluxes) {
+    std::size_t area = 0;
+    std::array<std::size_t, 3> ext{};
+    for (int a = 0; a < 3; ++a) {
+      const auto r = node_range(g, a, f.region.lo[a], f.region.hi[a]);
+      ext[a] = static_cast<std::size_t>(r[1] - r[0] + 2);
+    }
+    area = 2 * (ext[0] * ext[1] + ext[1] * ext[2] + ext[0] * ext[2]);
+    bytes += 4 * area * f.omegas.size() * sizeof(Complex);
+  }
+  m.memory_bytes = bytes;
+  const StopSpec& st = scene.stop;
+  double source_end = 0;
+  for (const auto& d : scene.dipoles) source_end = std::max(source_end, SourceTime(d.waveform).end_time());
+  if (st.after > 0) {
+    m.steps = std::min<long>(st.max_steps, static_cast<long>(std::ceil(st.after / dt)));
+  } else {
+    double longest = 0;
+    for (int a = 0; a < 3; ++a) longest = std::max(longest, g.nodes[a].back() - g.nodes[a].front());
+    const double t = std::min(source_end, 1e300) + 10.0 * longest / constants::c0;
+    m.steps = std::min<long>(st.max_steps, static_cast<long>(std::ceil(t / dt)));
+    m.steps_estimated = true;
+  }
+  return m;
+}
+
 double Simulation::sources_end_time() const {
   double t = 0;
   for (const auto& d : dipoles_) t = std::max(t, d.time().end_time());
@@ -126,27 +180,8 @@ double Simulation::sources_end_time() const {
 }
 
 ModelSummary Simulation::summary() const {
-  ModelSummary m;
-  m.cells = grid_.n;
-  m.cell_count = grid_.cell_count();
-  m.time_step = dt_;
-  m.courant_limit = grid_.courant_limit();
-  m.smallest_cell = std::min({grid_.min_spacing(0), grid_.min_spacing(1), grid_.min_spacing(2)});
-  m.largest_cell = 0;
-  for (int a = 0; a < 3; ++a)
-    for (int i = 0; i < grid_.n[a]; ++i) m.largest_cell = std::max(m.largest_cell, grid_.primal(a, i));
-  const StopSpec& st = scene_.stop;
-  if (st.after > 0) {
-    m.steps = std::min<long>(st.max_steps, static_cast<long>(std::ceil(st.after / dt_)));
-  } else {
-    // A decay stop has no known length: guess the source duration plus ten light crossings of the
-    // domain's longest side, which is what a weakly resonant scene needs (common practice).
-    double longest = 0;
-    for (int a = 0; a < 3; ++a) longest = std::max(longest, grid_.nodes[a].back() - grid_.nodes[a].front());
-    const double t = std::min(sources_end_time(), 1e300) + 10.0 * longest / constants::c0;
-    m.steps = std::min<long>(st.max_steps, static_cast<long>(std::ceil(t / dt_)));
-    m.steps_estimated = true;
-  }
+  ModelSummary m = plan(scene_);
+  // Measured memory of what was actually built replaces the estimate.
   std::size_t bytes = 6 * fields_.layout.total * sizeof(real) + 3 * fields_.layout.total;
   if (cpml_) bytes += cpml_->memory_bytes();
   for (const auto& r : maps_) bytes += r.memory_bytes();

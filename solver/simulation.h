@@ -50,6 +50,9 @@ class Simulation {
   ~Simulation();
 
   ModelSummary summary() const;
+  /// The same figures without allocating the fields (for `yeegap check` on scenes too big to
+  /// build here); memory of recorders is estimated from their extents.
+  static ModelSummary plan(const Scene& scene);
   /// Advances one full step (H then E).
   void step();
   /// Runs until the stop rule holds; `progress` is called about twice a second.
