@@ -1,0 +1,76 @@
+// The `excitation` list: the sources of a run. Each item holds one source; this version knows the
+// point dipole, driven by a pulse over a band or by a continuous wave with a smooth turn-on.
+#include <tuple>
+
+#include <fmt/format.h>
+
+#include "base/constants.h"
+#include "io/read_values.h"
+#include "io/scene_blocks.h"
+
+namespace yeegap::io {
+namespace {
+
+// A continuous wave with no 'ramp' turns on over this many periods. Common practice: a turn-on of
+// several periods keeps the source's spectrum narrow around its frequency.
+constexpr double default_ramp_periods = 10.0;
+// Default peak moment, the value scene.h uses: about 0.006 e nm, an order of a molecular dipole.
+// Its size only scales the fields, since everything is linear.
+constexpr double default_moment = 1e-30;  // C m
+
+solver::Waveform read_waveform(const Node& block) {
+  solver::Waveform w;
+  const bool band = block.has("band"), cw = block.has("frequency");
+  if (band && cw)
+    block.fail_key("frequency", fmt::format("{}: give either 'band' (a pulse) or 'frequency' (a continuous wave), "
+                                            "not both", block.path()));
+  if (!band && !cw)
+    block.fail("missing key 'band' (a pulse, e.g. 'band: {from: 500 nm, to: 800 nm}') or 'frequency' "
+               "(a continuous wave, e.g. 'frequency: 600 nm')");
+  if (band) {
+    if (block.has("ramp"))
+      block.fail_key("ramp", fmt::format("{}: 'ramp' applies to a continuous wave ('frequency'), not to a pulse "
+                                         "over a band", block.path()));
+    w.kind = solver::Waveform::Kind::pulse;
+    std::tie(w.omega_min, w.omega_max) = read_band(*block.get("band"));
+    return w;
+  }
+  w.kind = solver::Waveform::Kind::continuous;
+  w.omega_min = w.omega_max = read_omega(*block.get("frequency"));
+  const double period = 2.0 * constants::pi / w.omega_min;
+  w.ramp_time = default_ramp_periods * period;
+  if (auto ramp = block.get("ramp")) w.ramp_time = read_positive_time(*ramp);
+  return w;
+}
+
+solver::DipoleSpec read_dipole(const Node& block, const solver::DomainSpec& domain) {
+  block.allow({"position", "direction", "moment", "band", "frequency", "ramp"});
+  if (!block.is_map()) block.fail("must be a block with position, direction and band or frequency");
+  solver::DipoleSpec d;
+  d.where = block.where();
+  const Node position = block.require("position");
+  d.position = read_position(position);
+  check_inside_domain(position, d.position, domain);
+  d.direction = read_direction(block.require("direction"));
+  d.moment = default_moment;
+  if (auto moment = block.get("moment")) d.moment = read_dipole_moment(*moment);
+  d.waveform = read_waveform(block);
+  block.done();
+  return d;
+}
+
+}  // namespace
+
+void read_excitation(const Node& list, solver::Scene& scene) {
+  const std::vector<Node> items = list.items_or_single();
+  if (items.empty()) list.fail("needs at least one source, e.g. '- dipole: {position: ..., direction: z, band: ...}'");
+  for (const Node& item : items) {
+    item.allow({"dipole"}, /*planned=*/{"plane_wave", "tfsf", "beam"});
+    if (!item.is_map() || item.entries().size() != 1)
+      item.fail(fmt::format("each item holds exactly one source, e.g. '- dipole: {{...}}', got {}", item.found()));
+    scene.dipoles.push_back(read_dipole(item.require("dipole"), scene.domain));
+    item.done();
+  }
+}
+
+}  // namespace yeegap::io

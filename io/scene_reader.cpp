@@ -1,0 +1,105 @@
+// The scene reader's entry points and the two small blocks `scene` and `stop`. The YAML is parsed
+// whole, overrides are applied to the tree, then each top-level block is read by its own file
+// (scene_blocks.h); unknown keys are refused before anything is converted.
+#include "io/scene_reader.h"
+
+#include <cerrno>
+#include <cstring>
+#include <fstream>
+#include <sstream>
+
+#include <fmt/format.h>
+
+#include "base/errors.h"
+#include "io/overrides.h"
+#include "io/read_values.h"
+#include "io/scene_blocks.h"
+#include "io/yaml_node.h"
+
+namespace yeegap::io {
+namespace {
+
+// The format version this reader understands; a file with another one was written for a program
+// that reads its keys differently.
+constexpr long scene_format_version = 1;
+
+YAML::Node parse_yaml(const std::string& text, const std::string& label) {
+  try {
+    return YAML::Load(text);
+  } catch (const YAML::ParserException& e) {
+    // e.msg is yaml-cpp's text without its own "error at line..." prefix; marks are 0-based.
+    throw SceneError(Where{label, e.mark.line + 1, e.mark.column + 1, ""}, fmt::format("YAML syntax error: {}", e.msg));
+  } catch (const YAML::Exception& e) {
+    throw SceneError(Where{label, 0, 0, ""}, fmt::format("cannot read the YAML: {}", e.what()));
+  }
+}
+
+}  // namespace
+
+void read_scene_block(const Node& block, solver::Scene& scene) {
+  block.allow({"version", "title"});
+  const Node version = block.require("version");
+  const long v = read_whole_number(version, 1);
+  if (v != scene_format_version)
+    version.fail(fmt::format("this program reads scene format version {}, got '{}'", scene_format_version,
+                             version.text()));
+  scene.version = static_cast<int>(v);
+  if (auto title = block.get("title")) scene.title = read_text(*title);
+  block.done();
+}
+
+void read_stop(const Node& block, solver::Scene& scene) {
+  block.allow({"after", "decayed", "max_steps"});
+  if (!block.has("after") && !block.has("decayed"))
+    block.fail("needs 'after' (a time, e.g. 'after: 200 fs') or 'decayed' (a fraction, e.g. 'decayed: 1e-5'), or both");
+  if (auto after = block.get("after")) scene.stop.after = read_positive_time(*after);
+  if (auto decayed = block.get("decayed")) {
+    const double f = read_number(*decayed);
+    if (!(f > 0 && f < 1)) decayed->fail(fmt::format("must be a fraction between 0 and 1, got '{}'", decayed->text()));
+    scene.stop.decayed = f;
+  }
+  if (auto max_steps = block.get("max_steps")) scene.stop.max_steps = read_whole_number(*max_steps, 1);
+  block.done();
+}
+
+solver::Scene read_scene_text(const std::string& text, const std::string& file_label,
+                              const std::vector<std::string>& overrides) {
+  auto source = std::make_shared<SceneSource>();
+  source->file = file_label;
+  YAML::Node doc = parse_yaml(text, file_label);
+  if (!doc.IsDefined() || doc.IsNull())
+    throw SceneError(Where{file_label, 0, 0, ""}, "the scene is empty; it needs at least the blocks scene, domain, "
+                                                  "excitation and stop (see docs/scene.md)");
+  if (!doc.IsMap())
+    throw SceneError(Where{file_label, doc.Mark().line + 1, doc.Mark().column + 1, ""},
+                     "a scene is a block of keys (scene, domain, materials, bodies, excitation, outputs, stop)");
+  apply_overrides(doc, overrides, *source);
+
+  const Node root = Node::root(doc, source);
+  root.allow({"scene", "domain", "materials", "bodies", "excitation", "outputs", "stop"},
+             /*planned=*/{"tunnelling", "sweep"});
+
+  solver::Scene scene;
+  scene.file = file_label;
+  scene.text = text;
+  read_scene_block(root.require("scene"), scene);
+  if (auto materials = root.get("materials")) read_materials(*materials, scene);
+  read_domain(root.require("domain"), scene);
+  if (auto bodies = root.get("bodies")) read_bodies(*bodies, scene);
+  read_excitation(root.require("excitation"), scene);
+  if (auto outputs = root.get("outputs")) read_outputs(*outputs, scene);
+  read_stop(root.require("stop"), scene);
+  root.done();
+  return scene;
+}
+
+solver::Scene read_scene_file(const std::string& path, const std::vector<std::string>& overrides) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw SceneError(Where{path, 0, 0, ""}, fmt::format("cannot open the scene file: {}", std::strerror(errno)));
+  std::ostringstream text;
+  text << in.rdbuf();
+  if (in.bad()) throw SceneError(Where{path, 0, 0, ""}, "cannot read the scene file");
+  return read_scene_text(text.str(), path, overrides);
+}
+
+}  // namespace yeegap::io

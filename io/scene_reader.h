@@ -1,0 +1,21 @@
+// Reading a scene file (YAML) into the typed, validated solver::Scene, in SI units. The format is
+// documented key by key in docs/scene.md. Every mistake in the text is a SceneError with file,
+// line, column, key path, what was expected and what was found.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "solver/scene.h"
+
+namespace yeegap::io {
+
+/// Reads and validates the scene at `path`. `overrides` are "key.path=value" edits (the --set
+/// option of `yeegap run`) applied before validation, e.g. "domain.step=2 nm".
+solver::Scene read_scene_file(const std::string& path, const std::vector<std::string>& overrides = {});
+
+/// The same for scene text held in memory; `file_label` names it in messages and Scene::file.
+solver::Scene read_scene_text(const std::string& text, const std::string& file_label,
+                              const std::vector<std::string>& overrides = {});
+
+}  // namespace yeegap::io
