@@ -1,0 +1,69 @@
+// `yeegap check SCENE`: validates the scene and prints the grid, time step, steps, memory and a
+// cost estimate without running anything (and without allocating the fields).
+#include <cstdio>
+
+#include <fmt/format.h>
+
+#include "commands.h"
+#include "io/scene_reader.h"
+#include "json.h"
+#include "solver/simulation.h"
+
+namespace yeegap::cli {
+
+namespace {
+
+// Cell updates per second assumed for the time estimate until the benchmark figure of this
+// machine is known: a conservative figure for two cores (docs/performance.md).
+constexpr double assumed_cell_updates_per_second = 1.0e8;
+
+struct CheckOptions {
+  std::string scene;
+  std::vector<std::string> overrides;
+  bool json = false;
+};
+
+int run_check(const CheckOptions& o) {
+  const solver::Scene scene = io::read_scene_file(o.scene, o.overrides);
+  const solver::ModelSummary m = solver::Simulation::plan(scene);
+  const double cost_seconds = static_cast<double>(m.cell_count) * m.steps / assumed_cell_updates_per_second;
+  if (o.json) {
+    JsonObject j;
+    j.text("scene", o.scene)
+        .add("grid", json_array({fmt::format("{}", m.cells[0]), fmt::format("{}", m.cells[1]), fmt::format("{}", m.cells[2])}))
+        .number("cells", static_cast<double>(m.cell_count))
+        .number("smallest_cell_m", m.smallest_cell)
+        .number("largest_cell_m", m.largest_cell)
+        .number("memory_bytes", static_cast<double>(m.memory_bytes))
+        .number("time_step_s", m.time_step)
+        .number("courant_limit_s", m.courant_limit)
+        .number("steps", static_cast<double>(m.steps))
+        .add("steps_estimated", m.steps_estimated ? "true" : "false")
+        .number("estimated_seconds", cost_seconds);
+    std::printf("%s\n", j.str().c_str());
+    return exit_ok;
+  }
+  std::fprintf(stderr, "%s: valid\n", o.scene.c_str());
+  std::fprintf(stderr, "  grid        %d x %d x %d = %lld cells, cells %.4g to %.4g nm\n", m.cells[0], m.cells[1], m.cells[2],
+               m.cell_count, m.smallest_cell * 1e9, m.largest_cell * 1e9);
+  std::fprintf(stderr, "  time step   %.4g fs (Courant limit %.4g fs)\n", m.time_step * 1e15, m.courant_limit * 1e15);
+  std::fprintf(stderr, "  steps       %s%ld (%.4g fs)\n", m.steps_estimated ? "about " : "", m.steps, m.steps * m.time_step * 1e15);
+  std::fprintf(stderr, "  memory      %.1f MB\n", m.memory_bytes / 1e6);
+  std::fprintf(stderr, "  cost        about %.3g cell updates, %.0f s at %.0f Mcells/s\n",
+               static_cast<double>(m.cell_count) * m.steps, cost_seconds, assumed_cell_updates_per_second / 1e6);
+  return exit_ok;
+}
+
+}  // namespace
+
+void add_check_command(CLI::App& app, int& exit_code) {
+  auto opts = std::make_shared<CheckOptions>();
+  CLI::App* cmd = app.add_subcommand("check", "validate a scene and print grid, time step, steps, memory and cost");
+  cmd->footer("Example:\n  yeegap check examples/dipole_near_sphere.yaml --json");
+  cmd->add_option("scene", opts->scene, "scene file (YAML)")->required();
+  cmd->add_option("--set", opts->overrides, "override a scene value, e.g. --set domain.step=2nm (repeatable)");
+  cmd->add_flag("--json", opts->json, "print one JSON object on stdout");
+  cmd->callback([opts, &exit_code] { exit_code = guarded([&] { return run_check(*opts); }); });
+}
+
+}  // namespace yeegap::cli

@@ -1,0 +1,23 @@
+// The verbs of the `yeegap` program (naming.md). Each verb registers itself on the CLI11 app and
+// returns the exit code through the callback's shared state.
+#pragma once
+
+#include <CLI/CLI.hpp>
+
+namespace yeegap::cli {
+
+/// Exit codes: 0 success, 1 a failure of the program or the system (disk, memory),
+/// 2 a mistake in the user's input (scene, option, unstable setting), found before running.
+inline constexpr int exit_ok = 0;
+inline constexpr int exit_failure = 1;
+inline constexpr int exit_user_error = 2;
+
+/// `command_line` is the program's arguments joined by spaces, stored with the results.
+void add_run_command(CLI::App& app, int& exit_code, const std::string& command_line);
+void add_check_command(CLI::App& app, int& exit_code);
+
+/// Runs `body`, turning user errors into a message and exit_user_error, other failures into
+/// exit_failure; prints to stderr.
+int guarded(const std::function<int()>& body);
+
+}  // namespace yeegap::cli

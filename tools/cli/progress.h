@@ -1,0 +1,20 @@
+// Progress of a long run on a terminal: percent, steps/s, Mcells/s and time left, redrawn in place
+// on stderr. Silent when stderr is not a terminal (logs, batch jobs, pipes).
+#pragma once
+
+#include "solver/simulation.h"
+
+namespace yeegap::cli {
+
+class ProgressLine {
+ public:
+  ProgressLine();
+  ~ProgressLine();
+  void update(const solver::Progress& p);
+
+ private:
+  bool enabled_;
+  bool drawn_ = false;
+};
+
+}  // namespace yeegap::cli

@@ -1,0 +1,172 @@
+// `yeegap run SCENE`: reads and checks the scene, refuses what cannot run before starting, runs it
+// with progress on a terminal, writes one HDF5 results file and prints the headline figures
+// (`--json`: one object on stdout for scripts and sweeps).
+#include <omp.h>
+
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <ctime>
+#include <filesystem>
+
+#include <fmt/format.h>
+
+#include "base/constants.h"
+#include "commands.h"
+#include "io/results_writer.h"
+#include "io/scene_reader.h"
+#include "json.h"
+#include "progress.h"
+#include "solver/simulation.h"
+
+namespace yeegap::cli {
+
+namespace {
+
+struct RunOptions {
+  std::string scene;
+  std::string output;
+  std::vector<std::string> overrides;
+  int threads = 0;
+  bool json = false;
+  std::string command_line;
+};
+
+std::string default_output(const std::string& scene) {
+  return std::filesystem::path(scene).replace_extension(".h5").string();
+}
+
+std::string now_iso8601() {
+  const std::time_t t = std::time(nullptr);
+  char buf[64];
+  std::strftime(buf, sizeof buf, "%Y-%m-%dT%H:%M:%S%z", std::localtime(&t));
+  return buf;
+}
+
+// Power a dipole of current moment |I l| radiates in a lossless background of index n:
+// P0 = n eta0 k0^2 |I l|^2 / (12 pi) (Jackson 1999, eq. 9.24, with eta = eta0/n and k = n k0).
+double dipole_power_in_background(double omega, double il, double n) {
+  const double k0 = omega / constants::c0;
+  return n * constants::eta0 * k0 * k0 * il * il / (12 * constants::pi);
+}
+
+// Headline figures of each output, as JSON, and one human line each on stderr.
+std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
+  JsonObject outs;
+  const double n_bg = std::sqrt(scene.materials[scene.domain.background].poles.eps_inf);
+  for (const auto& f : r.fluxes) {
+    std::vector<std::string> rows;
+    std::fprintf(stderr, "  flux %s:\n", f.name.c_str());
+    for (std::size_t q = 0; q < f.omegas.size(); ++q) {
+      JsonObject row;
+      const double lambda_nm = 2 * constants::pi * constants::c0 / f.omegas[q] * 1e9;
+      row.number("wavelength_nm", lambda_nm).number("power", f.power[q]);
+      std::string rel;
+      if (r.source_spectra.size() == 1) {
+        // Normalised to the same dipole alone in the background: for a box around the dipole this
+        // is the total decay-rate enhancement; for a box around everything, the radiative one.
+        const auto it = std::find(r.source_omegas.begin(), r.source_omegas.end(), f.omegas[q]);
+        const double il = std::abs(r.source_spectra[0][it - r.source_omegas.begin()]);
+        const double rel_power = f.power[q] / dipole_power_in_background(f.omegas[q], il, n_bg);
+        row.number("relative_to_dipole_alone", rel_power);
+        rel = fmt::format("  ({:.4f} x the dipole alone)", rel_power);
+      }
+      std::fprintf(stderr, "    %8.2f nm  %.5g%s\n", lambda_nm, f.power[q], rel.c_str());
+      rows.push_back(row.str());
+    }
+    outs.add(f.name, json_array(rows));
+  }
+  for (const auto& m : r.field_maps) {
+    std::vector<std::string> rows;
+    for (std::size_t q = 0; q < m.omegas.size(); ++q) {
+      double peak = 0;
+      for (std::size_t c = 0; c < m.components.size(); ++c)
+        if (solver::is_electric(m.components[c]))
+          for (std::size_t p = 0; p < m.values[q][c].size(); ++p) {
+            double e2 = 0;
+            for (std::size_t c2 = 0; c2 < m.components.size(); ++c2)
+              if (solver::is_electric(m.components[c2])) e2 += std::norm(m.values[q][c2][p]);
+            peak = std::max(peak, e2);
+          }
+      JsonObject row;
+      row.number("wavelength_nm", 2 * constants::pi * constants::c0 / m.omegas[q] * 1e9).number("peak_E_squared", peak);
+      rows.push_back(row.str());
+    }
+    std::fprintf(stderr, "  field map %s: %zu x %zu x %zu nodes, %zu frequencies\n", m.name.c_str(), m.x.size(), m.y.size(),
+                 m.z.size(), m.omegas.size());
+    outs.add(m.name, json_array(rows));
+  }
+  for (const auto& p : r.probes) {
+    std::vector<std::string> rows;
+    for (std::size_t c = 0; c < p.components.size(); ++c) {
+      double peak = 0;
+      for (double v : p.values[c]) peak = std::max(peak, std::abs(v));
+      JsonObject row;
+      row.text("component", solver::component_names[static_cast<int>(p.components[c])]).number("peak", peak);
+      rows.push_back(row.str());
+    }
+    std::fprintf(stderr, "  probe %s: %zu samples\n", p.name.c_str(), p.time.size());
+    outs.add(p.name, json_array(rows));
+  }
+  return outs.str();
+}
+
+int run_scene(const RunOptions& o) {
+  const solver::Scene scene = io::read_scene_file(o.scene, o.overrides);
+  const std::string output = o.output.empty() ? default_output(o.scene) : o.output;
+  io::check_writable(output);  // fail now, not after hours of computing
+  if (o.threads > 0) omp_set_num_threads(o.threads);
+  const int threads = omp_get_max_threads();
+  const std::string started = now_iso8601();
+
+  solver::Simulation sim(scene);
+  const solver::ModelSummary plan = sim.summary();
+  std::fprintf(stderr, "yeegap: %s: %d x %d x %d cells, dt %.4g fs, %s%ld steps, %.1f MB, %d thread%s\n", o.scene.c_str(),
+               plan.cells[0], plan.cells[1], plan.cells[2], plan.time_step * 1e15, plan.steps_estimated ? "about " : "",
+               plan.steps, plan.memory_bytes / 1e6, threads, threads == 1 ? "" : "s");
+  solver::RunResults results;
+  {
+    ProgressLine progress;
+    results = sim.run([&](const solver::Progress& p) { progress.update(p); });
+  }
+  io::write_results(output, results, scene, {YEEGAP_VERSION, o.command_line, started, threads});
+  const auto& s = results.summary;
+  std::fprintf(stderr, "yeegap: %ld steps (%s) in %.1f s, %.1f Mcells/s; results in %s\n", s.steps, s.stop_reason.c_str(),
+               s.wall_seconds, s.cell_updates_per_second / 1e6, output.c_str());
+  const std::string outs = headlines(results, scene);
+  if (o.json) {
+    JsonObject j;
+    j.text("results", output)
+        .number("steps", static_cast<double>(s.steps))
+        .text("stop_reason", s.stop_reason)
+        .number("time_step_s", s.time_step)
+        .number("wall_seconds", s.wall_seconds)
+        .number("mcells_per_second", s.cell_updates_per_second / 1e6)
+        .number("threads", threads)
+        .add("outputs", outs);
+    std::printf("%s\n", j.str().c_str());
+  }
+  return exit_ok;
+}
+
+}  // namespace
+
+void add_run_command(CLI::App& app, int& exit_code, const std::string& command_line) {
+  auto opts = std::make_shared<RunOptions>();
+  CLI::App* cmd = app.add_subcommand("run", "run one scene and write its results file (HDF5)");
+  cmd->footer(
+      "Examples:\n"
+      "  yeegap run examples/dipole_near_sphere.yaml\n"
+      "  yeegap run scene.yaml -o out.h5 --threads 2 --set 'bodies[0].radius=45 nm' --json");
+  cmd->add_option("scene", opts->scene, "scene file (YAML)")->required();
+  cmd->add_option("-o,--output", opts->output, "results file (default: the scene's name with .h5)");
+  cmd->add_option("--set", opts->overrides, "override a scene value, e.g. --set domain.step=2nm (repeatable)");
+  cmd->add_option("--threads", opts->threads, "worker threads (default: all cores)")->check(CLI::PositiveNumber);
+  cmd->add_flag("--json", opts->json, "print a one-object summary on stdout at the end");
+  opts->command_line = command_line;
+  cmd->callback([opts, &exit_code] {
+    exit_code = guarded([&] { return run_scene(*opts); });
+  });
+}
+
+}  // namespace yeegap::cli
