@@ -1,0 +1,49 @@
+#!/usr/bin/env bash
+# Command-line behaviour that users and scripts rely on: exit codes, where error messages point,
+# the JSON of `check`. Usage: cli_check.sh YEEGAP_BINARY SOURCE_DIR
+set -u
+yeegap=$1
+src=$2
+work=$(mktemp -d)
+trap 'rm -rf "$work"' EXIT
+fails=0
+pass=0
+expect() {  # expect NAME WANT_EXIT PATTERN -- command...
+  local name=$1 want=$2 pattern=$3
+  shift 4
+  local out code
+  out=$("$@" 2>&1)
+  code=$?
+  if [ "$code" -ne "$want" ] || ! grep -qE -- "$pattern" <<<"$out"; then
+    echo "FAIL $name: exit $code (want $want), output:"
+    echo "$out" | head -5
+    fails=$((fails + 1))
+  else
+    pass=$((pass + 1))
+  fi
+}
+
+# A misspelt top-level key: file:line:column, a suggestion, exit code 2, nothing run.
+sed 's/^outputs:/outptus:/' "$src/examples/dipole_near_sphere.yaml" >"$work/misspelt.yaml"
+line=$(grep -n '^outptus:' "$work/misspelt.yaml" | cut -d: -f1)
+expect misspelt_top_level_key 2 "misspelt.yaml:$line:1: .*outptus.*did you mean 'outputs'" -- "$yeegap" check "$work/misspelt.yaml"
+expect misspelt_key_not_run 2 "did you mean" -- "$yeegap" run "$work/misspelt.yaml" -o "$work/never.h5"
+[ -e "$work/never.h5" ] && { echo "FAIL: a results file was written for an invalid scene"; fails=$((fails + 1)); }
+
+# An explicit time step above the Courant limit is refused before the run, exit code 2.
+expect unstable_time_step 2 "Courant limit" -- "$yeegap" check "$src/examples/dipole_near_sphere.yaml" --set "domain.time_step=1 fs"
+
+# check --json: one object with the documented keys.
+expect check_json 0 '"cells": 512000.*"memory_bytes": [0-9]+.*"time_step_s": [0-9.e-]+.*"steps": [0-9]+' -- \
+  "$yeegap" check "$src/examples/dipole_near_sphere.yaml" --json
+
+# A missing file, a bad option.
+expect missing_file 2 "nothing.yaml" -- "$yeegap" check "$work/nothing.yaml"
+expect unknown_option 2 "" -- "$yeegap" run --no-such-option x.yaml
+expect version 0 "yeegap [0-9]+\.[0-9]+" -- "$yeegap" --version
+
+# An unwritable results path fails before running and says which path.
+expect unwritable_output 1 "$work/no/such/dir/out.h5" -- "$yeegap" run "$src/examples/dipole_near_sphere.yaml" -o "$work/no/such/dir/out.h5"
+
+echo "$pass passed, $fails failed"
+[ "$fails" -eq 0 ]
