@@ -5,6 +5,7 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
+#include "materials/discrete_permittivity.h"
 
 namespace yeegap::solver {
 
@@ -43,9 +44,17 @@ void fill_material_index(const Scene& s, const Grid& g, const BlockLayout& L, Ma
 ECoefficients e_coefficients(const Scene& s, double dt) {
   ECoefficients ec;
   for (const MaterialSpec& m : s.materials) {
-    const double eps = constants::eps0 * m.poles.eps_inf;
+    // A critical point's current holds (eps0 a1 / (2 (1 + G dt))) E^{n+1} (dispersive.cpp), so it
+    // adds to the E^{n+1} side like eps0 eps_inf / dt: fold it into the effective permittivity.
+    double implicit = 0;
+    for (const materials::CriticalPoint& cp : m.poles.critical_points) {
+      const materials::CriticalPointAde a = materials::critical_point_ade(cp);
+      implicit += 0.5 * a.a1 * dt / (1.0 + 0.5 * a.damping * dt);
+    }
+    const double eps = constants::eps0 * (m.poles.eps_inf + implicit);
     const double loss = m.poles.conductivity * dt / (2.0 * eps);
-    ec.ca.push_back(m.perfect_conductor ? 0 : static_cast<real>((1.0 - loss) / (1.0 + loss)));
+    const double eps_inf_part = m.poles.eps_inf / (m.poles.eps_inf + implicit);  // 1 without critical points
+    ec.ca.push_back(m.perfect_conductor ? 0 : static_cast<real>((eps_inf_part - loss) / (1.0 + loss)));
     ec.cb.push_back(m.perfect_conductor ? 0 : static_cast<real>((dt / eps) / (1.0 + loss)));
   }
   ec.ca.push_back(0);

@@ -11,6 +11,7 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
+#include "solver/dispersive_stability.h"
 #include "solver/material_map.h"
 
 namespace yeegap::solver {
@@ -49,10 +50,8 @@ void check_scene(const Scene& s, const Grid& g) {
                                    "xyz"[a], g.n[a], s.domain.absorber.cells));
   }
   if (s.materials.empty()) throw RunError(s.file + ": no materials");
-  for (const auto& m : s.materials)
-    if (m.poles.dispersive())
-      throw RunError(fmt::format("{}: material '{}' has Drude/Lorentz poles; dispersive materials are not supported "
-                                 "by this build yet", m.where.location(), m.name));
+  // Poles resolved by the time step and the Courant bound tightened by the explicit poles.
+  check_dispersive_stability(s, choose_time_step(s, g), g.courant_limit());
 }
 
 CurlCoefficients plain_curls(const Grid& g, double dt) {
@@ -85,6 +84,7 @@ Simulation::Simulation(const Scene& scene)
   curls_ = plain_curls(grid_, dt_);
   ecoef_ = e_coefficients(scene_, dt_);
   fill_material_index(scene_, grid_, fields_.layout, mindex_);
+  dispersive_ = std::make_unique<DispersiveCurrents>(scene_, fields_.layout, mindex_, ecoef_, dt_);
 
   std::array<bool, 6> absorbing{};
   for (int f = 0; f < 6; ++f) absorbing[f] = scene_.domain.edges[f] == EdgeKind::absorber;
@@ -184,6 +184,7 @@ ModelSummary Simulation::summary() const {
   // Measured memory of what was actually built replaces the estimate.
   std::size_t bytes = 6 * fields_.layout.total * sizeof(real) + 3 * fields_.layout.total;
   if (cpml_) bytes += cpml_->memory_bytes();
+  bytes += dispersive_->memory_bytes();
   for (const auto& r : maps_) bytes += r.memory_bytes();
   for (const auto& r : fluxes_) bytes += r.memory_bytes();
   m.memory_bytes = bytes;
@@ -235,9 +236,11 @@ void Simulation::step() {
   for (auto& p : probes_) p.record(fields_, false, t_h);
 
   fill_periodic_halos(false);
+  if (!dispersive_->empty()) dispersive_->advance(fields_);
   update_e(fields_, curls_, ecoef_, mindex_);
   if (cpml_) cpml_->apply_e(fields_, ecoef_, mindex_);
   for (const auto& d : dipoles_) d.apply_e(fields_, ecoef_, mindex_, t_h);
+  if (!dispersive_->empty()) dispersive_->correct(fields_);
   for (auto& m : maps_) m.record(fields_, true, dft_phases(m.result_omegas(), t_e, dt_));
   for (auto& f : fluxes_) f.record(fields_, true, dft_phases(f.result_omegas(), t_e, dt_));
   for (auto& p : probes_) p.record(fields_, true, t_e);

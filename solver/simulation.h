@@ -1,7 +1,8 @@
 // One run: builds the model from a Scene (grid, material index, coefficients, absorbing layers,
 // sources, recorders) and advances it. Per step (Taflove & Hagness 2005, ch. 3):
 //   periodic E halos -> H update -> CPML(H) -> record H
-//   periodic H halos -> E update -> CPML(E) -> sources -> record E
+//   periodic H halos -> pole currents J^{n+1/2} -> E update -> CPML(E) -> sources -> E -= cb J
+//   -> record E   (pole currents: dispersive.h)
 // Nothing global: a test may hold two Simulations at once.
 #pragma once
 
@@ -12,6 +13,7 @@
 
 #include "solver/cpml.h"
 #include "solver/dipole_source.h"
+#include "solver/dispersive.h"
 #include "solver/fields.h"
 #include "solver/grid.h"
 #include "solver/recorders.h"
@@ -67,7 +69,10 @@ class Simulation {
   long steps_done() const { return n_; }
   /// Field energy 1/2 sum (eps E^2 + mu0 H^2) dV over the interior, J (per unit length along
   /// invariant axes scaled by their cell size).
+  /// The polarisation (kinetic and bound-charge) energy of dispersive media is not included.
   double field_energy() const;
+  /// Polarisation currents of the dispersive materials (per-cell damping of gap cells goes here).
+  DispersiveCurrents& dispersive() { return *dispersive_; }
 
  private:
   void fill_periodic_halos(bool electric);
@@ -81,6 +86,7 @@ class Simulation {
   ECoefficients ecoef_;
   MaterialIndex mindex_;
   std::unique_ptr<Cpml> cpml_;
+  std::unique_ptr<DispersiveCurrents> dispersive_;
   std::vector<DipoleSource> dipoles_;
   std::vector<ProbeRecorder> probes_;
   std::vector<FieldMapRecorder> maps_;
