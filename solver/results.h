@@ -61,6 +61,9 @@ struct RunResults {
   /// for normalising spectra: one entry per dipole, each aligned with `source_omegas`.
   std::vector<double> source_omegas;
   std::vector<std::vector<std::complex<double>>> source_spectra;
+  /// DFT of each plane wave's incident E (V s/m) at the centre of its box, aligned with
+  /// `source_omegas`: the incident intensity is |E|^2 / (2 eta) for normalising cross sections.
+  std::vector<std::vector<std::complex<double>>> incident_spectra;
   std::vector<ProbeResult> probes;
   std::vector<FieldMapResult> field_maps;
   std::vector<FluxResult> fluxes;

@@ -76,6 +76,25 @@ struct DipoleSpec {
   Where where;
 };
 
+/// A region given by two corners. A zero extent along one axis makes a plane.
+struct Region {
+  Vec3 lo, hi;                    // m
+};
+
+/// A plane wave lighting a box (total-field/scattered-field, Taflove & Hagness 2005, ch. 5): inside
+/// the box the grid holds the total field, outside it only what the structure scatters. The wave
+/// travels along one grid axis (sign +1 or -1), so a 1D auxiliary grid with the same spacing and
+/// time step reproduces the 3D grid's own dispersion exactly and the box does not leak.
+struct PlaneWaveSpec {
+  Region box;                     // m, the total-field region; its faces must lie in the background
+  int axis = 2;                   // propagation axis 0, 1, 2
+  int sign = -1;                  // +1: towards +axis
+  Vec3 polarization{1, 0, 0};     // E direction, unit, perpendicular to the axis
+  double amplitude = 1.0;         // V/m, scale of the incident pulse
+  Waveform waveform;
+  Where where;
+};
+
 /// A set of angular frequencies (rad/s) at which frequency-domain outputs are accumulated.
 using FrequencyList = std::vector<double>;
 
@@ -84,11 +103,6 @@ struct ProbeSpec {
   Vec3 position;                  // m; the nearest Yee location of each component is sampled
   std::vector<Component> components;
   Where where;
-};
-
-/// A region given by two corners. A zero extent along one axis makes a plane.
-struct Region {
-  Vec3 lo, hi;                    // m
 };
 
 struct FieldMapSpec {
@@ -122,6 +136,7 @@ struct Scene {
   std::vector<MaterialSpec> materials;  // [0] is the background unless domain.background says otherwise
   std::vector<BodySpec> bodies;   // later bodies overwrite earlier ones
   std::vector<DipoleSpec> dipoles;
+  std::vector<PlaneWaveSpec> plane_waves;
   std::vector<ProbeSpec> probes;
   std::vector<FieldMapSpec> field_maps;
   std::vector<FluxSpec> fluxes;

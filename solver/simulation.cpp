@@ -70,6 +70,7 @@ CurlCoefficients plain_curls(const Grid& g, double dt) {
 double lowest_source_omega(const Scene& s) {
   double w = std::numeric_limits<double>::infinity();
   for (const auto& d : s.dipoles) w = std::min(w, d.waveform.omega_min > 0 ? d.waveform.omega_min : d.waveform.omega_max);
+  for (const auto& p : s.plane_waves) w = std::min(w, p.waveform.omega_min > 0 ? p.waveform.omega_min : p.waveform.omega_max);
   return std::isfinite(w) ? w : 0.0;
 }
 
@@ -107,6 +108,8 @@ Simulation::Simulation(const Scene& scene)
   }
 
   for (const auto& d : scene_.dipoles) dipoles_.emplace_back(d, grid_, fields_.layout);
+  for (const auto& w : scene_.plane_waves)
+    plane_waves_.emplace_back(w, scene_, grid_, fields_.layout, curls_, ecoef_, mindex_, dt_);
   for (const auto& p : scene_.probes) probes_.emplace_back(p, grid_, fields_.layout);
   for (const auto& m : scene_.field_maps) maps_.emplace_back(m, grid_, fields_.layout);
   for (const auto& f : scene_.fluxes) fluxes_.emplace_back(f, grid_, fields_.layout);
@@ -115,6 +118,7 @@ Simulation::Simulation(const Scene& scene)
   for (const auto& f : scene_.fluxes) omegas.insert(f.omegas.begin(), f.omegas.end());
   all_omegas_.assign(omegas.begin(), omegas.end());
   source_dft_.assign(dipoles_.size(), std::vector<Complex>(all_omegas_.size()));
+  incident_dft_.assign(plane_waves_.size(), std::vector<Complex>(all_omegas_.size()));
 }
 
 Simulation::~Simulation() = default;
@@ -161,6 +165,7 @@ ModelSummary Simulation::plan(const Scene& scene) {
   const StopSpec& st = scene.stop;
   double source_end = 0;
   for (const auto& d : scene.dipoles) source_end = std::max(source_end, SourceTime(d.waveform).end_time());
+  for (const auto& p : scene.plane_waves) source_end = std::max(source_end, SourceTime(p.waveform).end_time());
   if (st.after > 0) {
     m.steps = std::min<long>(st.max_steps, static_cast<long>(std::ceil(st.after / dt)));
   } else {
@@ -176,6 +181,7 @@ ModelSummary Simulation::plan(const Scene& scene) {
 double Simulation::sources_end_time() const {
   double t = 0;
   for (const auto& d : dipoles_) t = std::max(t, d.time().end_time());
+  for (const auto& w : plane_waves_) t = std::max(t, w.end_time());
   return t;
 }
 
@@ -222,6 +228,7 @@ void Simulation::step() {
   fill_periodic_halos(true);
   update_h(fields_, curls_);
   if (cpml_) cpml_->apply_h(fields_, dt_);
+  for (auto& w : plane_waves_) w.apply_h(fields_);
   if (!maps_.empty() || !fluxes_.empty() || !dipoles_.empty()) {
     const auto phase = dft_phases(all_omegas_, t_h, dt_);
     for (std::size_t d = 0; d < dipoles_.size(); ++d) {
@@ -240,6 +247,14 @@ void Simulation::step() {
   update_e(fields_, curls_, ecoef_, mindex_);
   if (cpml_) cpml_->apply_e(fields_, ecoef_, mindex_);
   for (const auto& d : dipoles_) d.apply_e(fields_, ecoef_, mindex_, t_h);
+  for (auto& w : plane_waves_) w.apply_e(fields_, t_h);
+  if (!plane_waves_.empty()) {
+    const auto phase = dft_phases(all_omegas_, t_e, dt_);
+    for (std::size_t w = 0; w < plane_waves_.size(); ++w) {
+      const double e = plane_waves_[w].reference_e();
+      for (std::size_t q = 0; q < phase.size(); ++q) incident_dft_[w][q] += e * phase[q];
+    }
+  }
   if (!dispersive_->empty()) dispersive_->correct(fields_);
   for (auto& m : maps_) m.record(fields_, true, dft_phases(m.result_omegas(), t_e, dt_));
   for (auto& f : fluxes_) f.record(fields_, true, dft_phases(f.result_omegas(), t_e, dt_));
@@ -331,6 +346,7 @@ RunResults Simulation::results() const {
   r.material_map = cell_material_map(scene_, grid_);
   r.source_omegas = all_omegas_;
   r.source_spectra = source_dft_;
+  r.incident_spectra = incident_dft_;
   for (const auto& p : probes_) r.probes.push_back(p.result());
   for (const auto& m : maps_) r.field_maps.push_back(m.result());
   for (const auto& f : fluxes_) r.fluxes.push_back(f.result());

@@ -19,6 +19,7 @@
 #include "solver/recorders.h"
 #include "solver/results.h"
 #include "solver/scene.h"
+#include "solver/tfsf.h"
 #include "solver/yee_kernels.h"
 
 namespace yeegap::solver {
@@ -88,11 +89,13 @@ class Simulation {
   std::unique_ptr<Cpml> cpml_;
   std::unique_ptr<DispersiveCurrents> dispersive_;
   std::vector<DipoleSource> dipoles_;
+  std::vector<PlaneWaveSource> plane_waves_;
   std::vector<ProbeRecorder> probes_;
   std::vector<FieldMapRecorder> maps_;
   std::vector<FluxRecorder> fluxes_;
   std::vector<double> all_omegas_;                 // union of output frequencies, for source spectra
   std::vector<std::vector<Complex>> source_dft_;   // per dipole
+  std::vector<std::vector<Complex>> incident_dft_; // per plane wave
   long n_ = 0;
   double wall_seconds_ = 0;
   std::string stop_reason_;
