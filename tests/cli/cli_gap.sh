@@ -1,0 +1,75 @@
+#!/usr/bin/env bash
+# `yeegap gap`: the JSON rows carry the documented keys, gamma_g rises with the gap width for every
+# barrier, tables go to stdout and notes to stderr, and user errors exit with code 2.
+# Usage: cli_gap.sh YEEGAP_BINARY
+set -u
+yeegap=$1
+work=$(mktemp -d)
+trap 'rm -rf "$work"' EXIT
+fails=0
+pass=0
+fail() { echo "FAIL $*"; fails=$((fails + 1)); }
+ok() { pass=$((pass + 1)); }
+
+keys="gap_nm transmission_fermi conductance_per_area_S_m2 sigma0_S_m gamma_g_eV eps_re eps_im"
+
+# check_json NAME WANT_ROWS -- command...: every row has every key; gamma_g_eV strictly increases;
+# eps_im is never negative (a passive medium, exp(-i omega t)).
+check_json() {
+  local name=$1 want_rows=$2
+  shift 3
+  "$@" >"$work/out.json" 2>"$work/err.txt"
+  local code=$?
+  if [ "$code" -ne 0 ]; then fail "$name: exit code $code"; head -3 "$work/err.txt"; return; fi
+  local rows
+  rows=$(grep -c '^  {' "$work/out.json")
+  [ "$rows" -eq "$want_rows" ] || { fail "$name: $rows rows, want $want_rows"; return; }
+  head -1 "$work/out.json" | grep -qx '\[' || { fail "$name: output does not open a JSON array"; return; }
+  tail -1 "$work/out.json" | grep -qx '\]' || { fail "$name: output does not close the JSON array"; return; }
+  for k in $keys; do
+    [ "$(grep -c "\"$k\": " "$work/out.json")" -eq "$rows" ] || { fail "$name: key $k missing from some rows"; return; }
+  done
+  if ! awk -F'"gamma_g_eV": ' '/^  \{/ { split($2, a, ","); g = a[1] + 0;
+         if (NR > 2 && !(g > prev)) { print "gamma_g_eV " g " after " prev; bad = 1 } prev = g }
+         END { exit bad }' "$work/out.json"; then
+    fail "$name: gamma_g_eV is not strictly increasing"; return
+  fi
+  if grep -qE '"eps_im": -' "$work/out.json"; then fail "$name: negative eps_im"; return; fi
+  ok
+}
+
+# 0.1 to 1.2 nm in 0.05 nm steps: 23 rows, both ends included.
+check_json default_rectangular 23 -- "$yeegap" gap --json
+check_json image_barrier 11 -- "$yeegap" gap --barrier image --from 0nm --to 1nm --step 0.1nm --json
+check_json fit_in_wavelength 9 -- "$yeegap" gap --metal Ag --barrier fit --from 0.2nm --to 1nm --step 0.1nm --at 700nm --json
+
+# The human table: header and rows on stdout, the model notes on stderr.
+"$yeegap" gap --from 0.3nm --to 0.5nm --step 0.1nm >"$work/table.txt" 2>"$work/notes.txt"
+code=$?
+if [ "$code" -ne 0 ]; then fail "table: exit code $code"
+elif grep -q '^gap_nm' "$work/table.txt" && [ "$(wc -l <"$work/table.txt")" -eq 4 ] &&
+     grep -q 'cut-off' "$work/notes.txt" && ! grep -q 'cut-off' "$work/table.txt"; then ok
+else fail "table: header/rows not on stdout or notes not on stderr"; cat "$work/table.txt"; fi
+
+# expect NAME WANT_EXIT PATTERN -- command...: exit code and a pattern in stdout+stderr.
+expect() {
+  local name=$1 want=$2 pattern=$3
+  shift 4
+  local out code
+  out=$("$@" 2>&1)
+  code=$?
+  if [ "$code" -ne "$want" ] || ! grep -qE -- "$pattern" <<<"$out"; then
+    fail "$name: exit $code (want $want), output:"; echo "$out" | head -5
+  else ok; fi
+}
+expect unknown_metal 2 "unknown metal 'Au-jelly'.*did you mean 'Au-jellium'" -- "$yeegap" gap --metal Au-jelly
+expect unknown_barrier 2 "did you mean 'image'" -- "$yeegap" gap --barrier imag
+expect reversed_range 2 "below --from" -- "$yeegap" gap --from 1nm --to 0.5nm
+expect zero_step 2 "--step: must be positive" -- "$yeegap" gap --step 0nm
+expect negative_gap 2 "cannot be negative" -- "$yeegap" gap --from -0.1nm
+expect bare_photon_energy 2 "--at: expected a photon energy" -- "$yeegap" gap --at 1.8
+expect wrong_unit 2 "'fs' is not a spectral unit" -- "$yeegap" gap --at 3fs
+expect too_many_rows 2 "check the units" -- "$yeegap" gap --step 1e-6nm
+
+echo "$pass passed, $fails failed"
+[ "$fails" -eq 0 ]

@@ -1,0 +1,174 @@
+// `yeegap gap`: the tunnelling-gap model on its own (materials/tunnel_gap_model.h), a table of gap
+// width -> barrier transmission at E_F, conductance per area, sigma0, gap damping and the gap
+// permittivity at one photon energy. The table is the product, so it goes to stdout; notes to stderr.
+#include <cmath>
+#include <complex>
+#include <cstdio>
+#include <string>
+#include <vector>
+
+#include <fmt/format.h>
+
+#include "base/errors.h"
+#include "base/units.h"
+#include "commands.h"
+#include "io/suggest.h"
+#include "io/units.h"
+#include "json.h"
+#include "materials/tunnel_gap_model.h"
+
+namespace yeegap::cli {
+
+namespace {
+
+struct GapOptionsText {
+  std::string metal = "Au";
+  std::string from = "0.1nm";
+  std::string to = "1.2nm";
+  std::string step = "0.05nm";
+  std::string at = "1.8eV";
+  std::string barrier = "rectangular";
+  bool json = false;
+};
+
+// More rows than this is almost certainly a unit slip (a step in pm, a range in um).
+constexpr long max_rows = 10000;
+
+[[noreturn]] void option_error(const std::string& option, const std::string& message) {
+  throw SceneError(Where{}, fmt::format("{}: {}", option, message));
+}
+
+// A length as the scene reader takes it: "0.5nm", "5e-10 m", or a bare number in nm.
+double parse_length(const std::string& option, const std::string& text) {
+  const auto nu = io::split_number_unit(text);
+  if (!nu) option_error(option, fmt::format("expected a length such as '0.5nm', got '{}'", text));
+  const auto si = io::to_si(io::Dimension::length, nu->value, nu->unit.empty() ? "nm" : nu->unit);
+  if (!si)
+    option_error(option, fmt::format("'{}' is not a length unit{}", nu->unit,
+                                     io::suggestion(nu->unit, io::units_of(io::Dimension::length))));
+  return *si;
+}
+
+// A photon energy or wavelength ("1.8eV", "700nm"); a bare number is refused as ambiguous.
+double parse_spectral(const std::string& option, const std::string& text) {
+  const auto nu = io::split_number_unit(text);
+  if (!nu || nu->unit.empty())
+    option_error(option, fmt::format("expected a photon energy or wavelength with its unit, such as '1.8eV' or "
+                                     "'700nm', got '{}'",
+                                     text));
+  const auto omega = io::spectral_to_omega(nu->value, nu->unit);
+  if (!omega)
+    option_error(option, fmt::format("'{}' is not a spectral unit{}", nu->unit,
+                                     io::suggestion(nu->unit, io::units_of(io::Dimension::spectral))));
+  if (!(*omega > 0)) option_error(option, fmt::format("must be positive, got '{}'", text));
+  return *omega;
+}
+
+materials::BarrierKind parse_barrier(const std::string& word) {
+  if (word == "rectangular") return materials::BarrierKind::rectangular;
+  if (word == "image") return materials::BarrierKind::image_rounded;
+  if (word == "fit") return materials::BarrierKind::exponential_fit;
+  option_error("--barrier", fmt::format("unknown barrier '{}'{}", word,
+                                        io::suggestion(word, {"rectangular", "image", "fit"})));
+}
+
+const materials::TunnelMetal& parse_metal(const std::string& name) {
+  if (const materials::TunnelMetal* m = materials::find_tunnel_metal(name)) return *m;
+  option_error("--metal", fmt::format("unknown metal '{}'{}", name, io::suggestion(name, materials::tunnel_metal_names())));
+}
+
+std::vector<double> gap_widths(const GapOptionsText& o) {
+  const double from = parse_length("--from", o.from), to = parse_length("--to", o.to);
+  const double step = parse_length("--step", o.step);
+  if (!(from >= 0)) option_error("--from", fmt::format("a gap width cannot be negative, got '{}'", o.from));
+  if (!(to >= from)) option_error("--to", fmt::format("'{}' is below --from '{}'", o.to, o.from));
+  if (!(step > 0)) option_error("--step", fmt::format("must be positive, got '{}'", o.step));
+  // The small allowance keeps `to` in the table when (to - from)/step is an integer up to rounding.
+  const double count = std::floor((to - from) / step + 1e-9) + 1;
+  if (count > max_rows)
+    option_error("--step", fmt::format("{} rows from {} to {}; at most {} (check the units)", count, o.from, o.to,
+                                       max_rows));
+  std::vector<double> widths;
+  for (long i = 0; i < static_cast<long>(count); ++i) widths.push_back(from + static_cast<double>(i) * step);
+  return widths;
+}
+
+std::string cell(double v) { return std::isfinite(v) ? fmt::format("{:<12.4e}", v) : fmt::format("{:<12}", "-"); }
+
+int run_gap(const GapOptionsText& o) {
+  const materials::TunnelMetal& metal = parse_metal(o.metal);
+  const materials::BarrierKind kind = parse_barrier(o.barrier);
+  const std::vector<double> widths = gap_widths(o);
+  const double omega = parse_spectral("--at", o.at);
+  const materials::GapModel model = materials::make_gap_model(metal, kind);
+
+  const double photon_eV = units::omega_to_eV(omega);
+  std::fprintf(stderr, "%s: %s\n", metal.name.c_str(), metal.summary.c_str());
+  std::fprintf(stderr, "  barrier %s; permittivity at %.4g eV (%.1f nm)\n", materials::barrier_kind_name(kind),
+               photon_eV, units::eV_to_wavelength_nm(photon_eV));
+  if (kind == materials::BarrierKind::exponential_fit) {
+    std::fprintf(stderr, "  gamma_g = gamma_p exp(l/l_c), l_c = %.4g nm; G/A and sigma0 follow from gamma_g\n",
+                 model.join_decay_length / units::nm);
+  } else {
+    std::fprintf(stderr,
+                 "  below l' = %.4g nm (T(E_F) = %g) gamma_g = gamma_p exp(l/l_c), l_c = %.4g nm, and sigma0 is\n"
+                 "  eps0 wp^2/gamma_g there; from l' on sigma0 = l G/A\n",
+                 model.join_width / units::nm, model.options.join_transmission, model.join_decay_length / units::nm);
+  }
+  std::fprintf(stderr, "  cut-off %.4g nm: gamma_g = %g gamma_p, tunnelling negligible beyond\n",
+               model.cutoff_width / units::nm, model.options.cutoff_damping_ratio);
+
+  std::vector<std::string> rows;
+  if (!o.json)
+    std::printf("%-9s %-12s %-12s %-12s %-12s %-12s %-12s\n", "gap_nm", "T(E_F)", "G/A_S/m2", "sigma0_S/m",
+                "gamma_g_eV", "eps_re", "eps_im");
+  for (double l : widths) {
+    const materials::GapPoint p = materials::evaluate_gap(model, l);
+    const std::complex<double> eps = materials::gap_permittivity(model, l, omega);
+    const double gamma_eV = units::omega_to_eV(p.damping);
+    if (o.json) {
+      JsonObject j;
+      j.number("gap_nm", l / units::nm)
+          .number("transmission_fermi", p.transmission_fermi)
+          .number("conductance_per_area_S_m2", p.conductance_per_area)
+          .number("sigma0_S_m", p.conductivity)
+          .number("gamma_g_eV", gamma_eV)
+          .number("eps_re", eps.real())
+          .number("eps_im", eps.imag());
+      rows.push_back(j.str());
+    } else {
+      std::printf("%-9.4f %s %s %s %s %s %s\n", l / units::nm, cell(p.transmission_fermi).c_str(),
+                  cell(p.conductance_per_area).c_str(), cell(p.conductivity).c_str(), cell(gamma_eV).c_str(),
+                  cell(eps.real()).c_str(), cell(eps.imag()).c_str());
+    }
+  }
+  if (o.json) {
+    std::printf("[\n");
+    for (size_t i = 0; i < rows.size(); ++i) std::printf("  %s%s\n", rows[i].c_str(), i + 1 < rows.size() ? "," : "");
+    std::printf("]\n");
+  }
+  return exit_ok;
+}
+
+}  // namespace
+
+void add_gap_command(CLI::App& app, int& exit_code) {
+  auto opts = std::make_shared<GapOptionsText>();
+  CLI::App* cmd = app.add_subcommand(
+      "gap", "tunnelling gap model: gap width -> transmission, conductance, damping, gap permittivity");
+  cmd->footer(
+      "Example:\n  yeegap gap --metal Au --from 0.1nm --to 1.2nm --step 0.05nm --at 1.8eV --barrier image --json\n"
+      "Metals: Au, Au-jellium, Ag, Na. Barriers: rectangular (exact), image (Simmons image force), fit "
+      "(gamma_p exp(l/l_c)).");
+  cmd->add_option("--metal", opts->metal, "metal preset")->capture_default_str();
+  cmd->add_option("--from", opts->from, "smallest gap width")->capture_default_str();
+  cmd->add_option("--to", opts->to, "largest gap width")->capture_default_str();
+  cmd->add_option("--step", opts->step, "gap width step")->capture_default_str();
+  cmd->add_option("--at", opts->at, "photon energy or vacuum wavelength for eps_g (1.8eV, 700nm)")
+      ->capture_default_str();
+  cmd->add_option("--barrier", opts->barrier, "rectangular, image or fit")->capture_default_str();
+  cmd->add_flag("--json", opts->json, "print a JSON array of rows on stdout");
+  cmd->callback([opts, &exit_code] { exit_code = guarded([&] { return run_gap(*opts); }); });
+}
+
+}  // namespace yeegap::cli
