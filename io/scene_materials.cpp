@@ -1,6 +1,7 @@
 // The `materials` block: named media as a constant index or permittivity, optional static
-// conductivity, explicit Drude/Lorentz poles (materials/pole_set.h), or a perfect conductor; and
-// the lookup of material names used by bodies and the domain background.
+// conductivity, explicit Drude/Lorentz poles (materials/pole_set.h), an entry of the built-in
+// library (materials/library.h), or a perfect conductor; and the lookup of material names used by
+// bodies and the domain background.
 #include <algorithm>
 #include <cctype>
 
@@ -9,6 +10,7 @@
 #include "io/read_values.h"
 #include "io/scene_blocks.h"
 #include "io/suggest.h"
+#include "materials/library.h"
 
 namespace yeegap::io {
 namespace {
@@ -50,14 +52,30 @@ void read_poles(const Node& block, materials::PoleSet& poles) {
   block.done();
 }
 
+// `library: NAME`: the whole model (eps_inf, conductivity, every pole) from the built-in library.
+// The entry's published fit range (LibraryEntry::wavelength_min/max) is where a later warning about
+// sources outside it would hook in; the reader does not know the excitation band yet at this point.
+void read_library_material(const Node& block, const std::vector<std::string>& keys, solver::MaterialSpec& m) {
+  for (const std::string& k : keys)
+    if (k != "library" && block.has(k))
+      block.fail_key(k, fmt::format("{}: a library material takes its whole model from the library, found '{}' "
+                                    "beside it (define the material with 'poles' to change it)", block.path(), k));
+  const Node v = *block.get("library");
+  const std::string word = read_text(v);
+  const materials::LibraryEntry* entry = materials::find_material(word);
+  if (!entry) v.fail(fmt::format("unknown library material '{}'{}", word, suggestion(word, materials::material_names())));
+  m.poles = entry->poles;
+}
+
 solver::MaterialSpec read_material(const std::string& name, const Node& block) {
-  const std::vector<std::string> keys = {"index", "permittivity", "conductivity", "perfect_conductor", "poles"};
-  block.allow(keys, /*planned=*/{"library", "table"});
+  const std::vector<std::string> keys = {"index", "permittivity", "conductivity", "perfect_conductor", "poles",
+                                         "library"};
+  block.allow(keys, /*planned=*/{"table"});
   solver::MaterialSpec m;
   m.name = name;
   m.where = block.where();
   if (!block.is_map())
-    block.fail("needs one of: index, permittivity, poles or 'perfect_conductor: true'");
+    block.fail("needs one of: index, permittivity, poles, library or 'perfect_conductor: true'");
 
   const bool pec = block.has("perfect_conductor") && read_flag(*block.get("perfect_conductor"));
   if (pec) {
@@ -65,6 +83,11 @@ solver::MaterialSpec read_material(const std::string& name, const Node& block) {
       if (k != "perfect_conductor" && block.has(k))
         block.fail_key(k, fmt::format("{}: a perfect conductor takes no other keys, found '{}'", block.path(), k));
     m.perfect_conductor = true;
+    block.done();
+    return m;
+  }
+  if (block.has("library")) {
+    read_library_material(block, keys, m);
     block.done();
     return m;
   }
@@ -76,7 +99,7 @@ solver::MaterialSpec read_material(const std::string& name, const Node& block) {
       block.fail_key(k, fmt::format("{}: with 'poles', give the high-frequency permittivity as poles.eps_inf "
                                     "instead of '{}'", block.path(), k));
   if (!block.has("index") && !block.has("permittivity") && !block.has("poles") && !block.has("conductivity"))
-    block.fail("needs one of: index, permittivity, poles, conductivity or 'perfect_conductor: true'");
+    block.fail("needs one of: index, permittivity, poles, library, conductivity or 'perfect_conductor: true'");
 
   if (auto index = block.get("index")) {
     const double n = read_positive_number(*index);
