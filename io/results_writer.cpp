@@ -246,6 +246,26 @@ void write_flux(const h5::Group& outputs, const solver::FluxResult& x) {
                      "towards +normal_axis for a plane");
 }
 
+void write_cross_sections(const h5::Group& outputs, const solver::CrossSectionResult& x) {
+  check_output_name(outputs, x.name);
+  const std::size_t n = x.omegas.size();
+  require(x.scattering.size() == n && x.absorption.size() == n && x.extinction.size() == n &&
+              x.incident_intensity.size() == n,
+          fmt::format("cross sections '{}' have arrays that do not match its {} frequencies", x.name, n));
+  const h5::Group g = outputs.create_group(x.name);
+  g.set_attribute("kind", "cross_sections");
+  g.set_attribute("per_unit_length", std::int32_t{x.per_unit_length ? 1 : 0});
+  write_frequency_axes(g, x.omegas);
+  const char* unit = x.per_unit_length ? "m" : "m^2";
+  with_units(g.write("scattering", x.scattering), unit)
+      .set_attribute("description", "outward flux of the scattered field around the plane-wave box over I0");
+  with_units(g.write("absorption", x.absorption), unit)
+      .set_attribute("description", "net inward flux of the total field inside the plane-wave box over I0");
+  with_units(g.write("extinction", x.extinction), unit).set_attribute("description", "scattering + absorption");
+  with_units(g.write("incident_intensity", x.incident_intensity), "W s^2/m^2")
+      .set_attribute("description", "|E_inc(omega)|^2 / (2 eta) from DFT spectra");
+}
+
 void write_layout(const h5::File& file, const solver::RunResults& r, const solver::Scene& scene,
                   const WriteInfo& info) {
   file.set_attribute("format", results_format);
@@ -260,6 +280,7 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   for (const auto& p : r.probes) write_probe(outputs, p, r.summary.time_step);
   for (const auto& m : r.field_maps) write_field_map(outputs, m);
   for (const auto& x : r.fluxes) write_flux(outputs, x);
+  for (const auto& x : r.cross_sections) write_cross_sections(outputs, x);
 }
 
 /// Forces the file's bytes to disk, so the rename cannot expose an empty file after a crash.

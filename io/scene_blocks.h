@@ -32,6 +32,9 @@ void read_outputs(const Node& list, solver::Scene& scene);
 /// `stop: {...}`.
 void read_stop(const Node& block, solver::Scene& scene);
 
+/// A region {from, to} between two corners inside the domain; `closed` asks for a box with positive
+/// extent along every axis.
+solver::Region read_corners(const Node& block, const solver::DomainSpec& domain, bool closed);
 /// The domain's corners, m.
 solver::Region domain_bounds(const solver::DomainSpec& domain);
 /// Refuses a point outside the domain (a small rounding slack allowed), naming `v` in the message.

@@ -1,5 +1,6 @@
 // The `excitation` list: the sources of a run. Each item holds one source; this version knows the
 // point dipole, driven by a pulse over a band or by a continuous wave with a smooth turn-on.
+#include <cmath>
 #include <tuple>
 
 #include <fmt/format.h>
@@ -59,16 +60,43 @@ solver::DipoleSpec read_dipole(const Node& block, const solver::DomainSpec& doma
   return d;
 }
 
+// A box lit by a plane wave travelling along a grid axis; the incident field has unit amplitude
+// (1 V/m scale: everything is linear, and cross sections are normalised by the incident intensity).
+solver::PlaneWaveSpec read_tfsf(const Node& block, const solver::DomainSpec& domain) {
+  block.allow({"box", "direction", "polarization", "band", "frequency", "ramp"});
+  if (!block.is_map()) block.fail("must be a block with box, direction, polarization and band or frequency");
+  solver::PlaneWaveSpec w;
+  w.where = block.where();
+  w.box = read_corners(block.require("box"), domain, /*closed=*/true);
+  const Node direction = block.require("direction");
+  const Vec3 dir = read_direction(direction);
+  w.axis = -1;
+  for (int a = 0; a < 3; ++a)
+    if (std::abs(std::abs(dir[a]) - 1.0) < 1e-12) w.axis = a, w.sign = dir[a] > 0 ? 1 : -1;
+  if (w.axis < 0)
+    direction.fail(fmt::format("this version sends plane waves along a grid axis only: x, -x, y, -y, z or -z, got {}",
+                               direction.found()));
+  const Node pol = block.require("polarization");
+  w.polarization = read_direction(pol);
+  if (std::abs(w.polarization[w.axis]) > 1e-9)
+    pol.fail(fmt::format("the electric field must be perpendicular to the direction of travel ({}), got {}",
+                         direction.found(), pol.found()));
+  w.waveform = read_waveform(block);
+  block.done();
+  return w;
+}
+
 }  // namespace
 
 void read_excitation(const Node& list, solver::Scene& scene) {
   const std::vector<Node> items = list.items_or_single();
   if (items.empty()) list.fail("needs at least one source, e.g. '- dipole: {position: ..., direction: z, band: ...}'");
   for (const Node& item : items) {
-    item.allow({"dipole"}, /*planned=*/{"plane_wave", "tfsf", "beam"});
+    item.allow({"dipole", "tfsf"}, /*planned=*/{"plane_wave", "beam"});
     if (!item.is_map() || item.entries().size() != 1)
       item.fail(fmt::format("each item holds exactly one source, e.g. '- dipole: {{...}}', got {}", item.found()));
-    scene.dipoles.push_back(read_dipole(item.require("dipole"), scene.domain));
+    if (item.has("dipole")) scene.dipoles.push_back(read_dipole(item.require("dipole"), scene.domain));
+    else scene.plane_waves.push_back(read_tfsf(item.require("tfsf"), scene.domain));
     item.done();
   }
 }

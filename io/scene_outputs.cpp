@@ -63,6 +63,8 @@ solver::Region read_plane(const Node& block, const solver::DomainSpec& domain) {
   return r;
 }
 
+}  // namespace
+
 /// A region {from, to} between two corners inside the domain; `closed` asks for a box with positive
 /// extent along every axis.
 solver::Region read_corners(const Node& block, const solver::DomainSpec& domain, bool closed) {
@@ -81,6 +83,8 @@ solver::Region read_corners(const Node& block, const solver::DomainSpec& domain,
   block.done();
   return r;
 }
+
+namespace {
 
 solver::ProbeSpec read_probe(const Node& block, const solver::DomainSpec& domain, std::map<std::string, Where>& used) {
   block.allow({"name", "position", "components"});
@@ -132,19 +136,36 @@ solver::FluxSpec read_flux(const Node& block, const solver::DomainSpec& domain, 
   return f;
 }
 
+// Cross sections of what the plane-wave box holds; the boxes they integrate over follow from the
+// box, so only the frequencies are asked for.
+solver::CrossSectionSpec read_cross_sections(const Node& block, const solver::Scene& scene,
+                                             std::map<std::string, Where>& used) {
+  block.allow({"name", "frequencies"});
+  solver::CrossSectionSpec c;
+  c.where = block.where();
+  c.name = read_name(block, used);
+  if (scene.plane_waves.empty())
+    block.fail("cross sections need a plane-wave box: add an excitation '- tfsf: {box: ..., direction: ..., "
+               "polarization: ..., band: ...}'");
+  c.omegas = read_frequencies(block.require("frequencies"));
+  block.done();
+  return c;
+}
+
 }  // namespace
 
 void read_outputs(const Node& list, solver::Scene& scene) {
   std::map<std::string, Where> used;  // output name -> where it was first given
   for (const Node& item : list.items_or_single()) {
-    item.allow({"probe", "field_map", "flux"},
-               /*planned=*/{"cross_sections", "far_field", "decay_rate", "resonances", "orders"});
+    item.allow({"probe", "field_map", "flux", "cross_sections"},
+               /*planned=*/{"far_field", "decay_rate", "resonances", "orders"});
     if (!item.is_map() || item.entries().size() != 1)
       item.fail(fmt::format("each item holds exactly one output, e.g. '- probe: {{...}}', got {}",
                             item.is_map() ? fmt::format("{} keys", item.entries().size()) : item.found()));
     if (auto b = item.get("probe")) scene.probes.push_back(read_probe(*b, scene.domain, used));
     if (auto b = item.get("field_map")) scene.field_maps.push_back(read_field_map(*b, scene.domain, used));
     if (auto b = item.get("flux")) scene.fluxes.push_back(read_flux(*b, scene.domain, used));
+    if (auto b = item.get("cross_sections")) scene.cross_sections.push_back(read_cross_sections(*b, scene, used));
   }
 }
 

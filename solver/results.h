@@ -42,6 +42,14 @@ struct FluxResult {
   std::vector<double> power;
 };
 
+struct CrossSectionResult {
+  std::string name;
+  std::vector<double> omegas;              // rad/s
+  bool per_unit_length = false;            // 2D: cross sections per unit length (m), else areas (m^2)
+  std::vector<double> scattering, absorption, extinction;  // m^2 (or m)
+  std::vector<double> incident_intensity;  // |E_inc|^2 / (2 eta), W s^2/m^2 (DFT units)
+};
+
 struct RunSummary {
   long steps = 0;
   double time_step = 0;                    // s
@@ -67,6 +75,7 @@ struct RunResults {
   std::vector<ProbeResult> probes;
   std::vector<FieldMapResult> field_maps;
   std::vector<FluxResult> fluxes;
+  std::vector<CrossSectionResult> cross_sections;
 };
 
 }  // namespace yeegap::solver

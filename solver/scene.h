@@ -120,6 +120,17 @@ struct FluxSpec {
   Where where;
 };
 
+/// Scattering, absorption and extinction cross sections of whatever a plane-wave box holds:
+/// scattering from the flux of the scattered field out of a box just outside the TFSF box,
+/// absorption from the net flux of the total field into a box just inside it, both over the
+/// incident intensity. Per unit length when the domain has an invariant axis (2D).
+struct CrossSectionSpec {
+  std::string name;
+  FrequencyList omegas;
+  int plane_wave = 0;             // index into Scene::plane_waves
+  Where where;
+};
+
 struct StopSpec {
   double after = 0;               // s; 0 = not set
   double decayed = 0;             // stop when the field energy falls below this fraction of its peak
@@ -140,6 +151,7 @@ struct Scene {
   std::vector<ProbeSpec> probes;
   std::vector<FieldMapSpec> field_maps;
   std::vector<FluxSpec> fluxes;
+  std::vector<CrossSectionSpec> cross_sections;
   StopSpec stop;
 };
 

@@ -12,6 +12,7 @@
 #include <vector>
 
 #include "solver/cpml.h"
+#include "solver/cross_sections.h"
 #include "solver/dipole_source.h"
 #include "solver/dispersive.h"
 #include "solver/fields.h"
@@ -93,10 +94,12 @@ class Simulation {
   std::vector<ProbeRecorder> probes_;
   std::vector<FieldMapRecorder> maps_;
   std::vector<FluxRecorder> fluxes_;
+  std::vector<CrossSectionRecorder> cross_;
   std::vector<double> all_omegas_;                 // union of output frequencies, for source spectra
   std::vector<std::vector<Complex>> source_dft_;   // per dipole
   std::vector<std::vector<Complex>> incident_dft_; // per plane wave
   long n_ = 0;
+  long dft_stride_ = 1;               // steps between running-DFT samples
   double wall_seconds_ = 0;
   std::string stop_reason_;
   double peak_energy_ = 0, last_energy_ = 0;
