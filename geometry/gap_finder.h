@@ -1,0 +1,44 @@
+// Gap finder: the narrowest surface-to-surface distance between two bodies and where it is, so the
+// mesh builder can put enough cells across the gap. Method: sample d_A + d_B over the region where
+// both bodies come within the search width (it is at least the gap everywhere and equals it on the
+// segment joining the nearest points), then from the best samples minimise d_B over the surface
+// of A by projected gradient steps with a line search. Exact for bodies with exact distances
+// (two spheres: the centre distance minus the radii); a first version: one gap per pair, the
+// narrowest.
+#pragma once
+
+#include <optional>
+#include <vector>
+
+#include "geometry/graded_mesh.h"
+#include "geometry/shape.h"
+
+namespace yeegap::geometry {
+
+struct Gap {
+  int body_a = 0, body_b = 0;  // indices in the list searched
+  double width = 0;            // m; <= 0 when the bodies touch or overlap
+  Vec3 point_a, point_b;       // the nearest points on A and on B
+  Vec3 middle() const { return 0.5 * (point_a + point_b); }
+};
+
+struct GapSearch {
+  double max_width = 0;        // m: wider gaps are not reported
+  Aabb region;                 // where to look (the domain): bounds unbounded bodies
+  int samples_per_axis = 16;   // first sampling of d_A + d_B
+  int seeds = 8;               // best samples refined locally
+};
+
+/// The narrowest gap narrower than search.max_width between a and b, or nothing. Overlapping or
+/// touching bodies give a gap of width <= 0.
+std::optional<Gap> find_gap(const Shape& a, const Shape& b, const GapSearch& search);
+
+/// find_gap for every pair of bodies; overlapping pairs are left out.
+std::vector<Gap> find_gaps(const std::vector<ShapePtr>& bodies, const GapSearch& search);
+
+/// Adds what a gap needs to a mesh request: on every axis along which the gap spans more than a
+/// fifth of its width, a zone over the gap's extent with `cells_across` cells, and the two
+/// nearest points' coordinates as interfaces (cell edges on the gap's faces).
+void add_gap_refinement(MeshRequest& request, const Gap& gap, int cells_across);
+
+}  // namespace yeegap::geometry
