@@ -3,7 +3,8 @@
 # are already installed are skipped, so a second run does nothing and needs no network.
 # Usage: bash tools/setup.sh [--mpi] [--viewer]
 #   --mpi     also the MPI toolchain and parallel HDF5
-#   --viewer  also ParaView and Xvfb (about 1 GB; do not combine with python3-vtk9 / libvtk9-dev)
+#   --viewer  also ParaView, its Python modules and Xvfb (about 1 GB; do not combine with
+#             python3-vtk9 / libvtk9-dev, which conflict with python3-paraview)
 set -euo pipefail
 
 packages=(
@@ -11,12 +12,13 @@ packages=(
   libyaml-cpp-dev libhdf5-dev hdf5-tools
   libgtest-dev libgmock-dev googletest libbenchmark-dev
   libcli11-dev libfmt-dev libeigen3-dev
-  python3 python3-h5py python3-numpy python3-matplotlib python3-scipy
+  python3 python3-h5py python3-numpy python3-matplotlib python3-scipy python3-yaml
 )
 for arg in "$@"; do
   case "$arg" in
     --mpi) packages+=(libopenmpi-dev openmpi-bin libhdf5-openmpi-dev) ;;
-    --viewer) packages+=(paraview xvfb) ;;
+    # python3-paraview is only a Recommends of paraview, which --no-install-recommends below skips.
+    --viewer) packages+=(paraview python3-paraview xvfb) ;;
     *) echo "setup.sh: unknown option '$arg' (expected --mpi or --viewer)" >&2; exit 2 ;;
   esac
 done

@@ -21,6 +21,7 @@ int main(int argc, char** argv) {
   for (int i = 1; i < argc; ++i) command_line += std::string(" ") + argv[i];
   yeegap::cli::add_run_command(app, exit_code, command_line);
   yeegap::cli::add_check_command(app, exit_code);
+  yeegap::cli::add_view_command(app, exit_code);
   yeegap::cli::add_gap_command(app, exit_code);
   try {
     app.parse(argc, argv);

@@ -18,6 +18,7 @@
 #include "json.h"
 #include "progress.h"
 #include "solver/simulation.h"
+#include "viewer_outputs.h"
 
 namespace yeegap::cli {
 
@@ -29,6 +30,7 @@ struct RunOptions {
   std::vector<std::string> overrides;
   int threads = 0;
   bool json = false;
+  bool plot = false;
   std::string command_line;
 };
 
@@ -130,6 +132,7 @@ int run_scene(const RunOptions& o) {
     results = sim.run([&](const solver::Progress& p) { progress.update(p); });
   }
   io::write_results(output, results, scene, {YEEGAP_VERSION, o.command_line, started, threads});
+  write_viewer_file(output);  // a failure is reported; the results are safe either way
   const auto& s = results.summary;
   std::fprintf(stderr, "yeegap: %ld steps (%s) in %.1f s, %.1f Mcells/s; results in %s\n", s.steps, s.stop_reason.c_str(),
                s.wall_seconds, s.cell_updates_per_second / 1e6, output.c_str());
@@ -146,6 +149,7 @@ int run_scene(const RunOptions& o) {
         .add("outputs", outs);
     std::printf("%s\n", j.str().c_str());
   }
+  if (o.plot) make_plots(output);  // a failure is reported but leaves the exit code alone
   return exit_ok;
 }
 
@@ -163,6 +167,7 @@ void add_run_command(CLI::App& app, int& exit_code, const std::string& command_l
   cmd->add_option("--set", opts->overrides, "override a scene value, e.g. --set domain.step=2nm (repeatable)");
   cmd->add_option("--threads", opts->threads, "worker threads (default: all cores)")->check(CLI::PositiveNumber);
   cmd->add_flag("--json", opts->json, "print a one-object summary on stdout at the end");
+  cmd->add_flag("--plot", opts->plot, "also write PNG and SVG figures next to the results (needs python3-matplotlib)");
   opts->command_line = command_line;
   cmd->callback([opts, &exit_code] {
     exit_code = guarded([&] { return run_scene(*opts); });

@@ -1,0 +1,230 @@
+#!/usr/bin/python3
+"""The plot script (tools/plot/yeegap_plot.py) and the commands that run it, headless:
+- on a small results file made here with h5py (io/README.md layout; graded grid, one dipole in a
+  background of index 1.33, two flux outputs, a probe, a plane and a volume field map) it writes
+  every expected PNG and SVG; each PNG has the fixed size and is not blank (many distinct colours,
+  and coloured pixels, which axes and text alone do not have);
+- the flux figure's 'relative to the dipole alone' curve is P / P0 with P0 = n eta0 k0^2 |I l|^2 /
+  (12 pi) (Jackson, Classical Electrodynamics, 3rd ed., 1999, eq. 9.24), n read from the scene;
+- the field-map figure is drawn on the graded node coordinates and the material outline runs along
+  cell edges of the graded grid;
+- a Python without numpy/h5py/matplotlib gives the install hint and no traceback, from the script
+  and from `yeegap view`;
+- `yeegap run --plot --json` on a coarse example writes the sidecar and figures and keeps stdout
+  one JSON object.
+Usage: plot_check.py YEEGAP_BINARY SOURCE_DIR"""
+import json
+import os
+import stat
+import subprocess
+import sys
+import tempfile
+
+import h5py
+import numpy as np
+
+yeegap, src = sys.argv[1], sys.argv[2]
+script = os.path.join(src, "tools", "plot", "yeegap_plot.py")
+sys.path.insert(0, os.path.dirname(script))
+import matplotlib  # noqa: E402
+
+matplotlib.use("Agg")
+import matplotlib.image  # noqa: E402
+import plot_common  # noqa: E402
+import plot_field_maps  # noqa: E402
+import plot_spectra  # noqa: E402
+
+HINT = "install python3-matplotlib python3-h5py"
+C0, ETA0 = 299792458.0, 376.730313668
+failures, passes = [], 0
+
+
+def check(ok, message):
+    global passes
+    if ok:
+        passes += 1
+    else:
+        failures.append(message)
+        print("FAIL", message)
+
+
+# ---- a synthetic results file (invented numbers) ----
+
+X = np.array([-40, -20, -10, -5, 0, 5, 10, 20, 40.0]) * 1e-9   # graded: fine in the middle
+Y = np.array([-20, -10, 0, 10, 20.0]) * 1e-9
+Z = np.array([-30, -15, -7.5, 0, 7.5, 15, 30.0]) * 1e-9
+N_BACKGROUND = 1.33
+WAVELENGTHS_NM = np.array([500.0, 600.0, 700.0])
+OMEGA = 2 * np.pi * C0 / (WAVELENGTHS_NM * 1e-9)
+IL = np.array([1e-16 + 2e-16j, 3e-16 - 1e-16j, 2e-16 + 0j])    # A m s, the dipole's current-moment spectrum
+ENHANCEMENT = np.array([3.0, 2.0, 1.5])                       # P / P0 the flux outputs are given
+SCENE = f"""scene: {{version: 1}}
+domain: {{background: water}}
+materials:
+  water: {{index: {N_BACKGROUND}}}
+  blob: {{index: 2}}
+"""
+
+
+def fixed(strings):
+    return np.array([s.encode() for s in strings])
+
+
+def p0(omega, il, n):
+    """Jackson 1999, eq. 9.24 for a dipole of current moment I l in a medium of index n."""
+    k = n * omega / C0
+    eta = ETA0 / n
+    return eta * k**2 * abs(il) ** 2 / (12 * np.pi)
+
+
+def material_map():
+    """A box of material 1 over cells 3..5 in x, 1..2 in y, 2..3 in z (cell indices)."""
+    m = np.zeros((len(Z) - 1, len(Y) - 1, len(X) - 1), dtype=np.uint8)
+    m[2:4, 1:3, 3:6] = 1
+    return m
+
+
+def write_results(path):
+    rng = np.random.default_rng(3)
+    with h5py.File(path, "w") as f:
+        f.attrs["format"] = np.bytes_("yeegap-results")
+        f.attrs["format_version"] = np.int32(1)
+        f["scene/text"] = np.bytes_(SCENE)
+        f.create_group("program").attrs["command_line"] = np.bytes_("yeegap run synthetic.yaml")
+        for axis, values in zip("xyz", (X, Y, Z)):
+            f[f"grid/{axis}"] = values
+        f["materials/names"] = fixed(["water", "blob"])
+        f["materials/map"] = material_map()
+        f["sources/omega"] = OMEGA[::-1]             # another order than the outputs: matched by value
+        f["sources/spectrum_re"] = IL.real[::-1][None, :]
+        f["sources/spectrum_im"] = IL.imag[::-1][None, :]
+        f["sources/position"] = np.array([[0.0, 0.0, 0.0]])
+        for name, closed in (("emitted", 1), ("through_top", 0)):
+            g = f.create_group(f"outputs/{name}")
+            g.attrs["kind"], g.attrs["closed"], g.attrs["normal_axis"] = np.bytes_("flux"), np.int32(closed), np.int32(2)
+            g["omega"], g["wavelength_nm"] = OMEGA, WAVELENGTHS_NM
+            g["power"] = ENHANCEMENT * p0(OMEGA, IL, N_BACKGROUND) * (1.0 if closed else 0.5)
+        g = f.create_group("outputs/at_dipole")
+        g.attrs["kind"], g.attrs["components"] = np.bytes_("probe"), fixed(["Ex", "Hy"])
+        g.attrs["position"] = np.array([0.0, 0.0, 0.0])
+        t = np.arange(400) * 1e-17
+        g["time"] = t
+        g["Ex"] = np.sin(2 * np.pi * t / 1.5e-15) * np.exp(-(((t - 2e-15) / 8e-16) ** 2))
+        g["Hy"] = 0.01 * g["Ex"][...]
+        g["Hy"].attrs["sample_time_offset"] = -0.5e-17
+        for name, (mx, my, mz) in {"xz_plane": (X, Y[2:3], Z), "volume": (X[2:7], Y, Z[1:6])}.items():
+            g = f.create_group(f"outputs/{name}")
+            g.attrs["kind"], g.attrs["components"] = np.bytes_("field_map"), fixed(["Ex", "Ez"])
+            g["x"], g["y"], g["z"] = mx, my, mz
+            g["omega"], g["wavelength_nm"] = OMEGA, WAVELENGTHS_NM
+            shape = (len(OMEGA), len(mz), len(my), len(mx))
+            zz, yy, xx = np.meshgrid(mz, my, mx, indexing="ij")
+            r2 = xx**2 + yy**2 + zz**2 + (3e-9) ** 2
+            e2 = np.broadcast_to(1e-20 / r2**3 * 1e-54, shape) * (1 + rng.random(shape))
+            g["Ex_re"], g["Ex_im"] = np.sqrt(e2), np.zeros(shape)
+            g["Ez_re"], g["Ez_im"] = np.zeros(shape), np.zeros(shape)
+            g["E_squared"] = e2
+
+
+def png_is_a_picture(path):
+    """Size and content of a PNG: (width, height, distinct colours, fraction of coloured pixels).
+    Axes, ticks and text are grey, so an empty figure has hundreds of colours (anti-aliasing) but
+    no coloured pixels at all (measured: 0 of 392000); curves and colour maps are coloured."""
+    image = matplotlib.image.imread(path)
+    rgb = (image[..., :3] * 255).round().astype(np.int32).reshape(-1, 3)
+    colours = len(np.unique(rgb, axis=0))
+    coloured = float(np.mean(rgb.max(axis=1) - rgb.min(axis=1) > 40))
+    return image.shape[1], image.shape[0], colours, coloured
+
+
+def without_python_packages(work):
+    """An interpreter that cannot import numpy, h5py or matplotlib: Debian's python3 with -S (no
+    site directories, so no dist-packages)."""
+    wrapper = os.path.join(work, "bare_python")
+    with open(wrapper, "w") as w:
+        w.write(f'#!/bin/sh\nexec {sys.executable} -S "$@"\n')
+    os.chmod(wrapper, os.stat(wrapper).st_mode | stat.S_IXUSR)
+    return wrapper
+
+
+headless = {k: v for k, v in os.environ.items() if k not in ("DISPLAY", "WAYLAND_DISPLAY", "MPLBACKEND")}
+
+with tempfile.TemporaryDirectory() as work:
+    results = os.path.join(work, "synthetic.h5")
+    write_results(results)
+
+    # 1. The script itself: every figure, as PNG and SVG, each PNG a real picture.
+    done = subprocess.run([sys.executable, script, results], capture_output=True, text=True, env=headless)
+    check(done.returncode == 0, f"plot script exit code {done.returncode}: {done.stderr}")
+    check(done.stdout == "", f"the plot script wrote to stdout: {done.stdout!r}")
+    stems = ["flux", "probe_at_dipole"] + [f"{m}_{w}nm" for m in ("volume", "xz_plane") for w in (500, 600, 700)]
+    for stem in stems:
+        for ext in ("png", "svg"):
+            path = os.path.join(work, f"synthetic_{stem}.{ext}")
+            check(os.path.isfile(path) and os.path.getsize(path) > 1000, f"{path} missing or tiny")
+        png = os.path.join(work, f"synthetic_{stem}.png")
+        if os.path.isfile(png):
+            width, height, colours, coloured = png_is_a_picture(png)
+            check((width, height) == plot_common.FIGURE_SIZE_PX, f"{stem}: {width} x {height} pixels")
+            check(colours >= 20, f"{stem}: only {colours} distinct colours (blank?)")
+            check(coloured > 0.005, f"{stem}: only {coloured:.2%} of the pixels are coloured (nothing drawn?)")
+            print(f"{stem}.png: {width} x {height}, {colours} colours, {coloured:.1%} coloured")
+
+    with h5py.File(results, "r") as f:
+        # 2. The relative curve is P / P0 (Jackson 1999, eq. 9.24) with n from the scene.
+        notes = []
+        fig = plot_spectra.flux_figure(f, notes)
+        check(len(fig.axes) >= 2 and not notes, f"no relative panel: {notes}")
+        if len(fig.axes) >= 2:
+            curves = {line.get_label(): line.get_ydata() for line in fig.axes[1].get_lines()}
+            check(np.allclose(curves.get("emitted", []), ENHANCEMENT, rtol=1e-12),
+                  f"emitted P/P0 {curves.get('emitted')} want {ENHANCEMENT}")
+            check(np.allclose(curves.get("through_top", []), 0.5 * ENHANCEMENT, rtol=1e-12),
+                  f"through_top P/P0 {curves.get('through_top')}")
+
+        # 3. Graded coordinates: the colour mesh sits on the file's node coordinates, and the
+        # material outline on cell edges of the graded grid (the box spans x nodes 3..6, z nodes 2..4).
+        g = f["outputs/xz_plane"]
+        fig = plot_field_maps.plane_figure(f, "xz_plane", g["E_squared"][0], [X, Y[2:3], Z], 500.0)
+        ax = fig.axes[0]
+        mesh = next(c for c in ax.collections if hasattr(c, "get_coordinates"))
+        vertices = mesh.get_coordinates()                      # (nz, nx, 2) in nm
+        check(np.allclose(vertices[0, :, 0], X * 1e9) and np.allclose(vertices[:, 0, 1], Z * 1e9),
+              "the field map is not drawn on the graded node coordinates")
+        outline = [c for c in ax.collections if c.get_label() == "material boundary"]
+        check(len(outline) == 1, "no material outline")
+        if outline:
+            points = np.concatenate(outline[0].get_segments())
+            xs, zs = set(np.round(points[:, 0], 6)), set(np.round(points[:, 1], 6))
+            check(xs == set(np.round(X[3:7] * 1e9, 6)), f"outline x positions {sorted(xs)}")
+            check(zs == set(np.round(Z[2:5] * 1e9, 6)), f"outline z positions {sorted(zs)}")
+
+    # 4. No numpy/h5py/matplotlib: a hint, no traceback, from the script and from `yeegap view`.
+    bare = without_python_packages(work)
+    done = subprocess.run([bare, script, results], capture_output=True, text=True, env=headless)
+    check(done.returncode == 3 and HINT in done.stderr and "Traceback" not in done.stderr,
+          f"script without packages: exit {done.returncode}, stderr {done.stderr!r}")
+    done = subprocess.run([yeegap, "view", results], capture_output=True, text=True, env=dict(headless, YEEGAP_PYTHON=bare))
+    check(done.returncode == 1 and HINT in done.stderr and "Traceback" not in done.stderr,
+          f"yeegap view without packages: exit {done.returncode}, stderr {done.stderr!r}")
+    check(os.path.isfile(os.path.join(work, "synthetic.xmf")), "yeegap view wrote no sidecar")
+    done = subprocess.run([yeegap, "view", results], capture_output=True, text=True,
+                          env=dict(headless, YEEGAP_PLOT_SCRIPT=os.path.join(work, "nowhere.py")))
+    check(done.returncode == 1 and "nowhere.py" in done.stderr, f"missing script: {done.returncode} {done.stderr!r}")
+
+    # 5. `yeegap run --plot --json` on a coarse example: sidecar, figures, and stdout still one JSON object.
+    out = os.path.join(work, "coarse.h5")
+    done = subprocess.run([yeegap, "run", os.path.join(src, "examples", "dipole_near_sphere.yaml"), "-o", out,
+                           "--plot", "--json", "--set", "domain.step=10 nm", "--set", "domain.absorber.cells=6"],
+                          capture_output=True, text=True, env=headless)
+    check(done.returncode == 0, f"run --plot exit code {done.returncode}: {done.stderr[-2000:]}")
+    try:
+        json.loads(done.stdout)
+        check(True, "")
+    except ValueError:
+        check(False, f"stdout is not one JSON object: {done.stdout[:300]!r}")
+    for name in ("coarse.xmf", "coarse_flux.png", "coarse_probe_at_dipole.png", "coarse_xz_plane_650nm.png"):
+        check(os.path.isfile(os.path.join(work, name)), f"run --plot did not write {name}")
+
+print(f"{passes} passed, {len(failures)} failed")
+sys.exit(1 if failures else 0)
