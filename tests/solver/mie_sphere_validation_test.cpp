@@ -1,7 +1,8 @@
 // A dielectric sphere (index 2, radius 50 nm, in air) lit by a TFSF plane wave: its scattering
 // cross section over 400-900 nm against Mie theory (Bohren & Huffman, Absorption and Scattering of
 // Light by Small Particles, Wiley 1983, ch. 4; materials/mie_sphere.h). Tolerance from the issue:
-// 3 % RMS. The sphere is staircased (no subcell averaging yet) at 20 cells per radius.
+// 3 % RMS. The sphere is staircased (no subcell averaging yet) at 10 cells per radius; at 20 cells
+// per radius the same test measured 0.69 % RMS (15 min on a loaded machine, too slow for CI).
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -19,9 +20,9 @@ using constants::c0;
 using constants::pi;
 
 TEST(MieSphere, DielectricSphereScatteringWithin3PercentRms) {
-  const double d = 2.5e-9, radius = 50e-9;
-  Scene s = testing::vacuum_box({88, 88, 88}, d, testing::all_edges(EdgeKind::absorber));
-  s.domain.absorber.cells = 10;
+  const double d = 5e-9, radius = 50e-9;
+  Scene s = testing::vacuum_box({48, 48, 48}, d, testing::all_edges(EdgeKind::absorber));
+  s.domain.absorber.cells = 8;
   MaterialSpec glass;
   glass.name = "n2";
   glass.poles.eps_inf = 4.0;
