@@ -78,6 +78,22 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
     }
     outs.add(f.name, json_array(rows));
   }
+  for (const auto& c : r.cross_sections) {
+    std::vector<std::string> rows;
+    const char* unit = c.per_unit_length ? "nm" : "nm^2";
+    const double scale = c.per_unit_length ? 1e9 : 1e18;
+    std::fprintf(stderr, "  cross sections %s (%s): wavelength, extinction, scattering, absorption\n", c.name.c_str(), unit);
+    for (std::size_t q = 0; q < c.omegas.size(); ++q) {
+      const double lambda_nm = 2 * constants::pi * constants::c0 / c.omegas[q] * 1e9;
+      JsonObject row;
+      row.number("wavelength_nm", lambda_nm).number("extinction", c.extinction[q]).number("scattering", c.scattering[q])
+          .number("absorption", c.absorption[q]);
+      rows.push_back(row.str());
+      std::fprintf(stderr, "    %8.2f nm  %.5g  %.5g  %.5g\n", lambda_nm, c.extinction[q] * scale, c.scattering[q] * scale,
+                   c.absorption[q] * scale);
+    }
+    outs.add(c.name, json_array(rows));
+  }
   for (const auto& m : r.field_maps) {
     std::vector<std::string> rows;
     for (std::size_t q = 0; q < m.omegas.size(); ++q) {
