@@ -152,6 +152,19 @@ void write_sources(const h5::File& file, const solver::RunResults& r, const solv
   with_units(g.write("position", flatten(positions), {n_dipoles, 3}), "m");
   with_units(g.write("direction", flatten(directions), {n_dipoles, 3}), "1");
   with_units(g.write("moment", moments), "C m").set_attribute("description", "peak dipole moment");
+
+  // Plane waves (TFSF boxes): the incident E at each box's centre, for normalising to intensity.
+  std::vector<std::complex<double>> incident;
+  for (const auto& spectrum : r.incident_spectra) {
+    require(spectrum.size() == n_freq, fmt::format("an incident spectrum has {} values for {} frequencies",
+                                                   spectrum.size(), n_freq));
+    incident.insert(incident.end(), spectrum.begin(), spectrum.end());
+  }
+  const h5::ComplexDataset inc = g.write_complex("incident", incident, {r.incident_spectra.size(), n_freq});
+  for (const h5::Dataset* part : {&inc.re, &inc.im}) {
+    part->set_attribute("units", "V s/m");
+    part->set_attribute("description", "DFT of each plane wave's incident E at its box centre, [plane wave, frequency]");
+  }
 }
 
 void check_output_name(const h5::Group& outputs, const std::string& name) {
