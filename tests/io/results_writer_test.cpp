@@ -231,8 +231,9 @@ TEST_F(ResultsWriter, EveryDatasetCarriesAUnitsAttribute) {
   Opened f(write_standard());
   std::vector<std::string> datasets;
   H5Ovisit2(f.id(), H5_INDEX_NAME, H5_ITER_NATIVE, collect_datasets, &datasets, H5O_INFO_BASIC);
-  // scene 1, grid 3, materials 2, sources 8, probe 4, field map 6 axes + 3 x 2 parts + E_squared, flux 4
-  EXPECT_EQ(datasets.size(), 1u + 3 + 2 + 8 + 4 + 13 + 4);
+  // scene 1, grid 3, materials 2, sources 10 (3 axes, spectrum and incident re/im, position, direction,
+  // moment), probe 4, field map 6 axes + 3 x 2 parts + E_squared, flux 4
+  EXPECT_EQ(datasets.size(), 1u + 3 + 2 + 10 + 4 + 13 + 4);
   for (const auto& d : datasets) {
     EXPECT_GT(H5Aexists_by_name(f.id(), d.c_str(), "units", H5P_DEFAULT), 0) << d;
     EXPECT_FALSE(read_string_attribute(f.id(), d, "units").empty()) << d;
