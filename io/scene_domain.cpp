@@ -14,8 +14,9 @@ namespace {
 
 using solver::EdgeKind;
 
-const std::vector<std::string> edge_words = {"absorber", "periodic", "metal"};
-const std::vector<std::string> planned_edge_words = {"bloch", "mirror_even", "mirror_odd"};
+// In the order of solver::EdgeKind.
+const std::vector<std::string> edge_words = {"absorber", "periodic", "metal", "mirror_even", "mirror_odd"};
+const std::vector<std::string> planned_edge_words = {"bloch"};
 const char* const axis_names[] = {"x", "y", "z"};
 const char* const face_names[] = {"x_low", "x_high", "y_low", "y_high", "z_low", "z_high"};
 
@@ -113,6 +114,10 @@ void read_domain(const Node& block, solver::Scene& scene) {
     d.edges = read_edges(*edges);
     for (int a = 0; a < 3; ++a) {
       const bool lo = d.edges[2 * a] == EdgeKind::periodic, hi = d.edges[2 * a + 1] == EdgeKind::periodic;
+      if (solver::is_mirror(d.edges[2 * a + 1]))
+        edges->fail(fmt::format("{}_high is {}: a symmetry plane goes on a low face; place the domain so the plane "
+                                "is its {}_low face", axis_names[a],
+                                solver::edge_kind_names[static_cast<int>(d.edges[2 * a + 1])], axis_names[a]));
       if (lo != hi)
         edges->fail(fmt::format("{} is periodic but {} is {}: periodic applies to both faces of an axis",
                                 face_names[lo ? 2 * a : 2 * a + 1], face_names[lo ? 2 * a + 1 : 2 * a],

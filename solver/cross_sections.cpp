@@ -37,12 +37,15 @@ CrossSectionRecorder::CrossSectionRecorder(const CrossSectionSpec& spec, const S
                                  spec.where.location(), 2 * flux_offset_cells));
     const int margin_lo = scene.domain.edges[2 * a] == EdgeKind::absorber ? scene.domain.absorber.cells : 0;
     const int margin_hi = scene.domain.edges[2 * a + 1] == EdgeKind::absorber ? scene.domain.absorber.cells : 0;
-    if (lo - flux_offset_cells - 1 < margin_lo || hi + flux_offset_cells + 1 > g.n[a] - margin_hi)
+    if ((lo - flux_offset_cells - 1 < margin_lo && !(g.mirror_low[a] && lo == 0)) ||
+        hi + flux_offset_cells + 1 > g.n[a] - margin_hi)
       throw RunError(fmt::format("{}: cross sections need {} free cells between the plane-wave box and the absorber "
                                  "(axis {})", spec.where.location(), flux_offset_cells + 1, "xyz"[a]));
-    inner.region.lo[a] = g.nodes[a][lo + flux_offset_cells];
+    // A box starting on a symmetry plane keeps its flux boxes on the plane (no face there).
+    const bool mirrored = g.mirror_low[a] && lo == 0;
+    inner.region.lo[a] = g.nodes[a][mirrored ? 0 : lo + flux_offset_cells];
     inner.region.hi[a] = g.nodes[a][hi - flux_offset_cells];
-    outer.region.lo[a] = g.nodes[a][lo - flux_offset_cells];
+    outer.region.lo[a] = g.nodes[a][mirrored ? 0 : lo - flux_offset_cells];
     outer.region.hi[a] = g.nodes[a][hi + flux_offset_cells];
   }
   inner_ = std::make_unique<FluxRecorder>(inner, g, L);

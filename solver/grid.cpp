@@ -18,6 +18,7 @@ Grid Grid::uniform(const DomainSpec& d) {
     const int cells = std::max(1, static_cast<int>(std::lround(d.size[a] / d.step[a])));
     g.n[a] = cells;
     g.periodic[a] = d.edges[2 * a] == EdgeKind::periodic;
+    g.mirror_low[a] = is_mirror(d.edges[2 * a]);
     const double lo = d.center[a] - 0.5 * d.size[a];
     const double h = d.size[a] / cells;
     g.nodes[a].resize(cells + 1);
@@ -36,7 +37,9 @@ double Grid::primal(int a, int i) const {
 double Grid::dual(int a, int i) const {
   const int m = n[a];
   if (periodic[a]) return 0.5 * (primal(a, i - 1) + primal(a, i));
-  if (i <= 0) return 0.5 * primal(a, 0);
+  // On a symmetry plane the mirror image supplies the other half-cell: the H values either side
+  // of node 0 are a whole cell apart.
+  if (i <= 0) return mirror_low[a] ? primal(a, 0) : 0.5 * primal(a, 0);
   if (i >= m) return 0.5 * primal(a, m - 1);
   return 0.5 * (primal(a, i - 1) + primal(a, i));
 }

@@ -16,6 +16,7 @@ struct Grid {
   std::array<int, 3> n{};                      // cells per axis
   std::array<std::vector<double>, 3> nodes;    // n+1 node coordinates per axis, m
   std::array<bool, 3> periodic{};              // periodic (both faces) per axis
+  std::array<bool, 3> mirror_low{};            // a symmetry plane at the low face per axis
 
   /// Builds a uniform grid covering the domain with cells of (at most) the requested step.
   static Grid uniform(const DomainSpec& domain);

@@ -34,7 +34,8 @@ void fill_material_index(const Scene& s, const Grid& g, const BlockLayout& L, Ma
           const std::array<int, 3> idx{i, j, k};
           bool on_wall = false;
           for (int a = 0; a < 3; ++a)
-            if (a != c && !g.periodic[a] && idx[a] == 0) on_wall = true;  // tangential E on a bounded face
+            // Tangential E on a bounded low face is held at zero, except on an even mirror plane.
+            if (a != c && !g.periodic[a] && idx[a] == 0 && s.domain.edges[2 * a] != EdgeKind::mirror_even) on_wall = true;
           const int m = on_wall ? wall : material_at(s, yee_position(g, comp, i, j, k));
           out[L.at(i, j, k)] = is_pec[m] ? wall : static_cast<std::uint8_t>(m);
         }

@@ -192,8 +192,13 @@ FluxRecorder::FluxRecorder(const FluxSpec& spec, const Grid& g, const BlockLayou
     if (!g.invariant(a) && r[a][0] == r[a][1]) flat = a, ++flat_count;
   }
   const std::size_t nf = spec.omegas.size();
+  // A region that starts on a symmetry plane stands for itself and its mirror image: its power is
+  // doubled per such plane, and no power crosses the plane itself (tangential E or H vanishes there).
+  auto on_mirror = [&](int a) { return g.mirror_low[a] && r[a][0] == 0; };
   if (flat_count == 1) {
     normal_ = flat;
+    for (int a = 0; a < 3; ++a)
+      if (a != flat && on_mirror(a)) mirror_factor_ *= 2;
     faces_.push_back(make_face(g, L, flat, r[flat][0], r, +1.0, nf));
     return;
   }
@@ -201,7 +206,8 @@ FluxRecorder::FluxRecorder(const FluxSpec& spec, const Grid& g, const BlockLayou
   closed_ = true;
   for (int a = 0; a < 3; ++a) {
     if (g.invariant(a)) continue;  // no flux leaves through an invariant direction
-    faces_.push_back(make_face(g, L, a, r[a][0], r, -1.0, nf));
+    if (on_mirror(a)) mirror_factor_ *= 2;
+    else faces_.push_back(make_face(g, L, a, r[a][0], r, -1.0, nf));
     faces_.push_back(make_face(g, L, a, r[a][1], r, +1.0, nf));
   }
 }
@@ -243,7 +249,7 @@ FluxResult FluxRecorder::result() const {
           }
         p += term == 0 ? s : -s;
       }
-      out.power[fq] += 0.5 * face.sign * p;
+      out.power[fq] += 0.5 * face.sign * p * mirror_factor_;
     }
   }
   return out;

@@ -61,6 +61,7 @@ class FluxRecorder {
   Face make_face(const Grid& g, const BlockLayout& L, int axis, int node, const std::array<std::array<int, 2>, 3>& r,
                  double sign, std::size_t nf);
   FluxSpec spec_;
+  double mirror_factor_ = 1;        // 2 per symmetry plane the region starts on: the whole structure
   bool closed_ = false;
   int normal_ = -1;
   std::vector<Face> faces_;

@@ -23,8 +23,13 @@ enum class EdgeKind : std::uint8_t {
   absorber,  // CPML (Roden & Gedney 2000) inside the domain, backed by a perfect conductor
   periodic,  // the field repeats with the domain size
   metal,     // perfect electric conductor: tangential E = 0 on the face
+  // A symmetry plane at a low face: the domain stands for itself and its mirror image.
+  mirror_even,  // tangential E even (symmetric) across the plane: a magnetic wall, tangential H = 0
+  mirror_odd,   // tangential E odd (antisymmetric): an electric wall, tangential E = 0
 };
-inline constexpr std::array<const char*, 3> edge_kind_names = {"absorber", "periodic", "metal"};
+inline constexpr std::array<const char*, 5> edge_kind_names = {"absorber", "periodic", "metal", "mirror_even",
+                                                               "mirror_odd"};
+inline constexpr bool is_mirror(EdgeKind k) { return k == EdgeKind::mirror_even || k == EdgeKind::mirror_odd; }
 
 /// CPML grading (physics.md 3.5): sigma(x) = sigma_max (x/d)^m, kappa(x) = 1 + (kappa_max-1)(x/d)^m,
 /// alpha(x) = alpha_max (1 - x/d). sigma_max follows from the target normal-incidence reflection.
@@ -52,6 +57,7 @@ struct MaterialSpec {
   materials::PoleSet poles;       // eps_inf, conductivity, poles
   bool perfect_conductor = false; // E = 0 inside
   Where where;                    // where it was defined, for messages
+  std::string library;            // the library entry's name when the model is 'library: NAME', else empty
 };
 
 struct BodySpec {
@@ -131,6 +137,35 @@ struct CrossSectionSpec {
   Where where;
 };
 
+/// Far-field radiation by surface equivalence (physics.md 3.10): running DFTs of the tangential
+/// fields on a closed box around every source and body, in a homogeneous lossless background,
+/// transformed to the pattern at the listed directions, the total radiated power (integrated over
+/// the sphere) and the power into a collection cone.
+struct FarFieldSpec {
+  std::string name;
+  bool box_given = false;         // false: the box lies two cells inside the absorbing layers
+  Region box;                     // m, used when box_given
+  FrequencyList omegas;
+  std::vector<double> theta, phi; // rad, the directions of the reported pattern (paired lists)
+  int theta_count = 0;            // > 0 when theta, phi form a grid: theta_count x phi_count,
+  int phi_count = 0;              // phi fastest
+  Vec3 collection_axis{0, 0, 1};  // unit vector, axis of the collection cone
+  double numerical_aperture = 0;  // n sin(half angle) of the cone in the background; 0 = no cone
+  Where where;
+};
+
+/// Decay-rate (Purcell) enhancement of one dipole: the power out of a small box around it over the
+/// power of the same dipole alone in the medium around it, and (with `radiated`) the radiative part
+/// from a far_field output or a closed flux box around everything, and their ratio.
+struct DecayRateSpec {
+  std::string name;
+  int dipole = 0;                 // index into Scene::dipoles
+  FrequencyList omegas;           // empty: those of the `radiated` output
+  double box_size = 0;            // m, edge of the cube around the dipole; 0 = the smallest (3 cells)
+  std::string radiated;           // name of a far_field or closed flux output; empty = total rate only
+  Where where;
+};
+
 struct StopSpec {
   double after = 0;               // s; 0 = not set
   double decayed = 0;             // stop when the field energy falls below this fraction of its peak
@@ -152,6 +187,8 @@ struct Scene {
   std::vector<FieldMapSpec> field_maps;
   std::vector<FluxSpec> fluxes;
   std::vector<CrossSectionSpec> cross_sections;
+  std::vector<FarFieldSpec> far_fields;
+  std::vector<DecayRateSpec> decay_rates;
   StopSpec stop;
 };
 

@@ -41,6 +41,9 @@ double choose_time_step(const Scene& s, const Grid& g) {
 
 void check_scene(const Scene& s, const Grid& g) {
   for (int a = 0; a < 3; ++a) {
+    if (is_mirror(s.domain.edges[2 * a + 1]))
+      throw RunError(fmt::format("{}: a mirror plane goes on a low face ({}_low); move the domain so the symmetry "
+                                 "plane is its low {} face", s.file, "xyz"[a], "xyz"[a]));
     const bool lo_p = s.domain.edges[2 * a] == EdgeKind::periodic, hi_p = s.domain.edges[2 * a + 1] == EdgeKind::periodic;
     if (lo_p != hi_p) throw RunError(fmt::format("{}: periodic edges must come in pairs (axis {})", s.file, "xyz"[a]));
     if (g.n[a] < 2 && !lo_p)
@@ -226,11 +229,17 @@ void Simulation::fill_periodic_halos(bool electric) {
   const BlockLayout& L = fields_.layout;
   const int first = electric ? 0 : 3;
   for (int a = 0; a < 3; ++a) {
-    if (!grid_.periodic[a]) continue;
+    // An even mirror plane at the low face (a magnetic wall): the image of the tangential H half a
+    // cell above the plane is its negative half a cell below, read by the E update of the
+    // tangential E on the plane. Normal H and the other fields need no image.
+    const bool even_mirror = !electric && scene_.domain.edges[2 * a] == EdgeKind::mirror_even;
+    if (!grid_.periodic[a] && !even_mirror) continue;
     const int n = L.n[a];
-    const int from = electric ? 0 : n - 1, to = electric ? n : -1;
+    const int from = electric ? 0 : (even_mirror ? 0 : n - 1), to = electric ? n : -1;
+    const real sign = even_mirror ? real(-1) : real(1);
     const int b = (a + 1) % 3, c = (a + 2) % 3;
     for (int comp = first; comp < first + 3; ++comp) {
+      if (even_mirror && comp == 3 + a) continue;  // normal H: not read across the plane
       real* d = fields_.c[comp].data();
       // Copy the whole plane including the other axes' halos, so corners stay consistent.
 #pragma omp parallel for schedule(static) if (parallel_worth(L.n[b], L.n[c], 1))
@@ -240,7 +249,7 @@ void Simulation::fill_periodic_halos(bool electric) {
           src[a] = from, dst[a] = to;
           src[b] = dst[b] = p;
           src[c] = dst[c] = q;
-          d[L.at(dst[0], dst[1], dst[2])] = d[L.at(src[0], src[1], src[2])];
+          d[L.at(dst[0], dst[1], dst[2])] = sign * d[L.at(src[0], src[1], src[2])];
         }
     }
   }

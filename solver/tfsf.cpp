@@ -21,6 +21,7 @@ namespace {
 struct Box {
   std::array<int, 3> lo, hi;       // node index range per axis
   std::array<bool, 3> whole{};     // a periodic axis the box spans completely: no face there
+  std::array<bool, 3> open_low{};  // the box starts on a symmetry plane: no face there either
 };
 
 // Whether component c at (i, j, k) lies in the total-field region.
@@ -29,7 +30,8 @@ bool total(const Box& b, int c, const std::array<int, 3>& idx) {
   for (int a = 0; a < 3; ++a) {
     if (b.whole[a]) continue;
     const int i = idx[a];
-    const bool inside = staggered(comp, a) ? (i >= b.lo[a] && i < b.hi[a]) : (i >= b.lo[a] && i <= b.hi[a]);
+    const bool above_low = b.open_low[a] || i >= b.lo[a];
+    const bool inside = staggered(comp, a) ? (above_low && i < b.hi[a]) : (above_low && i <= b.hi[a]);
     if (!inside) return false;
   }
   return true;
@@ -62,7 +64,21 @@ PlaneWaveSource::PlaneWaveSource(const PlaneWaveSpec& spec, const Scene& scene, 
     if (b.hi[a] - b.lo[a] < 1)
       throw RunError(fmt::format("{}: the plane-wave box must be at least one cell across on every axis",
                                  spec.where.location()));
-    const int margin = scene.domain.edges[2 * a] == EdgeKind::absorber ? scene.domain.absorber.cells + 1 : 1;
+    b.open_low[a] = g.mirror_low[a] && b.lo[a] == 0;
+    if (g.mirror_low[a] && a == ax)
+      throw RunError(fmt::format("{}: a plane wave cannot travel across a mirror plane ({}_low); send it along "
+                                 "the plane", spec.where.location(), "xyz"[a]));
+    // The incident field must have the plane's symmetry: tangential E even on an even mirror,
+    // normal E only on an odd one.
+    if (b.open_low[a]) {
+      const bool normal_e = std::abs(e_dir[a]) > 1e-9, tangential_e = std::abs(e_dir[a]) < 1 - 1e-9;
+      const EdgeKind k = scene.domain.edges[2 * a];
+      if ((k == EdgeKind::mirror_even && normal_e) || (k == EdgeKind::mirror_odd && tangential_e))
+        throw RunError(fmt::format("{}: the plane wave's polarization breaks the {} symmetry of the {}_low plane: "
+                                   "use E along the plane for mirror_even, across it for mirror_odd",
+                                   spec.where.location(), edge_kind_names[static_cast<int>(k)], "xyz"[a]));
+    }
+    const int margin = b.open_low[a] ? 0 : (scene.domain.edges[2 * a] == EdgeKind::absorber ? scene.domain.absorber.cells + 1 : 1);
     const int margin_hi = scene.domain.edges[2 * a + 1] == EdgeKind::absorber ? scene.domain.absorber.cells + 1 : 1;
     if (b.lo[a] < margin || b.hi[a] > g.n[a] - margin_hi)
       throw RunError(fmt::format("{}: the plane-wave box must lie inside the domain, clear of the absorbing layers "
@@ -76,7 +92,7 @@ PlaneWaveSource::PlaneWaveSource(const PlaneWaveSpec& spec, const Scene& scene, 
   // Scan one cell around the box surface; the interior and exterior far from it need nothing.
   std::array<int, 3> from{}, to{};
   for (int a = 0; a < 3; ++a) {
-    from[a] = b.whole[a] ? 0 : b.lo[a] - 1;
+    from[a] = b.whole[a] || b.open_low[a] ? 0 : b.lo[a] - 1;
     to[a] = b.whole[a] ? g.n[a] - 1 : b.hi[a] + 1;
   }
   for (int c = 0; c < 6; ++c) {
