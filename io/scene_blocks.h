@@ -3,7 +3,12 @@
 // earlier ones (material names, the domain's bounds), so the order matters.
 #pragma once
 
+#include <string>
+#include <vector>
+
+#include "io/scene_notes.h"
 #include "io/yaml_node.h"
+#include "materials/pole_set.h"
 #include "solver/scene.h"
 
 namespace yeegap::io {
@@ -14,8 +19,14 @@ inline constexpr const char* builtin_vacuum = "vacuum";
 
 /// `scene: {version, title}`.
 void read_scene_block(const Node& block, solver::Scene& scene);
-/// `materials: {name: {...}, ...}` -> scene.materials, in file order.
-void read_materials(const Node& block, solver::Scene& scene);
+/// `materials: {name: {...}, ...}` -> scene.materials, in file order. A `table` material is fitted
+/// here, and the fit's error goes to `notes`.
+void read_materials(const Node& block, solver::Scene& scene, const NoteSink& notes);
+/// The model of a material `block` holding `table: FILE` (scene_table.cpp): the file, relative to
+/// `scene_file`, fitted with poles. `model_keys` are the material keys, all refused beside `table`
+/// except the pole counts `poles` and `drude`.
+materials::PoleSet read_table_material(const Node& block, const std::vector<std::string>& model_keys,
+                                       const std::string& scene_file, const NoteSink& notes);
 /// Index into scene.materials of the material named by `ref`; the built-in vacuum is added on first
 /// use. An unknown name is an error suggesting the closest defined one.
 int material_index(const Node& ref, solver::Scene& scene);
@@ -27,6 +38,9 @@ void read_domain(const Node& block, solver::Scene& scene);
 void read_bodies(const Node& list, solver::Scene& scene);
 /// `excitation: [...]`, after the domain (sources must lie inside it).
 void read_excitation(const Node& list, solver::Scene& scene);
+/// After the excitation: a warning through `notes` for each library material that a body or the
+/// background uses whose fitted wavelength range the sources' band leaves (scene_library_range.cpp).
+void warn_outside_library_ranges(const solver::Scene& scene, const NoteSink& notes);
 /// `outputs: [...]`, after the domain.
 void read_outputs(const Node& list, solver::Scene& scene);
 /// `stop: {...}`.

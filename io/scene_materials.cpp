@@ -1,15 +1,18 @@
 // The `materials` block: named media as a constant index or permittivity, optional static
-// conductivity, explicit Drude/Lorentz poles (materials/pole_set.h), an entry of the built-in
-// library (materials/library.h), or a perfect conductor; and the lookup of material names used by
-// bodies and the domain background.
+// conductivity, explicit Drude/Lorentz/critical-point poles (materials/pole_set.h), an entry of the
+// built-in library (materials/library.h), a table of n, k fitted on load (scene_table.cpp), or a
+// perfect conductor; and the lookup of material names used by bodies and the domain background.
 #include <algorithm>
 #include <cctype>
+#include <cmath>
 
 #include <fmt/format.h>
 
 #include "io/read_values.h"
 #include "io/scene_blocks.h"
+#include "base/constants.h"
 #include "io/suggest.h"
+#include "io/units.h"
 #include "materials/library.h"
 
 namespace yeegap::io {
@@ -22,9 +25,23 @@ bool valid_name(const std::string& name) {
   return true;
 }
 
+// A critical point's phase: an angle with its unit. A bare number is refused because -45 and -0.785
+// (degrees or radians) are both plausible for the same phase.
+double read_phase(const Node& v) {
+  const std::string expected = "an angle with its unit, e.g. '-45 deg' or '-0.785 rad'";
+  if (!v.is_scalar()) v.fail(fmt::format("must be {}, got {}", expected, v.found()));
+  const auto q = split_number_unit(v.text());
+  if (!q || q->unit.empty()) v.fail(fmt::format("must be {}, got '{}'", expected, v.text()));
+  if (q->unit == "rad") return q->value;
+  if (q->unit == "deg") return q->value * constants::pi / 180.0;
+  v.fail(fmt::format("'{}' is not an angle unit{}", q->unit, suggestion(q->unit, {"deg", "rad"})));
+}
+
 void read_poles(const Node& block, materials::PoleSet& poles) {
-  block.allow({"eps_inf", "drude", "lorentz"});
-  if (!block.is_map()) block.fail("must be a block with eps_inf, drude and/or lorentz");
+  block.allow({"eps_inf", "drude", "lorentz", "critical_points"});
+  if (!block.is_map())
+    block.fail(fmt::format("must be a block with eps_inf, drude, lorentz and/or critical_points, got {}{}", block.found(),
+                           block.is_scalar() ? " (a number of poles to fit goes with 'table')" : ""));
   if (auto eps_inf = block.get("eps_inf")) poles.eps_inf = read_positive_number(*eps_inf);
   if (auto drude = block.get("drude")) {
     for (const Node& p : drude->items_or_single()) {
@@ -49,6 +66,27 @@ void read_poles(const Node& block, materials::PoleSet& poles) {
       p.done();
     }
   }
+  if (auto critical = block.get("critical_points")) {
+    // Etchegoin, Le Ru, Meyer, J. Chem. Phys. 125, 164705 (2006): A Omega [e^{i phi}/(Omega - omega -
+    // i Gamma) + e^{-i phi}/(Omega + omega + i Gamma)]. A single term may have Im eps < 0 somewhere; only
+    // the whole model must be passive, so terms are not checked one by one.
+    for (const Node& p : critical->items_or_single()) {
+      p.allow({"amplitude", "phase", "resonance", "damping"});
+      if (!p.is_map())
+        p.fail(fmt::format("must be a block {{amplitude, phase, resonance, damping}}, got {}", p.found()));
+      materials::CriticalPoint term;
+      const Node amplitude = p.require("amplitude");
+      term.amplitude = read_number(amplitude);
+      if (!std::isfinite(term.amplitude) || term.amplitude == 0)
+        amplitude.fail(fmt::format("must be a non-zero number (a negative one is the same as phase + 180 deg), "
+                                   "got '{}'", amplitude.text()));
+      term.phase = read_phase(p.require("phase"));
+      term.omega = read_omega(p.require("resonance"));
+      term.gamma = read_omega(p.require("damping"), /*allow_zero=*/true);
+      poles.critical_points.push_back(term);
+      p.done();
+    }
+  }
   block.done();
 }
 
@@ -65,17 +103,19 @@ void read_library_material(const Node& block, const std::vector<std::string>& ke
   const materials::LibraryEntry* entry = materials::find_material(word);
   if (!entry) v.fail(fmt::format("unknown library material '{}'{}", word, suggestion(word, materials::material_names())));
   m.poles = entry->poles;
+  m.library = entry->name;  // the entry's own spelling, for the range check after the excitation
 }
 
-solver::MaterialSpec read_material(const std::string& name, const Node& block) {
+solver::MaterialSpec read_material(const std::string& name, const Node& block, const std::string& scene_file,
+                                   const NoteSink& notes) {
   const std::vector<std::string> keys = {"index", "permittivity", "conductivity", "perfect_conductor", "poles",
-                                         "library"};
-  block.allow(keys, /*planned=*/{"table"});
+                                         "library", "table", "drude"};
+  block.allow(keys);
   solver::MaterialSpec m;
   m.name = name;
   m.where = block.where();
   if (!block.is_map())
-    block.fail("needs one of: index, permittivity, poles, library or 'perfect_conductor: true'");
+    block.fail("needs one of: index, permittivity, poles, library, table or 'perfect_conductor: true'");
 
   const bool pec = block.has("perfect_conductor") && read_flag(*block.get("perfect_conductor"));
   if (pec) {
@@ -91,6 +131,14 @@ solver::MaterialSpec read_material(const std::string& name, const Node& block) {
     block.done();
     return m;
   }
+  if (block.has("table")) {
+    m.poles = read_table_material(block, keys, scene_file, notes);
+    block.done();
+    return m;
+  }
+  if (block.has("drude"))
+    block.fail_key("drude", fmt::format("{}: 'drude' beside the model keys is the number of Drude poles to fit to a "
+                                        "'table'; explicit Drude poles go inside 'poles'", block.path()));
   if (block.has("index") && block.has("permittivity"))
     block.fail_key("permittivity", fmt::format("{}: give either 'index' or 'permittivity', not both "
                                                "(permittivity = index^2)", block.path()));
@@ -99,7 +147,7 @@ solver::MaterialSpec read_material(const std::string& name, const Node& block) {
       block.fail_key(k, fmt::format("{}: with 'poles', give the high-frequency permittivity as poles.eps_inf "
                                     "instead of '{}'", block.path(), k));
   if (!block.has("index") && !block.has("permittivity") && !block.has("poles") && !block.has("conductivity"))
-    block.fail("needs one of: index, permittivity, poles, library, conductivity or 'perfect_conductor: true'");
+    block.fail("needs one of: index, permittivity, poles, library, table, conductivity or 'perfect_conductor: true'");
 
   if (auto index = block.get("index")) {
     const double n = read_positive_number(*index);
@@ -119,12 +167,12 @@ solver::MaterialSpec read_material(const std::string& name, const Node& block) {
 
 }  // namespace
 
-void read_materials(const Node& block, solver::Scene& scene) {
+void read_materials(const Node& block, solver::Scene& scene, const NoteSink& notes) {
   for (const auto& [name, body] : block.entries()) {
     if (!valid_name(name))
       body.fail(fmt::format("'{}' is not a usable material name: start with a letter, then letters, digits, "
                             "'_' or '-'", name));
-    scene.materials.push_back(read_material(name, body));
+    scene.materials.push_back(read_material(name, body, scene.file, notes));
   }
 }
 

@@ -63,7 +63,7 @@ void read_stop(const Node& block, solver::Scene& scene) {
 }
 
 solver::Scene read_scene_text(const std::string& text, const std::string& file_label,
-                              const std::vector<std::string>& overrides) {
+                              const std::vector<std::string>& overrides, const NoteSink& notes) {
   auto source = std::make_shared<SceneSource>();
   source->file = file_label;
   YAML::Node doc = parse_yaml(text, file_label);
@@ -83,23 +83,25 @@ solver::Scene read_scene_text(const std::string& text, const std::string& file_l
   scene.file = file_label;
   scene.text = text;
   read_scene_block(root.require("scene"), scene);
-  if (auto materials = root.get("materials")) read_materials(*materials, scene);
+  if (auto materials = root.get("materials")) read_materials(*materials, scene, notes);
   read_domain(root.require("domain"), scene);
   if (auto bodies = root.get("bodies")) read_bodies(*bodies, scene);
   read_excitation(root.require("excitation"), scene);
+  warn_outside_library_ranges(scene, notes);
   if (auto outputs = root.get("outputs")) read_outputs(*outputs, scene);
   read_stop(root.require("stop"), scene);
   root.done();
   return scene;
 }
 
-solver::Scene read_scene_file(const std::string& path, const std::vector<std::string>& overrides) {
+solver::Scene read_scene_file(const std::string& path, const std::vector<std::string>& overrides,
+                              const NoteSink& notes) {
   std::ifstream in(path, std::ios::binary);
   if (!in) throw SceneError(Where{path, 0, 0, ""}, fmt::format("cannot open the scene file: {}", std::strerror(errno)));
   std::ostringstream text;
   text << in.rdbuf();
   if (in.bad()) throw SceneError(Where{path, 0, 0, ""}, "cannot read the scene file");
-  return read_scene_text(text.str(), path, overrides);
+  return read_scene_text(text.str(), path, overrides, notes);
 }
 
 }  // namespace yeegap::io

@@ -6,16 +6,21 @@
 #include <string>
 #include <vector>
 
+#include "io/scene_notes.h"
 #include "solver/scene.h"
 
 namespace yeegap::io {
 
 /// Reads and validates the scene at `path`. `overrides` are "key.path=value" edits (the --set
-/// option of `yeegap run`) applied before validation, e.g. "domain.step=2 nm".
-solver::Scene read_scene_file(const std::string& path, const std::vector<std::string>& overrides = {});
+/// option of `yeegap run`) applied before validation, e.g. "domain.step=2 nm". Notes and warnings
+/// that do not stop the reading (a table fit's error, a band outside a library range) go to `notes`.
+solver::Scene read_scene_file(const std::string& path, const std::vector<std::string>& overrides = {},
+                              const NoteSink& notes = notes_to_stderr);
 
-/// The same for scene text held in memory; `file_label` names it in messages and Scene::file.
+/// The same for scene text held in memory; `file_label` names it in messages and Scene::file, and
+/// relative table files are looked for beside it.
 solver::Scene read_scene_text(const std::string& text, const std::string& file_label,
-                              const std::vector<std::string>& overrides = {});
+                              const std::vector<std::string>& overrides = {},
+                              const NoteSink& notes = notes_to_stderr);
 
 }  // namespace yeegap::io

@@ -17,6 +17,7 @@ void add_run_command(CLI::App& app, int& exit_code, const std::string& command_l
 void add_check_command(CLI::App& app, int& exit_code);
 void add_view_command(CLI::App& app, int& exit_code);
 void add_gap_command(CLI::App& app, int& exit_code);
+void add_materials_command(CLI::App& app, int& exit_code);
 
 /// Runs `body`, turning user errors into a message and exit_user_error, other failures into
 /// exit_failure; prints to stderr.

@@ -23,6 +23,7 @@ int main(int argc, char** argv) {
   yeegap::cli::add_check_command(app, exit_code);
   yeegap::cli::add_view_command(app, exit_code);
   yeegap::cli::add_gap_command(app, exit_code);
+  yeegap::cli::add_materials_command(app, exit_code);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
