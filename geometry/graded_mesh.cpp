@@ -105,17 +105,10 @@ AxisMesh build_axis(const AxisRequest& r) {
     out.absorber_step_hi = r.absorber_hi > 0 ? h_uniform : 0;
     return out;
   };
-  if (invariant) return uniform();
-  if (b.zones.empty()) {
-    bool on_grid = true;
-    const double a_lo = r.lo + r.absorber_lo * h_uniform, a_hi = r.hi - r.absorber_hi * h_uniform;
-    for (double x : r.interfaces) {
-      if (x <= a_lo || x >= a_hi) continue;  // inside an absorber: dropped anyway
-      const double t = (x - r.lo) / h_uniform;
-      if (std::abs(t - std::round(t)) > 1e-6) on_grid = false;
-    }
-    if (on_grid) return uniform();
-  }
+  // An axis that nothing refines stays uniform, interfaces or not: with staircased materials a face
+  // midway between nodes gives a layer its exact thickness, which a node on the face would not
+  // (until the permittivity is averaged over the cells a face cuts).
+  if (invariant || b.zones.empty()) return uniform();
 
   double h_lo = r.absorber_lo > 0 ? r.base : 0, h_hi = r.absorber_hi > 0 ? r.base : 0;
   const std::size_t user_zones = b.zones.size();

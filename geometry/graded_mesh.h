@@ -54,9 +54,10 @@ struct GradedMesh {
   double largest_ratio() const;
 };
 
-/// Builds the mesh. An axis with no zone finer than its base step and every interface already on
-/// the uniform grid is exactly uniform, with round(size / base) cells (as a plain uniform grid).
-/// Throws RunError if the layers leave no room or the grading cannot be met.
+/// Builds the mesh. An axis with no zone finer than its base step is exactly uniform, with
+/// round(size / base) cells (as a plain uniform grid), and its interfaces are left where they fall;
+/// on a refined axis every interface outside the absorbers is a node. Throws RunError if the layers
+/// leave no room or the grading cannot be met.
 GradedMesh build_graded_mesh(const MeshRequest& request);
 
 /// One axis of the above.

@@ -35,18 +35,21 @@ TEST(GradedMesh, AxisWithoutRefinementIsTheUniformGrid) {
   AxisRequest r;
   r.lo = -200 * nm, r.hi = 203 * nm, r.base = 5 * nm;
   r.absorber_lo = r.absorber_hi = 12;
-  r.interfaces = {-200 * nm + 5 * 403.0 / 81 * nm * 20};  // on the uniform grid: kept uniform
+  r.interfaces = {1.7 * nm};                 // off the grid, but nothing refines this axis
+  r.zones = {{-10 * nm, 10 * nm, 6 * nm}};   // not finer than the base: no refinement
   const AxisMesh m = build_axis(r);
   ASSERT_EQ(m.nodes.size(), 82u);  // round(403 / 5) = 81 cells
   for (std::size_t i = 0; i < m.nodes.size(); ++i) EXPECT_NEAR(m.nodes[i], -200 * nm + i * 403.0 / 81 * nm, 1e-20);
   EXPECT_NEAR(m.absorber_step_lo, 403.0 / 81 * nm, 1e-20);
+  EXPECT_FALSE(is_node(m.nodes, 1.7 * nm, 1e-3 * nm));  // left between nodes: the layer keeps its thickness
 }
 
 TEST(GradedMesh, OffGridInterfaceBecomesANodeWithinTheRatio) {
   AxisRequest r;
   r.lo = -200 * nm, r.hi = 200 * nm, r.base = 5 * nm;
   r.absorber_lo = r.absorber_hi = 12;
-  r.interfaces = {1.7 * nm, 2.9 * nm};  // a 1.2 nm film off the 5 nm grid
+  r.interfaces = {1.7 * nm, 2.9 * nm};  // a 1.2 nm film off the 5 nm grid, on a refined axis
+  r.zones = {{50 * nm, 60 * nm, 2 * nm}};
   const AxisMesh m = build_axis(r);
   EXPECT_TRUE(is_node(m.nodes, 1.7 * nm, 1e-9 * nm));
   EXPECT_TRUE(is_node(m.nodes, 2.9 * nm, 1e-9 * nm));
@@ -74,7 +77,7 @@ TEST(GradedMesh, ManyRequestsKeepEveryRule) {
       {{{-0.25, 0.25, 0.125}}, {-0.25, 0.25}, 10, false, 1.1},
       {{{40, 60, 0.3}}, {-95.5}, 0, true, 1.2},   // zone near the wrap of a periodic axis
       {{{-100, -80, 0.5}}, {}, 8, false, 1.3},    // zone touching the absorber
-      {{}, {0.3, 0.31, 0.32}, 12, false, 1.2},    // three close interfaces: a thin film
+      {{{-50, -40, 2}}, {0.3, 0.31, 0.32}, 12, false, 1.2},  // three close interfaces: a thin film
   };
   for (std::size_t c = 0; c < cases.size(); ++c) {
     SCOPED_TRACE(c);
