@@ -279,6 +279,85 @@ void write_cross_sections(const h5::Group& outputs, const solver::CrossSectionRe
       .set_attribute("description", "|E_inc(omega)|^2 / (2 eta) from DFT spectra");
 }
 
+void write_far_field(const h5::Group& outputs, const solver::FarFieldResult& x) {
+  check_output_name(outputs, x.name);
+  const std::size_t nf = x.omegas.size(), nd = x.theta.size();
+  require(x.phi.size() == nd && x.power.size() == nf && x.surface_power.size() == nf && x.e_theta.size() == nf &&
+              x.e_phi.size() == nf && x.intensity.size() == nf && x.directivity.size() == nf &&
+              (x.collected.empty() || x.collected.size() == nf),
+          fmt::format("far field '{}' has arrays that do not match its {} frequencies and {} directions", x.name, nf, nd));
+  require(x.theta_count == 0 || static_cast<std::size_t>(x.theta_count) * x.phi_count == nd,
+          fmt::format("far field '{}' has {} directions for a {} x {} grid", x.name, nd, x.theta_count, x.phi_count));
+  std::vector<std::complex<double>> et, ep;
+  std::vector<double> in, di;
+  for (std::size_t q = 0; q < nf; ++q) {
+    require(x.e_theta[q].size() == nd && x.e_phi[q].size() == nd && x.intensity[q].size() == nd &&
+                x.directivity[q].size() == nd,
+            fmt::format("far field '{}' frequency {} does not have {} directions", x.name, q, nd));
+    et.insert(et.end(), x.e_theta[q].begin(), x.e_theta[q].end());
+    ep.insert(ep.end(), x.e_phi[q].begin(), x.e_phi[q].end());
+    in.insert(in.end(), x.intensity[q].begin(), x.intensity[q].end());
+    di.insert(di.end(), x.directivity[q].begin(), x.directivity[q].end());
+  }
+  const h5::Group g = outputs.create_group(x.name);
+  g.set_attribute("kind", "far_field");
+  g.set_attribute("theta_count", std::int32_t{x.theta_count});
+  g.set_attribute("phi_count", std::int32_t{x.phi_count});
+  g.set_attribute("index", x.index);
+  g.set_attribute("box_from", std::vector<double>{x.box.lo.x, x.box.lo.y, x.box.lo.z});
+  g.set_attribute("box_to", std::vector<double>{x.box.hi.x, x.box.hi.y, x.box.hi.z});
+  g.set_attribute("numerical_aperture", x.numerical_aperture);
+  g.set_attribute("collection_axis", std::vector<double>{x.collection_axis.x, x.collection_axis.y, x.collection_axis.z});
+  write_frequency_axes(g, x.omegas);
+  with_units(g.write("theta", x.theta), "rad").set_attribute("description", "polar angle from +z of each direction");
+  with_units(g.write("phi", x.phi), "rad").set_attribute("description", "azimuth from +x of each direction");
+  const h5::Shape shape{nf, nd};
+  for (const auto& [name, values] : {std::pair{"E_theta", &et}, std::pair{"E_phi", &ep}}) {
+    const h5::ComplexDataset d = g.write_complex(name, *values, shape);
+    for (const h5::Dataset* part : {&d.re, &d.im}) {
+      part->set_attribute("units", "V s");
+      part->set_attribute("description", "r exp(-i k r) E at large r from DFT spectra, [frequency, direction]");
+    }
+  }
+  with_units(g.write("intensity", in, shape), "W s^2/sr")
+      .set_attribute("description", "radiated power per solid angle dP/dOmega, [frequency, direction]");
+  with_units(g.write("directivity", di, shape), "1")
+      .set_attribute("description", "4 pi (dP/dOmega) / power, [frequency, direction]");
+  with_units(g.write("power", x.power), "W s^2")
+      .set_attribute("description", "radiated power: dP/dOmega integrated over the whole sphere");
+  with_units(g.write("surface_power", x.surface_power), "W s^2")
+      .set_attribute("description", "outward Poynting flux through the box the transform used (a check on power)");
+  if (!x.collected.empty())
+    with_units(g.write("collected", x.collected), "W s^2")
+        .set_attribute("description", "power into the cone of numerical_aperture about collection_axis");
+}
+
+void write_decay_rate(const h5::Group& outputs, const solver::DecayRateResult& x) {
+  check_output_name(outputs, x.name);
+  const std::size_t n = x.omegas.size();
+  require(x.total.size() == n && x.box_power.size() == n && x.alone_power.size() == n &&
+              x.radiative.size() == x.efficiency.size() && (x.radiative.empty() || x.radiative.size() == n),
+          fmt::format("decay rate '{}' has arrays that do not match its {} frequencies", x.name, n));
+  const h5::Group g = outputs.create_group(x.name);
+  g.set_attribute("kind", "decay_rate");
+  g.set_attribute("dipole", std::int32_t{x.dipole});
+  g.set_attribute("index", x.index);
+  g.set_attribute("radiated", x.radiated);
+  write_frequency_axes(g, x.omegas);
+  with_units(g.write("total", x.total), "1")
+      .set_attribute("description", "total decay-rate enhancement: power out of the box around the dipole / alone_power");
+  if (!x.radiative.empty()) {
+    with_units(g.write("radiative", x.radiative), "1")
+        .set_attribute("description", "radiated power (from the output named by 'radiated') / alone_power");
+    with_units(g.write("efficiency", x.efficiency), "1")
+        .set_attribute("description", "quantum efficiency of an ideal emitter: radiative / total");
+  }
+  with_units(g.write("box_power", x.box_power), "W s^2")
+      .set_attribute("description", "outward flux through the small box around the dipole");
+  with_units(g.write("alone_power", x.alone_power), "W s^2")
+      .set_attribute("description", "n eta0 k0^2 |I l(omega)|^2 / (12 pi): the dipole alone in the medium around it");
+}
+
 void write_layout(const h5::File& file, const solver::RunResults& r, const solver::Scene& scene,
                   const WriteInfo& info) {
   file.set_attribute("format", results_format);
@@ -294,6 +373,8 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   for (const auto& m : r.field_maps) write_field_map(outputs, m);
   for (const auto& x : r.fluxes) write_flux(outputs, x);
   for (const auto& x : r.cross_sections) write_cross_sections(outputs, x);
+  for (const auto& x : r.far_fields) write_far_field(outputs, x);
+  for (const auto& x : r.decay_rates) write_decay_rate(outputs, x);
 }
 
 /// Forces the file's bytes to disk, so the rename cannot expose an empty file after a crash.

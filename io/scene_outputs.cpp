@@ -1,12 +1,15 @@
 // The `outputs` list: what a run records. Each item is one recorder with a unique name: a probe
-// (time series at a point), a field_map (frequency-domain fields on a plane or in a region) or a
-// flux (power through a plane, or out of a closed box).
+// (time series at a point), a field_map (frequency-domain fields on a plane or in a region), a
+// flux (power through a plane, or out of a closed box), cross sections, a far_field (pattern and
+// radiated power) or a decay_rate (Purcell enhancement of a dipole).
 #include <algorithm>
 #include <cctype>
+#include <cmath>
 #include <map>
 
 #include <fmt/format.h>
 
+#include "base/constants.h"
 #include "io/read_values.h"
 #include "io/scene_blocks.h"
 #include "io/suggest.h"
@@ -152,13 +155,135 @@ solver::CrossSectionSpec read_cross_sections(const Node& block, const solver::Sc
   return c;
 }
 
+// ---- far_field and decay_rate ----
+
+// Directions reported when a far_field names none: every 10 degrees in theta and phi.
+constexpr long default_theta_count = 19, default_phi_count = 36;
+
+/// An angle with its unit, 'deg' or 'rad' -> rad. A bare number is refused: 30 could be either.
+double read_angle(const Node& v) {
+  const std::string expected = "an angle like '30 deg' or '0.5 rad'";
+  if (!v.is_scalar()) v.fail(fmt::format("must be {}, got {}", expected, v.found()));
+  const auto q = split_number_unit(v.text());
+  if (!q) v.fail(fmt::format("must be {}, got '{}'", expected, v.text()));
+  if (q->unit == "deg") return q->value * constants::pi / 180;
+  if (q->unit == "rad") return q->value;
+  v.fail(fmt::format("must be {} (the unit decides), got '{}'", expected, v.text()));
+}
+
+solver::FarFieldSpec read_far_field(const Node& block, const solver::Scene& scene, std::map<std::string, Where>& used) {
+  block.allow({"name", "box", "frequencies", "angles", "directions", "collection"});
+  solver::FarFieldSpec f;
+  f.where = block.where();
+  f.name = read_name(block, used);
+  if (auto box = block.get("box")) {
+    f.box = read_corners(*box, scene.domain, /*closed=*/true);
+    f.box_given = true;
+  }
+  f.omegas = read_frequencies(block.require("frequencies"));
+  if (block.has("angles") && block.has("directions"))
+    block.fail_key("directions", fmt::format("{}: give either 'angles' (a grid) or 'directions' (a list), not both",
+                                             block.path()));
+  if (auto d = block.get("directions")) {
+    const std::vector<Node> pairs = d->items();
+    if (pairs.empty()) d->fail("must list at least one direction [theta, phi]");
+    for (const Node& p : pairs) {
+      const std::vector<Node> two = p.is_list() ? p.items() : std::vector<Node>{};
+      if (two.size() != 2) p.fail(fmt::format("must be a pair [theta, phi] like [30 deg, 0 deg], got {}", p.found()));
+      f.theta.push_back(read_angle(two[0]));
+      f.phi.push_back(read_angle(two[1]));
+    }
+  } else {
+    long n_theta = default_theta_count, n_phi = default_phi_count;
+    if (auto a = block.get("angles")) {
+      a->allow({"theta_count", "phi_count"});
+      if (!a->is_map()) a->fail(fmt::format("must be a block {{theta_count: 19, phi_count: 36}}, got {}", a->found()));
+      if (auto t = a->get("theta_count")) n_theta = read_whole_number(*t, 2);
+      if (auto p = a->get("phi_count")) n_phi = read_whole_number(*p, 1);
+      a->done();
+    }
+    f.theta_count = static_cast<int>(n_theta);
+    f.phi_count = static_cast<int>(n_phi);
+    // theta from 0 to 180 degrees inclusive, phi from 0 up to 360 degrees exclusive; phi fastest.
+    for (long i = 0; i < n_theta; ++i)
+      for (long j = 0; j < n_phi; ++j) {
+        f.theta.push_back(constants::pi * i / (n_theta - 1));
+        f.phi.push_back(2 * constants::pi * j / n_phi);
+      }
+  }
+  if (auto c = block.get("collection")) {
+    c->allow({"direction", "numerical_aperture"});
+    if (!c->is_map())
+      c->fail(fmt::format("must be a block {{direction: z, numerical_aperture: 0.9}}, got {}", c->found()));
+    if (auto d = c->get("direction")) f.collection_axis = read_direction(*d);
+    const Node na = c->require("numerical_aperture");
+    f.numerical_aperture = read_positive_number(na);
+    const double n_bg = std::sqrt(scene.materials[scene.domain.background].poles.eps_inf);
+    if (f.numerical_aperture > n_bg * (1 + 1e-12))
+      na.fail(fmt::format("cannot exceed the background's refractive index {:.4g}, got {}", n_bg, na.text()));
+    c->done();
+  }
+  block.done();
+  return f;
+}
+
+solver::DecayRateSpec read_decay_rate(const Node& block, const solver::Scene& scene, std::map<std::string, Where>& used) {
+  block.allow({"name", "dipole", "frequencies", "box_size", "radiated"});
+  solver::DecayRateSpec d;
+  d.where = block.where();
+  d.name = read_name(block, used);
+  const long dipoles = static_cast<long>(scene.dipoles.size());
+  if (dipoles == 0) block.fail("a decay rate needs a dipole: add an excitation '- dipole: {...}'");
+  if (auto v = block.get("dipole")) {
+    const long i = read_whole_number(*v, 0);
+    if (i >= dipoles)
+      v->fail(fmt::format("the scene has {} dipole(s), counted from 0 in the excitation list; got {}", dipoles, i));
+    d.dipole = static_cast<int>(i);
+  } else if (dipoles > 1) {
+    block.fail(fmt::format("the scene has {} dipoles: say which with 'dipole: N', counted from 0", dipoles));
+  }
+  if (auto v = block.get("box_size")) d.box_size = read_positive_length(*v);
+  if (auto v = block.get("radiated")) d.radiated = read_text(*v);
+  if (auto v = block.get("frequencies")) d.omegas = read_frequencies(*v);
+  else if (d.radiated.empty())
+    block.fail("missing key 'frequencies' (or 'radiated', to take the frequencies of that output)");
+  block.done();
+  return d;
+}
+
+/// `radiated` must name a far_field or a closed flux box of the scene; outputs may come in any
+/// order, so this runs once all are read.
+void check_radiated(const Node& block, const solver::DecayRateSpec& d, const solver::Scene& scene) {
+  if (d.radiated.empty()) return;
+  for (const auto& f : scene.far_fields)
+    if (f.name == d.radiated) return;
+  std::vector<std::string> names;
+  for (const auto& f : scene.far_fields) names.push_back(f.name);
+  for (const auto& f : scene.fluxes) {
+    if (f.name != d.radiated) {
+      names.push_back(f.name);
+      continue;
+    }
+    for (int a = 0; a < 3; ++a)
+      if (!(f.region.hi[a] > f.region.lo[a]))
+        block.fail_key("radiated", fmt::format("{}.radiated: the flux '{}' is a plane; the radiated power needs a "
+                                               "closed box around everything, or a far_field", block.path(), f.name));
+    return;
+  }
+  block.fail_key("radiated", fmt::format("{}.radiated: '{}' is not a far_field or flux output of this scene{}",
+                                         block.path(), d.radiated,
+                                         names.empty() ? std::string()
+                                                       : fmt::format(" (there are: {})", fmt::join(names, ", "))));
+}
+
 }  // namespace
 
 void read_outputs(const Node& list, solver::Scene& scene) {
   std::map<std::string, Where> used;  // output name -> where it was first given
+  std::vector<Node> decay_blocks;     // the decay_rate blocks, for checking 'radiated' at the end
   for (const Node& item : list.items_or_single()) {
-    item.allow({"probe", "field_map", "flux", "cross_sections"},
-               /*planned=*/{"far_field", "decay_rate", "resonances", "orders"});
+    item.allow({"probe", "field_map", "flux", "cross_sections", "far_field", "decay_rate"},
+               /*planned=*/{"resonances", "orders"});
     if (!item.is_map() || item.entries().size() != 1)
       item.fail(fmt::format("each item holds exactly one output, e.g. '- probe: {{...}}', got {}",
                             item.is_map() ? fmt::format("{} keys", item.entries().size()) : item.found()));
@@ -166,7 +291,13 @@ void read_outputs(const Node& list, solver::Scene& scene) {
     if (auto b = item.get("field_map")) scene.field_maps.push_back(read_field_map(*b, scene.domain, used));
     if (auto b = item.get("flux")) scene.fluxes.push_back(read_flux(*b, scene.domain, used));
     if (auto b = item.get("cross_sections")) scene.cross_sections.push_back(read_cross_sections(*b, scene, used));
+    if (auto b = item.get("far_field")) scene.far_fields.push_back(read_far_field(*b, scene, used));
+    if (auto b = item.get("decay_rate")) {
+      scene.decay_rates.push_back(read_decay_rate(*b, scene, used));
+      decay_blocks.push_back(*b);
+    }
   }
+  for (std::size_t i = 0; i < decay_blocks.size(); ++i) check_radiated(decay_blocks[i], scene.decay_rates[i], scene);
 }
 
 }  // namespace yeegap::io

@@ -50,6 +50,40 @@ struct CrossSectionResult {
   std::vector<double> incident_intensity;  // |E_inc|^2 / (2 eta), W s^2/m^2 (DFT units)
 };
 
+/// Far field (physics.md 3.10). Amplitudes are r exp(-ikr) E at large r, from DFT spectra (V s);
+/// powers are in the flux's DFT units (W s^2): divide by |source spectrum|^2 terms to normalise.
+struct FarFieldResult {
+  std::string name;
+  std::vector<double> omegas;              // rad/s
+  Region box;                              // m, the closed surface the currents were taken on
+  double index = 1;                        // refractive index of the background
+  std::vector<double> theta, phi;          // rad, the reported directions
+  int theta_count = 0, phi_count = 0;      // > 0 when the directions are a theta x phi grid, phi fastest
+  std::vector<std::vector<std::complex<double>>> e_theta, e_phi;  // [frequency][direction], V s
+  std::vector<std::vector<double>> intensity;    // [frequency][direction] dP/dOmega, W s^2/sr
+  std::vector<std::vector<double>> directivity;  // [frequency][direction] 4 pi (dP/dOmega) / power
+  std::vector<double> power;               // radiated power, integrated over the sphere, W s^2
+  std::vector<double> surface_power;       // outward flux through the box itself, W s^2 (a check)
+  Vec3 collection_axis{0, 0, 1};
+  double numerical_aperture = 0;           // 0: no collection cone
+  std::vector<double> collected;           // power into the cone, W s^2; empty without a cone
+};
+
+/// Decay-rate enhancement of one dipole, each entry per frequency and relative to the same dipole
+/// alone in the medium around it.
+struct DecayRateResult {
+  std::string name;
+  std::vector<double> omegas;              // rad/s
+  int dipole = 0;
+  double index = 1;                        // refractive index of the medium around the dipole
+  std::string radiated;                    // the output the radiative part came from; empty if none
+  std::vector<double> total;               // box power / alone power: the total-rate (Purcell) enhancement
+  std::vector<double> radiative;           // radiated power / alone power; empty without `radiated`
+  std::vector<double> efficiency;          // radiative / total (quantum efficiency of an ideal emitter)
+  std::vector<double> box_power;           // W s^2, out of the small box around the dipole
+  std::vector<double> alone_power;         // W s^2, n eta0 k0^2 |I l(omega)|^2 / (12 pi)
+};
+
 struct RunSummary {
   long steps = 0;
   double time_step = 0;                    // s
@@ -76,6 +110,8 @@ struct RunResults {
   std::vector<FieldMapResult> field_maps;
   std::vector<FluxResult> fluxes;
   std::vector<CrossSectionResult> cross_sections;
+  std::vector<FarFieldResult> far_fields;
+  std::vector<DecayRateResult> decay_rates;
 };
 
 }  // namespace yeegap::solver

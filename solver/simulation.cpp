@@ -137,10 +137,14 @@ Simulation::Simulation(const Scene& scene)
   for (const auto& m : scene_.field_maps) maps_.emplace_back(m, grid_, fields_.layout);
   for (const auto& f : scene_.fluxes) fluxes_.emplace_back(f, grid_, fields_.layout);
   for (const auto& c : scene_.cross_sections) cross_.emplace_back(c, scene_, grid_, fields_.layout);
+  for (const auto& f : scene_.far_fields) far_.emplace_back(f, scene_, grid_, fields_.layout, mindex_);
+  for (const auto& d : scene_.decay_rates) decay_.emplace_back(d, scene_, grid_, fields_.layout, mindex_);
   std::set<double> omegas;
   for (const auto& m : scene_.field_maps) omegas.insert(m.omegas.begin(), m.omegas.end());
   for (const auto& f : scene_.fluxes) omegas.insert(f.omegas.begin(), f.omegas.end());
   for (const auto& c : scene_.cross_sections) omegas.insert(c.omegas.begin(), c.omegas.end());
+  for (const auto& f : far_) omegas.insert(f.result_omegas().begin(), f.result_omegas().end());
+  for (const auto& d : decay_) omegas.insert(d.result_omegas().begin(), d.result_omegas().end());
   all_omegas_.assign(omegas.begin(), omegas.end());
   dft_stride_ = dft_stride(scene_, all_omegas_, dt_);
   source_dft_.assign(dipoles_.size(), std::vector<Complex>(all_omegas_.size()));
@@ -220,6 +224,8 @@ ModelSummary Simulation::summary() const {
   for (const auto& r : maps_) bytes += r.memory_bytes();
   for (const auto& r : fluxes_) bytes += r.memory_bytes();
   for (const auto& r : cross_) bytes += r.memory_bytes();
+  for (const auto& r : far_) bytes += r.memory_bytes();
+  for (const auto& r : decay_) bytes += r.memory_bytes();
   m.memory_bytes = bytes;
   return m;
 }
@@ -274,6 +280,8 @@ void Simulation::step() {
     for (auto& m : maps_) m.record(fields_, false, dft_phases(m.result_omegas(), t_h, dft_dt));
     for (auto& f : fluxes_) f.record(fields_, false, dft_phases(f.result_omegas(), t_h, dft_dt));
     for (auto& c : cross_) c.record(fields_, false, dft_phases(c.result_omegas(), t_h, dft_dt));
+    for (auto& f : far_) f.record(fields_, false, dft_phases(f.result_omegas(), t_h, dft_dt));
+    for (auto& d : decay_) d.record(fields_, false, dft_phases(d.result_omegas(), t_h, dft_dt));
   }
   for (auto& p : probes_) p.record(fields_, false, t_h);
 
@@ -295,6 +303,8 @@ void Simulation::step() {
     for (auto& m : maps_) m.record(fields_, true, dft_phases(m.result_omegas(), t_e, dft_dt));
     for (auto& f : fluxes_) f.record(fields_, true, dft_phases(f.result_omegas(), t_e, dft_dt));
     for (auto& c : cross_) c.record(fields_, true, dft_phases(c.result_omegas(), t_e, dft_dt));
+    for (auto& f : far_) f.record(fields_, true, dft_phases(f.result_omegas(), t_e, dft_dt));
+    for (auto& d : decay_) d.record(fields_, true, dft_phases(d.result_omegas(), t_e, dft_dt));
   }
   for (auto& p : probes_) p.record(fields_, true, t_e);
   ++n_;
@@ -396,6 +406,8 @@ RunResults Simulation::results() const {
     }
     r.cross_sections.push_back(c.result(incident));
   }
+  for (const auto& f : far_) r.far_fields.push_back(f.result());
+  for (const auto& d : decay_) r.decay_rates.push_back(d.result(r));  // after the far fields and fluxes it reads
   return r;
 }
 

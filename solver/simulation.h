@@ -13,8 +13,10 @@
 
 #include "solver/cpml.h"
 #include "solver/cross_sections.h"
+#include "solver/decay_rate.h"
 #include "solver/dipole_source.h"
 #include "solver/dispersive.h"
+#include "solver/far_field.h"
 #include "solver/fields.h"
 #include "solver/grid.h"
 #include "solver/recorders.h"
@@ -95,6 +97,8 @@ class Simulation {
   std::vector<FieldMapRecorder> maps_;
   std::vector<FluxRecorder> fluxes_;
   std::vector<CrossSectionRecorder> cross_;
+  std::vector<FarFieldRecorder> far_;
+  std::vector<DecayRateRecorder> decay_;
   std::vector<double> all_omegas_;                 // union of output frequencies, for source spectra
   std::vector<std::vector<Complex>> source_dft_;   // per dipole
   std::vector<std::vector<Complex>> incident_dft_; // per plane wave

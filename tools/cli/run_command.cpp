@@ -94,6 +94,52 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
     }
     outs.add(c.name, json_array(rows));
   }
+  for (const auto& f : r.far_fields) {
+    std::vector<std::string> rows;
+    std::fprintf(stderr, "  far field %s: wavelength, radiated power%s, peak directivity%s\n", f.name.c_str(),
+                 r.source_spectra.size() == 1 ? " (x the dipole alone)" : "",
+                 f.collected.empty() ? "" : ", fraction collected");
+    for (std::size_t q = 0; q < f.omegas.size(); ++q) {
+      const double lambda_nm = 2 * constants::pi * constants::c0 / f.omegas[q] * 1e9;
+      double peak = 0;
+      for (double d : f.directivity[q]) peak = std::max(peak, d);
+      JsonObject row;
+      row.number("wavelength_nm", lambda_nm).number("power", f.power[q]).number("peak_directivity", peak);
+      double shown = f.power[q];
+      if (r.source_spectra.size() == 1) {
+        const auto it = std::find(r.source_omegas.begin(), r.source_omegas.end(), f.omegas[q]);
+        const double il = std::abs(r.source_spectra[0][it - r.source_omegas.begin()]);
+        shown = f.power[q] / dipole_power_in_background(f.omegas[q], il, n_bg);
+        row.number("relative_to_dipole_alone", shown);
+      }
+      std::string collected;
+      if (!f.collected.empty()) {
+        row.number("collected_fraction", f.collected[q] / f.power[q]);
+        collected = fmt::format("  {:.4f}", f.collected[q] / f.power[q]);
+      }
+      std::fprintf(stderr, "    %8.2f nm  %.5g  %.3f%s\n", lambda_nm, shown, peak, collected.c_str());
+      rows.push_back(row.str());
+    }
+    outs.add(f.name, json_array(rows));
+  }
+  for (const auto& d : r.decay_rates) {
+    std::vector<std::string> rows;
+    std::fprintf(stderr, "  decay rate %s (dipole %d): wavelength, total enhancement%s\n", d.name.c_str(), d.dipole,
+                 d.radiative.empty() ? "" : ", radiative, quantum efficiency");
+    for (std::size_t q = 0; q < d.omegas.size(); ++q) {
+      const double lambda_nm = 2 * constants::pi * constants::c0 / d.omegas[q] * 1e9;
+      JsonObject row;
+      row.number("wavelength_nm", lambda_nm).number("total", d.total[q]);
+      std::string more;
+      if (!d.radiative.empty()) {
+        row.number("radiative", d.radiative[q]).number("efficiency", d.efficiency[q]);
+        more = fmt::format("  {:.5g}  {:.4f}", d.radiative[q], d.efficiency[q]);
+      }
+      std::fprintf(stderr, "    %8.2f nm  %.5g%s\n", lambda_nm, d.total[q], more.c_str());
+      rows.push_back(row.str());
+    }
+    outs.add(d.name, json_array(rows));
+  }
   for (const auto& m : r.field_maps) {
     std::vector<std::string> rows;
     for (std::size_t q = 0; q < m.omegas.size(); ++q) {
