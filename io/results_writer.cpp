@@ -358,6 +358,28 @@ void write_decay_rate(const h5::Group& outputs, const solver::DecayRateResult& x
       .set_attribute("description", "n eta0 k0^2 |I l(omega)|^2 / (12 pi): the dipole alone in the medium around it");
 }
 
+// The tunnelling gaps found on the grid: one row per body pair.
+void write_gaps(const h5::File& file, const std::vector<solver::GapResult>& gaps) {
+  const h5::Group g = file.create_group("tunnelling");
+  std::vector<std::int32_t> pairs, quantum;
+  std::vector<std::int64_t> cells;
+  std::vector<double> smallest, cutoff;
+  for (const auto& x : gaps) {
+    pairs.push_back(x.pair[0]);
+    pairs.push_back(x.pair[1]);
+    cells.push_back(x.cells);
+    smallest.push_back(x.smallest_width);
+    cutoff.push_back(x.cutoff);
+    quantum.push_back(x.quantum ? 1 : 0);
+  }
+  with_units(g.write("pairs", pairs, {gaps.size(), 2}), "none").set_attribute("description", "body indices, scene order");
+  with_units(g.write("cells", cells), "1").set_attribute("description", "E locations in the gap below the cut-off");
+  with_units(g.write("smallest_width", smallest), "m").set_attribute("description", "smallest d_A + d_B among them");
+  with_units(g.write("cutoff", cutoff), "m").set_attribute("description", "widths below this are gap medium");
+  with_units(g.write("quantum_corrected", quantum), "1")
+      .set_attribute("description", "1: gap cells hold the tunnelling medium; 0: classical, background kept");
+}
+
 void write_layout(const h5::File& file, const solver::RunResults& r, const solver::Scene& scene,
                   const WriteInfo& info) {
   file.set_attribute("format", results_format);
@@ -368,6 +390,7 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   write_grid(file, r);
   write_materials(file, r);
   write_sources(file, r, scene);
+  if (!r.gaps.empty()) write_gaps(file, r.gaps);
   const h5::Group outputs = file.create_group("outputs");
   for (const auto& p : r.probes) write_probe(outputs, p, r.summary.time_step);
   for (const auto& m : r.field_maps) write_field_map(outputs, m);

@@ -36,6 +36,8 @@ int builtin_or_defined(const std::string& name, solver::Scene& scene);
 void read_domain(const Node& block, solver::Scene& scene);
 /// `bodies: [...]`.
 void read_bodies(const Node& list, solver::Scene& scene);
+/// `tunnelling: {...}`, after the bodies (pairs name them).
+void read_tunnelling(const Node& block, solver::Scene& scene);
 /// `excitation: [...]`, after the domain (sources must lie inside it).
 void read_excitation(const Node& list, solver::Scene& scene);
 /// After the excitation: a warning through `notes` for each library material that a body or the

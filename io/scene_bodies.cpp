@@ -52,14 +52,14 @@ void read_bodies(const Node& list, solver::Scene& scene) {
       item.fail(fmt::format("must be a block with 'shape', 'material' and the shape's sizes, got {}", item.found()));
     if (!item.has("shape")) {
       // A misspelt 'shape' is better reported as that than as a missing key.
-      std::vector<std::string> all = {"shape", "material"};
+      std::vector<std::string> all = {"shape", "material", "name"};
       for (const auto& [word, keys] : shape_keys)
         for (const std::string& k : keys)
           if (std::find(all.begin(), all.end(), k) == all.end()) all.push_back(k);
       item.allow(all, planned_body_keys);
     }
     const std::string shape = read_word(item.require("shape"), shape_words, planned_shapes);
-    std::vector<std::string> keys = {"shape", "material"};
+    std::vector<std::string> keys = {"shape", "material", "name"};
     const auto& own = shape_keys.at(shape);
     keys.insert(keys.end(), own.begin(), own.end());
     // A key of another shape gets a message that says so, rather than a far-fetched suggestion.
@@ -73,6 +73,12 @@ void read_bodies(const Node& list, solver::Scene& scene) {
     solver::BodySpec body;
     body.where = item.where();
     body.material = material_index(item.require("material"), scene);
+    if (auto name = item.get("name")) {
+      body.name = read_text(*name);
+      for (const auto& other : scene.bodies)
+        if (other.name == body.name)
+          name->fail(fmt::format("the body name '{}' is already used by {}", body.name, other.where.key_path));
+    }
     body.shape = read_shape(shape, item);
     item.done();
     scene.bodies.push_back(std::move(body));

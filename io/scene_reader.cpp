@@ -76,8 +76,8 @@ solver::Scene read_scene_text(const std::string& text, const std::string& file_l
   apply_overrides(doc, overrides, *source);
 
   const Node root = Node::root(doc, source);
-  root.allow({"scene", "domain", "materials", "bodies", "excitation", "outputs", "stop"},
-             /*planned=*/{"tunnelling", "sweep"});
+  root.allow({"scene", "domain", "materials", "bodies", "tunnelling", "excitation", "outputs", "stop"},
+             /*planned=*/{"sweep"});
 
   solver::Scene scene;
   scene.file = file_label;
@@ -86,6 +86,7 @@ solver::Scene read_scene_text(const std::string& text, const std::string& file_l
   if (auto materials = root.get("materials")) read_materials(*materials, scene, notes);
   read_domain(root.require("domain"), scene);
   if (auto bodies = root.get("bodies")) read_bodies(*bodies, scene);
+  if (auto tunnelling = root.get("tunnelling")) read_tunnelling(*tunnelling, scene);
   read_excitation(root.require("excitation"), scene);
   warn_outside_library_ranges(scene, notes);
   if (auto outputs = root.get("outputs")) read_outputs(*outputs, scene);

@@ -214,6 +214,13 @@ void DispersiveCurrents::set_drude_damping(int material, int pole, const std::ve
     p.ce.value[q] = static_cast<real>(dc.ce);
   }
   p.cq.stride = p.ce.stride = 1;
+  p.damping = damping;
+}
+
+std::vector<double> DispersiveCurrents::drude_damping(int material, int pole) const {
+  for (const Group& g : groups_)
+    if (g.material == material && pole >= 0 && pole < static_cast<int>(g.drude.size())) return g.drude[pole].damping;
+  return {};
 }
 
 std::size_t DispersiveCurrents::memory_bytes() const {

@@ -47,6 +47,8 @@ class DispersiveCurrents {
   /// cells(m): the tunnelling-gap medium has the metal's plasma frequency and a damping set by the
   /// local gap width. Stable for any damping * dt >= 0 (the J coefficient stays in (-1, 1]).
   void set_drude_damping(int material, int pole, const std::vector<double>& damping);
+  /// The per-cell dampings last given to set_drude_damping (empty if none), rad/s.
+  std::vector<double> drude_damping(int material, int pole) const;
 
   std::size_t memory_bytes() const;
 
@@ -63,6 +65,7 @@ class DispersiveCurrents {
     Coefficient cq, cp, ce, cm;
     real implicit = 0;                 // critical points: Q^{n+1/2} += implicit * E^{n+1}
     double omega_p = 0;                // Drude only, rad/s: kept to rebuild per-cell coefficients
+    std::vector<double> damping;       // per-cell dampings, when set (for reports and tests)
     AlignedVector<real> q, p;          // p empty for Drude poles
   };
   struct Group {

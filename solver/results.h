@@ -3,6 +3,7 @@
 // convention), with t_n the true sample time of each Yee component (H lags E by half a step).
 #pragma once
 
+#include <array>
 #include <complex>
 #include <cstdint>
 #include <string>
@@ -84,6 +85,15 @@ struct DecayRateResult {
   std::vector<double> alone_power;         // W s^2, n eta0 k0^2 |I l(omega)|^2 / (12 pi)
 };
 
+/// The gaps the tunnelling block found on the grid.
+struct GapResult {
+  std::array<int, 2> pair{};               // body indices
+  long cells = 0;                          // E locations in the gap (below the cut-off)
+  double smallest_width = 0;               // m: smallest l = d_A + d_B among them (0 if none)
+  double cutoff = 0;                       // m
+  bool quantum = true;                     // false: classical run, cells counted but not changed
+};
+
 struct RunSummary {
   long steps = 0;
   double time_step = 0;                    // s
@@ -112,6 +122,7 @@ struct RunResults {
   std::vector<CrossSectionResult> cross_sections;
   std::vector<FarFieldResult> far_fields;
   std::vector<DecayRateResult> decay_rates;
+  std::vector<GapResult> gaps;
 };
 
 }  // namespace yeegap::solver

@@ -12,6 +12,7 @@
 #include "base/where.h"
 #include "geometry/shape.h"
 #include "materials/pole_set.h"
+#include "materials/tunnel_gap_model.h"
 
 namespace yeegap::solver {
 
@@ -64,6 +65,7 @@ struct BodySpec {
   geometry::ShapePtr shape;
   int material = 0;               // index into Scene::materials
   Where where;
+  std::string name{};             // optional; how a tunnelling pair names the body
 };
 
 /// A pulse or a continuous wave, as the time dependence of a source.
@@ -166,6 +168,19 @@ struct DecayRateSpec {
   Where where;
 };
 
+/// Pairs of metal bodies whose gap may conduct by electron tunnelling. Quantum-corrected: every E
+/// location outside both bodies whose local gap width l = d_A + d_B (the two signed distances) is
+/// below the cut-off becomes a cell of the gap medium of Esteban et al., Nat. Commun. 3, 825 (2012),
+/// with its own damping gamma_g(l). Classical: the gap keeps the background (the widths are still
+/// found and reported), so the same scene runs both ways.
+struct TunnellingSpec {
+  std::vector<std::array<int, 2>> pairs;  // indices into Scene::bodies
+  bool quantum = true;                    // quantum_corrected (true) or classical
+  materials::GapModel model;              // metal, barrier and gap medium, resolved
+  double cutoff = 0;                      // m; 0 = model.cutoff_width
+  Where where;
+};
+
 struct StopSpec {
   double after = 0;               // s; 0 = not set
   double decayed = 0;             // stop when the field energy falls below this fraction of its peak
@@ -187,6 +202,7 @@ struct Scene {
   std::vector<FieldMapSpec> field_maps;
   std::vector<FluxSpec> fluxes;
   std::vector<CrossSectionSpec> cross_sections;
+  std::vector<TunnellingSpec> tunnelling;  // at most one
   std::vector<FarFieldSpec> far_fields;
   std::vector<DecayRateSpec> decay_rates;
   StopSpec stop;

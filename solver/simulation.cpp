@@ -100,7 +100,7 @@ long dft_stride(const Scene& s, const std::vector<double>& outputs, double dt) {
 }  // namespace
 
 Simulation::Simulation(const Scene& scene)
-    : scene_(scene),
+    : scene_(with_gap_material(scene)),
       grid_(Grid::uniform(scene.domain)),
       dt_(choose_time_step(scene_, grid_)),
       fields_(BlockLayout::of(grid_.n)) {
@@ -108,7 +108,10 @@ Simulation::Simulation(const Scene& scene)
   curls_ = plain_curls(grid_, dt_);
   ecoef_ = e_coefficients(scene_, dt_);
   fill_material_index(scene_, grid_, fields_.layout, mindex_);
+  const GapCells gap_cells(scene_, grid_, fields_.layout, mindex_);
   dispersive_ = std::make_unique<DispersiveCurrents>(scene_, fields_.layout, mindex_, ecoef_, dt_);
+  gap_cells.set_damping(*dispersive_);
+  gaps_ = gap_cells.report();
 
   std::array<bool, 6> absorbing{};
   for (int f = 0; f < 6; ++f) absorbing[f] = scene_.domain.edges[f] == EdgeKind::absorber;
@@ -153,7 +156,8 @@ Simulation::Simulation(const Scene& scene)
 
 Simulation::~Simulation() = default;
 
-ModelSummary Simulation::plan(const Scene& scene) {
+ModelSummary Simulation::plan(const Scene& original) {
+  const Scene scene = with_gap_material(original);
   const Grid g = Grid::uniform(scene.domain);
   const double dt = choose_time_step(scene, g);
   check_scene(scene, g);
@@ -395,6 +399,7 @@ RunResults Simulation::results() const {
   r.source_omegas = all_omegas_;
   r.source_spectra = source_dft_;
   r.incident_spectra = incident_dft_;
+  r.gaps = gaps_;
   for (const auto& p : probes_) r.probes.push_back(p.result());
   for (const auto& m : maps_) r.field_maps.push_back(m.result());
   for (const auto& f : fluxes_) r.fluxes.push_back(f.result());

@@ -18,6 +18,7 @@
 #include "solver/dispersive.h"
 #include "solver/far_field.h"
 #include "solver/fields.h"
+#include "solver/gap_cells.h"
 #include "solver/grid.h"
 #include "solver/recorders.h"
 #include "solver/results.h"
@@ -91,6 +92,7 @@ class Simulation {
   MaterialIndex mindex_;
   std::unique_ptr<Cpml> cpml_;
   std::unique_ptr<DispersiveCurrents> dispersive_;
+  std::vector<GapResult> gaps_;
   std::vector<DipoleSource> dipoles_;
   std::vector<PlaneWaveSource> plane_waves_;
   std::vector<ProbeRecorder> probes_;

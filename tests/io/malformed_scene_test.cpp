@@ -355,7 +355,7 @@ bodies:
 excitation: {dipole: {position: [0, 0, 0], direction: z, frequency: 600 nm}}
 stop: {after: 100 fs}
 )");
-  EXPECT_THAT(f.what, HasSubstr("bodies[0]: a sphere takes no 'size'; its keys are shape, material, center, radius"));
+  EXPECT_THAT(f.what, HasSubstr("bodies[0]: a sphere takes no 'size'; its keys are shape, material, name, center, radius"));
   expect_at(f, 4, 58);
 }
 

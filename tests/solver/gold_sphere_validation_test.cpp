@@ -3,8 +3,9 @@
 // extinction peak against Mie theory for the same permittivity model (Bohren & Huffman 1983,
 // ch. 4; materials/mie_sphere.h). Tolerance from the issue: peak wavelength within 1.5 %.
 // The issue also asks the peak extinction within 5 %; staircased (no subcell averaging yet), the
-// peak extinction converges slowly from below: measured 0.928 of Mie at 10 cells per radius and
-// 0.946 at 15. That check waits for subcell averaging of metals and is printed, not asserted.
+// peak height depends on how the staircase falls: measured 0.928 of Mie at 10 cells per radius and
+// 0.946 at 15 with the centre on a cell centre, 0.968 at 15 with the centre on a node (this run).
+// That check waits for subcell averaging of metals and is printed, not asserted.
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -36,7 +37,13 @@ std::pair<double, double> parabolic_peak(const std::vector<double>& x, const std
 
 TEST(GoldSphere, PlasmonPeakWavelengthMatchesMieWithin1p5Percent) {
   const double d = 2e-9, radius = 30e-9;
-  Scene s = testing::vacuum_box({62, 62, 62}, d, testing::all_edges(EdgeKind::absorber));
+  // A quarter of the domain: the scene is odd under x -> -x (E along x) and even under y -> -y,
+  // so x_low is an electric and y_low a magnetic symmetry plane (mirror_symmetry_validation_test
+  // shows quarter and whole runs agree to 1e-13).
+  Scene s = testing::vacuum_box({31, 31, 62}, d, testing::all_edges(EdgeKind::absorber));
+  s.domain.center = {31 * d / 2, 31 * d / 2, 0};
+  s.domain.edges[0] = EdgeKind::mirror_odd;
+  s.domain.edges[2] = EdgeKind::mirror_even;
   s.domain.absorber.cells = 8;
   s.materials[0].name = "water";
   s.materials[0].poles.eps_inf = n_water * n_water;
@@ -45,9 +52,9 @@ TEST(GoldSphere, PlasmonPeakWavelengthMatchesMieWithin1p5Percent) {
   au.name = "Au";
   au.poles = gold;
   s.materials.push_back(au);
-  s.bodies.push_back({geometry::make_sphere({0.5 * d, 0.5 * d, 0.5 * d}, radius), 1, {}});
+  s.bodies.push_back({geometry::make_sphere({0, 0, 0.5 * d}, radius), 1, {}});
   PlaneWaveSpec w;
-  w.box = {{-40e-9, -40e-9, -40e-9}, {40e-9, 40e-9, 40e-9}};
+  w.box = {{0, 0, -40e-9}, {40e-9, 40e-9, 40e-9}};
   w.axis = 2;
   w.sign = +1;
   w.polarization = {1, 0, 0};

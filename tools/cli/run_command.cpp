@@ -78,6 +78,14 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
     }
     outs.add(f.name, json_array(rows));
   }
+  for (const auto& g : r.gaps) {
+    const auto body_name = [&](int i) {
+      return scene.bodies[i].name.empty() ? fmt::format("body {}", i) : scene.bodies[i].name;
+    };
+    std::fprintf(stderr, "  gap %s - %s: %ld cells below %.3g nm, narrowest %.3g nm (%s)\n", body_name(g.pair[0]).c_str(),
+                 body_name(g.pair[1]).c_str(), g.cells, g.cutoff * 1e9, g.smallest_width * 1e9,
+                 g.quantum ? "quantum-corrected" : "classical");
+  }
   for (const auto& c : r.cross_sections) {
     std::vector<std::string> rows;
     const char* unit = c.per_unit_length ? "nm" : "nm^2";
