@@ -1,0 +1,62 @@
+#!/usr/bin/python3
+"""Runs a coarse version of examples/gold_dimer_antenna.yaml (2 nm cells) end to end and checks what
+must hold at any resolution: passivity (absorption >= 0, extinction >= absorption), a far-field
+collection fraction in (0, 1), a bonding plasmon red of the single sphere's resonance (526.5 nm for
+one 20 nm-radius sphere of the same gold model in water, from materials/mie_sphere.h; the
+plasmon-ruler trend of Jain, Huang, El-Sayed, Nano Lett. 7, 2080 (2007) puts a gap of a tenth of
+the diameter about 10 % further red), and a gap field well above the incident one.
+Usage: example_gold_dimer_check.py YEEGAP_BINARY SOURCE_DIR"""
+import json
+import os
+import subprocess
+import sys
+import tempfile
+
+import h5py
+import numpy as np
+
+yeegap, src = sys.argv[1], sys.argv[2]
+fails = 0
+
+
+def check(ok, what):
+    global fails
+    print(("ok   " if ok else "FAIL ") + what)
+    fails += 0 if ok else 1
+
+
+with tempfile.TemporaryDirectory() as work:
+    out = os.path.join(work, "dimer.h5")
+    cmd = [yeegap, "run", os.path.join(src, "examples", "gold_dimer_antenna.yaml"), "-o", out, "--json",
+           "--set", "domain.step=2 nm", "--set", "domain.absorber.cells=6",
+           "--set", "outputs[0].cross_sections.frequencies.count=23"]
+    done = subprocess.run(cmd, capture_output=True, text=True)
+    if done.returncode != 0:
+        sys.exit(f"run failed ({done.returncode}):\n{done.stderr}")
+    summary = json.loads(done.stdout)
+    check(summary["stop_reason"] == "decayed", "the run stops by decay")
+    with h5py.File(out, "r") as f:
+        g = f["outputs/dimer"]
+        wl, ext, ab, sca = g["wavelength_nm"][:], g["extinction"][:], g["absorption"][:], g["scattering"][:]
+        i0 = g["incident_intensity"][:]
+        check(bool(np.all(ab > 0)), "absorption is positive at every wavelength")
+        check(bool(np.all(sca > 0)), "scattering is positive at every wavelength")
+        peak = wl[np.argmax(ext)]
+        print(f"     extinction peak at {peak:.0f} nm, {ext.max() * 1e18:.0f} nm^2")
+        check(560 <= peak <= 700, "the bonding plasmon lies red of a single sphere's, between 560 and 700 nm")
+        far = f["outputs/scattered"]
+        frac = far["collected"][0] / far["power"][0]
+        check(0 < frac < 1, f"the 0.9 NA objective collects a fraction in (0, 1): {frac:.3f}")
+        # Gap enhancement |E|^2 / |E_inc|^2 at 620 nm, with |E_inc|^2 = 2 eta I0 (eta = eta0 / 1.333).
+        m = f["outputs/xy_plane"]
+        k = int(np.argmin(np.abs(m["wavelength_nm"][:] - 620)))
+        e2 = m["E_squared"][k, 0]
+        x, y = m["x"][:], m["y"][:]
+        gap = e2[np.argmin(np.abs(y)), np.argmin(np.abs(x))]
+        q = int(np.argmin(np.abs(wl - 620)))
+        eta = 376.730313668 / 1.333
+        enhancement = gap / (2 * eta * i0[q])
+        print(f"     |E|^2 enhancement at the gap centre, 620 nm: {enhancement:.1f}")
+        check(enhancement > 10, "the gap field is more than ten times the incident intensity")
+print(f"{5 + 1 - fails} passed, {fails} failed")
+sys.exit(1 if fails else 0)
