@@ -7,6 +7,7 @@
 // plane of each face, and the averaging is undone per direction (see the loop; derived here). The
 // DFTs use each component's true sample time (dft_box.h), so H's half-step lag needs no extra phase.
 #include "solver/far_field.h"
+#include "solver/surface_weights.h"
 
 #include <algorithm>
 #include <cmath>
@@ -31,18 +32,6 @@ constexpr int extra_theta_nodes = 10;
 
 using CVec = std::array<Complex, 3>;
 
-std::vector<double> node_weights(const Grid& g, int a, int first, int last) {
-  std::vector<double> w;
-  for (int i = first; i <= last; ++i)
-    w.push_back((i > first ? 0.5 * g.primal(a, i - 1) : 0.0) + (i < last ? 0.5 * g.primal(a, i) : 0.0));
-  return w;
-}
-
-std::vector<double> cell_weights(const Grid& g, int a, int first, int last) {
-  std::vector<double> w;
-  for (int i = first; i < last; ++i) w.push_back(g.primal(a, i));
-  return w;
-}
 
 std::vector<int> range(int first, int last) {
   std::vector<int> v;

@@ -4,6 +4,7 @@
 // with H averaged over the two half-cells beside the E plane so both factors share a location,
 // integrated by the trapezoid rule over the face's nodes.
 #include "solver/recorders.h"
+#include "solver/surface_weights.h"
 
 #include <algorithm>
 #include <cmath>
@@ -45,19 +46,6 @@ std::vector<int> node_indices(const Grid& g, int a, int first, int last) {
   return v;
 }
 
-// Trapezoid weights of nodes first..last: half of each neighbouring cell inside the range.
-std::vector<double> node_weights(const Grid& g, int a, int first, int last) {
-  std::vector<double> w;
-  for (int i = first; i <= last; ++i)
-    w.push_back((i > first ? 0.5 * g.primal(a, i - 1) : 0.0) + (i < last ? 0.5 * g.primal(a, i) : 0.0));
-  return w;
-}
-
-std::vector<double> cell_weights(const Grid& g, int a, int first, int last) {
-  std::vector<double> w;
-  for (int i = first; i < last; ++i) w.push_back(g.primal(a, i));
-  return w;
-}
 
 }  // namespace
 
