@@ -29,7 +29,19 @@ struct MaterialIndex {
   std::array<AlignedVector<std::uint8_t>, 3> e;  // Ex, Ey, Ez locations
 };
 
-void update_h(Fields& f, const CurlCoefficients& cc);
-void update_e(Fields& f, const CurlCoefficients& cc, const ECoefficients& ec, const MaterialIndex& mi);
+/// Instruction set of the bulk loops. Both paths do the same float operations in the same order
+/// for every cell (no fused multiply-add), so they give the same bits; AVX2 handles 8 floats per
+/// instruction instead of 4, which on x86-64 lets the loops keep up with memory. `automatic` takes
+/// AVX2 when the processor has it; a path this build or processor cannot run falls back to baseline
+/// (the compiler's target, SSE2 on plain x86-64).
+enum class KernelIsa : std::uint8_t { automatic, baseline, avx2 };
+inline constexpr std::array<const char*, 3> kernel_isa_names = {"automatic", "baseline", "avx2"};
+
+/// The path a request runs on this processor: baseline or avx2, never automatic.
+KernelIsa resolved_kernel_isa(KernelIsa requested = KernelIsa::automatic);
+
+void update_h(Fields& f, const CurlCoefficients& cc, KernelIsa isa = KernelIsa::automatic);
+void update_e(Fields& f, const CurlCoefficients& cc, const ECoefficients& ec, const MaterialIndex& mi,
+              KernelIsa isa = KernelIsa::automatic);
 
 }  // namespace yeegap::solver

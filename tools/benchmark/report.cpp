@@ -1,0 +1,97 @@
+// Table and JSON forms of a benchmark report (see report.h). The JSON is written by hand: it is
+// one flat object of numbers and short strings, not worth a library.
+#include "tools/benchmark/report.h"
+
+#include <fstream>
+
+#include <fmt/format.h>
+
+namespace yeegap::benchmark {
+
+namespace {
+
+std::string json_string(const std::string& s) {
+  std::string out = "\"";
+  for (char ch : s) {
+    if (ch == '"' || ch == '\\') out += '\\';
+    if (static_cast<unsigned char>(ch) < 0x20) {
+      out += fmt::format("\\u{:04x}", static_cast<unsigned char>(ch));
+      continue;
+    }
+    out += ch;
+  }
+  return out + "\"";
+}
+
+std::string json_spread(const Spread& s) {
+  return fmt::format(R"({{"best": {:.4g}, "median": {:.4g}, "worst": {:.4g}}})", s.best, s.median, s.worst);
+}
+
+}  // namespace
+
+bool Report::fields_identical() const {
+  for (const Row& row : rows)
+    if (row.field_hash != rows.front().field_hash) return false;
+  return true;
+}
+
+std::string cpu_model_name() {
+  std::ifstream in("/proc/cpuinfo");
+  std::string line;
+  while (std::getline(in, line))
+    if (line.rfind("model name", 0) == 0) {
+      const auto colon = line.find(':');
+      if (colon != std::string::npos) return line.substr(line.find_first_not_of(" \t", colon + 1));
+    }
+  return "unknown";
+}
+
+std::string table_text(const Report& r) {
+  std::string t;
+  t += fmt::format("yeegap benchmark {}\n", r.version);
+  t += fmt::format("machine   {}, {} logical CPUs\n", r.cpu_model, r.logical_cpus);
+  t += fmt::format("build     fields in {}; {}; flags: {}; Yee loops: {}\n", r.real_type, r.compiler, r.flags,
+                   r.kernel_isa);
+  t += fmt::format("triad     STREAM triad a = b + s c over 3 arrays of {} doubles ({:.0f} MB), best of {} runs taken\n"
+                   "          between the solver's batches; GB/s count 24 bytes per iteration (McCalpin's STREAM convention)\n",
+                   r.triad_elements, 3.0 * 8.0 * r.triad_elements / 1e6, r.triad_repeats);
+  t += fmt::format("solver    {}^3 vacuum cells, periodic, Simulation::step(); {} warm-up steps, then best of {} "
+                   "batches of {} steps\n",
+                   r.cells, r.warmup_steps, r.batches, r.steps);
+  t += fmt::format("ratio     {:.0f} bytes per cell-step (6 components read and written once) x Mcells/s / triad GB/s\n\n",
+                   r.bytes_per_cell_step);
+  t += fmt::format("{:>7}  {:>26}  {:>26}  {:>6}\n", "threads", "triad GB/s best/med/worst", "Mcells/s best/med/worst",
+                   "ratio");
+  for (const Row& row : r.rows) {
+    const Spread& b = row.triad_gb_per_second;
+    const Spread& m = row.mcells_per_second;
+    t += fmt::format("{:>7}  {:>26}  {:>26}  {:>6.2f}\n", row.threads,
+                     fmt::format("{:.1f} / {:.1f} / {:.1f}", b.best, b.median, b.worst),
+                     fmt::format("{:.0f} / {:.0f} / {:.0f}", m.best, m.median, m.worst), row.ratio);
+  }
+  if (r.rows.size() > 1)
+    t += fmt::format("\nfields after the run bit-identical for every thread count: {}\n",
+                     r.fields_identical() ? "yes" : "NO");
+  return t;
+}
+
+std::string json_text(const Report& r) {
+  std::string rows;
+  for (const Row& row : r.rows) {
+    if (!rows.empty()) rows += ", ";
+    rows += fmt::format(R"({{"threads": {}, "triad_gb_per_s": {}, "mcells_per_s": {}, "ratio": {:.4g}, )"
+                        R"("field_hash": "{:016x}"}})",
+                        row.threads, json_spread(row.triad_gb_per_second), json_spread(row.mcells_per_second),
+                        row.ratio, row.field_hash);
+  }
+  return fmt::format(
+      R"({{"version": {}, "cpu_model": {}, "logical_cpus": {}, "real": {}, "compiler": {}, "flags": {}, "kernel_isa": {}, )"
+      R"("triad": {{"elements_per_array": {}, "repeats": {}, "bytes_per_iteration": 24}}, )"
+      R"("solver": {{"cells": {}, "warmup_steps": {}, "steps_per_batch": {}, "batches": {}, "bytes_per_cell_step": {}}}, )"
+      R"("rows": [{}], "fields_identical": {}}})",
+      json_string(r.version), json_string(r.cpu_model), r.logical_cpus, json_string(r.real_type),
+      json_string(r.compiler), json_string(r.flags), json_string(r.kernel_isa), r.triad_elements, r.triad_repeats, r.cells, r.warmup_steps,
+      r.steps, r.batches, r.bytes_per_cell_step, rows, r.fields_identical() ? "true" : "false");
+}
+
+}  // namespace yeegap::benchmark
