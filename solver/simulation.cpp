@@ -247,7 +247,8 @@ void Simulation::fill_periodic_halos(bool electric) {
     const int n = L.n[a];
     const int from = electric ? 0 : (even_mirror ? 0 : n - 1), to = electric ? n : -1;
     const real sign = even_mirror ? real(-1) : real(1);
-    const int b = (a + 1) % 3, c = (a + 2) % 3;
+    // The inner loop runs along x whenever x is one of the plane's two axes (contiguous memory).
+    const int b = a == 0 ? 1 : 0, c = 3 - a - b;
     for (int comp = first; comp < first + 3; ++comp) {
       if (even_mirror && comp == 3 + a) continue;  // normal H: not read across the plane
       real* d = fields_.c[comp].data();
