@@ -23,18 +23,7 @@ namespace {
 // Start the downward recurrence for D_n(mx) this far above max(n_max, |mx|) (see mie_sphere.cpp).
 constexpr int kDownwardMargin = 16;
 
-void check_arguments(double x, cplx m) {
-  if (!(x > 0) || !std::isfinite(x))
-    throw std::invalid_argument(fmt::format("Mie cylinder: size parameter must be positive and finite, got {}", x));
-  if (!std::isfinite(m.real()) || !std::isfinite(m.imag()) || m == cplx(0, 0))
-    throw std::invalid_argument(
-        fmt::format("Mie cylinder: relative index must be finite and non-zero, got {}{:+}i", m.real(), m.imag()));
-  if (m.imag() < 0)
-    throw std::invalid_argument(fmt::format(
-        "Mie cylinder: relative index {}{:+}i has Im m < 0; with exp(-i omega t) an absorber has Im m > 0 "
-        "(an index written for exp(+j omega t) must be conjugated)",
-        m.real(), m.imag()));
-}
+void check_arguments(double x, cplx m) { detail::check_mie_arguments("cylinder", x, m); }
 
 // J_n(x), n = 0 .. n_max, by downward recurrence J_{n-1} = (2n/x) J_n - J_{n+1} (upward loses every
 // digit once n > x), started from the exact ratio J_N/J_{N+1} at N = n_max + 1 and scaled to J_0 or

@@ -23,18 +23,7 @@ namespace {
 // fraction converges in a few dozen steps (below |mx| it needs about |mx| steps).
 constexpr int kDownwardMargin = 16;
 
-void check_arguments(double x, cplx m) {
-  if (!(x > 0) || !std::isfinite(x))
-    throw std::invalid_argument(fmt::format("Mie sphere: size parameter must be positive and finite, got {}", x));
-  if (!std::isfinite(m.real()) || !std::isfinite(m.imag()) || m == cplx(0, 0))
-    throw std::invalid_argument(
-        fmt::format("Mie sphere: relative index must be finite and non-zero, got {}{:+}i", m.real(), m.imag()));
-  if (m.imag() < 0)
-    throw std::invalid_argument(fmt::format(
-        "Mie sphere: relative index {}{:+}i has Im m < 0; with exp(-i omega t) an absorber has Im m > 0 "
-        "(an index written for exp(+j omega t) must be conjugated)",
-        m.real(), m.imag()));
-}
+void check_arguments(double x, cplx m) { detail::check_mie_arguments("sphere", x, m); }
 
 // psi_n(x) = x j_n(x) for n = 0 .. n_max by downward recurrence
 //   psi_{n-1} = (2n + 1)/x psi_n - psi_{n+1}
@@ -85,6 +74,21 @@ std::vector<cplx> log_derivative(cplx z, int n_max) {
 }
 
 }  // namespace
+
+namespace detail {
+void check_mie_arguments(const char* what, double x, cplx m) {
+  if (!(x > 0) || !std::isfinite(x))
+    throw std::invalid_argument(fmt::format("Mie {}: size parameter must be positive and finite, got {}", what, x));
+  if (!std::isfinite(m.real()) || !std::isfinite(m.imag()) || m == cplx(0, 0))
+    throw std::invalid_argument(
+        fmt::format("Mie {}: relative index must be finite and non-zero, got {}{:+}i", what, m.real(), m.imag()));
+  if (m.imag() < 0)
+    throw std::invalid_argument(fmt::format(
+        "Mie {}: relative index {}{:+}i has Im m < 0; with exp(-i omega t) an absorber has Im m > 0 "
+        "(an index written for exp(+j omega t) must be conjugated)",
+        what, m.real(), m.imag()));
+}
+}  // namespace detail
 
 namespace detail {
 

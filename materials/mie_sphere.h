@@ -46,6 +46,9 @@ MieSphereCrossSections mie_sphere_cross_sections(double radius, double wavelengt
 int mie_term_count(double x);
 
 namespace detail {
+/// Refuses (std::invalid_argument, naming `what`) a size parameter that is not positive and finite,
+/// and a relative index that is zero, not finite, or has Im m < 0 (written for exp(+j omega t)).
+void check_mie_arguments(const char* what, double x, std::complex<double> m);
 /// J_{nu-1}(z) / J_nu(z) from the continued fraction J_{nu-1}/J_nu = 2nu/z - 1/(J_nu/J_{nu+1}),
 /// evaluated by the modified Lentz algorithm: the exact start for the downward recurrences of the
 /// sphere (half-integer nu) and cylinder (integer nu) series. Converges fast for nu > |z|.
