@@ -28,7 +28,7 @@ constexpr int max_rebuilds = 200;
 // An optional interface is kept only this many allowed cells away from every other interface.
 constexpr double optional_clearance = 4.0;
 
-std::string nm(double x) { return fmt::format("{:.6g} nm", x * 1e9); }
+std::string nm(double x) { return fmt::format("{:.4g} nm", x * 1e9); }
 
 struct Builder {
   const AxisRequest& r;
