@@ -1,6 +1,7 @@
 // The `domain` block: size, centre, base cell step, what happens at each of the six faces, the
 // absorber (CPML) settings, the background material and the time-step controls. Only checks that
 // need nothing but the scene live here; grid and stability checks are the solver's.
+#include <algorithm>
 #include <cmath>
 #include <limits>
 
@@ -77,6 +78,31 @@ void read_absorber(const Node& block, solver::AbsorberSpec& abs) {
   block.done();
 }
 
+/// `refine: [{from, to, step}, ...]`: boxes of finer cells, inside the domain, no coarser than the
+/// base step along any axis (a zone only makes cells finer).
+void read_refine(const Node& list, solver::DomainSpec& d) {
+  for (const Node& z : list.items_or_single()) {
+    if (!z.is_map()) z.fail(fmt::format("must be a block {{from, to, step}}, got {}", z.found()));
+    z.allow({"from", "to", "step"});
+    const Node from = z.require("from"), to = z.require("to"), step = z.require("step");
+    const Vec3 a = read_position(from), b = read_position(to);
+    check_inside_domain(from, a, d);
+    check_inside_domain(to, b, d);
+    solver::RefineZone zone;
+    for (int i = 0; i < 3; ++i) {
+      zone.box.lo[i] = std::min(a[i], b[i]);  // corners in either order
+      zone.box.hi[i] = std::max(a[i], b[i]);
+    }
+    zone.step = read_extent(step);
+    for (int i = 0; i < 3; ++i)
+      if (zone.step[i] > d.step[i] * (1 + 1e-9))
+        step.fail(fmt::format("the zone's step {} along {} is coarser than domain.step {}: a zone can only make cells "
+                              "finer", format_length(zone.step[i]), axis_names[i], format_length(d.step[i])));
+    z.done();
+    d.refine.push_back(zone);
+  }
+}
+
 }  // namespace
 
 solver::Region domain_bounds(const solver::DomainSpec& d) {
@@ -98,8 +124,8 @@ void check_inside_domain(const Node& v, const Vec3& p, const solver::DomainSpec&
 }
 
 void read_domain(const Node& block, solver::Scene& scene) {
-  block.allow({"size", "center", "step", "edges", "absorber", "background", "courant", "time_step"},
-              /*planned=*/{"refine"});
+  block.allow({"size", "center", "step", "edges", "absorber", "background", "courant", "time_step", "refine",
+               "gap_cells", "grading"});
   solver::DomainSpec& d = scene.domain;
   d.size = read_extent(block.require("size"));
   if (auto center = block.get("center")) d.center = read_position(*center);
@@ -147,6 +173,18 @@ void read_domain(const Node& block, solver::Scene& scene) {
       courant->fail(fmt::format("must be a fraction of the Courant limit in (0, 1], got '{}'", courant->text()));
   }
   if (auto dt = block.get("time_step")) d.time_step = read_positive_time(*dt);
+  if (auto refine = block.get("refine")) read_refine(*refine, d);
+  if (auto gap = block.get("gap_cells")) {
+    const long n = read_whole_number(*gap, 0);
+    if (n > 1000) gap->fail(fmt::format("is far too many cells across a gap, got '{}'", gap->text()));
+    d.gap_cells = static_cast<int>(n);
+  }
+  if (auto grading = block.get("grading")) {
+    d.grading_ratio = read_number(*grading);
+    if (!(d.grading_ratio > 1 && d.grading_ratio <= 2))
+      grading->fail(fmt::format("must be the largest ratio of neighbouring cells, above 1 and at most 2 (1.2 is common "
+                                "practice), got '{}'", grading->text()));
+  }
   block.done();
 }
 

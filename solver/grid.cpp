@@ -27,6 +27,20 @@ Grid Grid::uniform(const DomainSpec& d) {
   return g;
 }
 
+Grid Grid::from_nodes(std::array<std::vector<double>, 3> nodes, const DomainSpec& d) {
+  Grid g;
+  for (int a = 0; a < 3; ++a) {
+    YG_CHECK(nodes[a].size() >= 2, "a grid axis needs at least two nodes");
+    for (std::size_t i = 0; i + 1 < nodes[a].size(); ++i)
+      YG_CHECK(nodes[a][i + 1] > nodes[a][i], "grid nodes must increase strictly");
+    g.n[a] = static_cast<int>(nodes[a].size()) - 1;
+    g.nodes[a] = std::move(nodes[a]);
+    g.periodic[a] = d.edges[2 * a] == EdgeKind::periodic;
+    g.mirror_low[a] = is_mirror(d.edges[2 * a]);
+  }
+  return g;
+}
+
 double Grid::primal(int a, int i) const {
   const int m = n[a];
   if (periodic[a]) i = ((i % m) + m) % m;

@@ -20,6 +20,9 @@ struct Grid {
 
   /// Builds a uniform grid covering the domain with cells of (at most) the requested step.
   static Grid uniform(const DomainSpec& domain);
+  /// A grid from node coordinates per axis (strictly increasing, at least two per axis), as the
+  /// graded mesh builder makes them (solver/mesh_plan.h); periodic and mirror faces as in uniform().
+  static Grid from_nodes(std::array<std::vector<double>, 3> nodes, const DomainSpec& domain);
 
   long long cell_count() const { return 1LL * n[0] * n[1] * n[2]; }
   /// Primal spacing of cell i on axis a: nodes[a][i+1] - nodes[a][i].

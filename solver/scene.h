@@ -42,6 +42,18 @@ struct AbsorberSpec {
   double alpha_max = 0.0;         // CFS shift, S/m; 0 = derive from the lowest frequency of interest
 };
 
+/// A region given by two corners. A zero extent along one axis makes a plane.
+struct Region {
+  Vec3 lo, hi;                    // m
+};
+
+/// A box with finer cells: along each axis, the cells across box.lo..box.hi are at most `step`
+/// (the graded mesh builder, geometry/graded_mesh.h).
+struct RefineZone {
+  Region box;                     // m
+  Vec3 step;                      // m, per axis, at most the base step
+};
+
 struct DomainSpec {
   Vec3 size;                      // m, the whole domain including absorber layers
   Vec3 center;                    // m
@@ -51,6 +63,10 @@ struct DomainSpec {
   int background = 0;             // index into Scene::materials
   double courant_safety = 0.99;   // fraction of the Courant-limit time step
   double time_step = 0.0;         // s; 0 = courant_safety * limit. Above the limit it is refused.
+  std::vector<RefineZone> refine; // zones of finer cells
+  int gap_cells = 4;              // cells across each gap between bodies narrower than this many
+                                  // base cells; 0 = no gap search
+  double grading_ratio = 1.2;     // largest ratio of neighbouring cells (common practice)
 };
 
 struct MaterialSpec {
@@ -82,11 +98,6 @@ struct DipoleSpec {
   double moment = 1e-30;          // C m, peak dipole moment amplitude
   Waveform waveform;
   Where where;
-};
-
-/// A region given by two corners. A zero extent along one axis makes a plane.
-struct Region {
-  Vec3 lo, hi;                    // m
 };
 
 /// A plane wave lighting a box (total-field/scattered-field, Taflove & Hagness 2005, ch. 5): inside

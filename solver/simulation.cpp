@@ -13,6 +13,7 @@
 #include "base/errors.h"
 #include "solver/dispersive_stability.h"
 #include "solver/material_map.h"
+#include "solver/mesh_plan.h"
 
 namespace yeegap::solver {
 
@@ -72,6 +73,22 @@ CurlCoefficients plain_curls(const Grid& g, double dt) {
   return c;
 }
 
+// The refined gaps with the number of cells across each, counted along the axis the gap spans most.
+std::vector<ModelSummary::RefinedGap> refined_gaps(const MeshPlan& mesh) {
+  std::vector<ModelSummary::RefinedGap> out;
+  for (const geometry::Gap& gap : mesh.gaps) {
+    int axis = 0;
+    for (int a = 1; a < 3; ++a)
+      if (std::abs(gap.point_b[a] - gap.point_a[a]) > std::abs(gap.point_b[axis] - gap.point_a[axis])) axis = a;
+    const double lo = std::min(gap.point_a[axis], gap.point_b[axis]), hi = std::max(gap.point_a[axis], gap.point_b[axis]);
+    const double tol = 1e-6 * gap.width;
+    const auto& v = mesh.grid.nodes[axis];
+    const int inner = static_cast<int>(std::count_if(v.begin(), v.end(), [&](double x) { return x > lo + tol && x < hi - tol; }));
+    out.push_back({gap.body_a, gap.body_b, gap.width, gap.middle(), inner + 1});
+  }
+  return out;
+}
+
 double lowest_source_omega(const Scene& s) {
   double w = std::numeric_limits<double>::infinity();
   for (const auto& d : s.dipoles) w = std::min(w, d.waveform.omega_min > 0 ? d.waveform.omega_min : d.waveform.omega_max);
@@ -101,7 +118,7 @@ long dft_stride(const Scene& s, const std::vector<double>& outputs, double dt) {
 
 Simulation::Simulation(const Scene& scene)
     : scene_(with_gap_material(scene)),
-      grid_(Grid::uniform(scene.domain)),
+      grid_(plan_mesh(scene).grid),
       dt_(choose_time_step(scene_, grid_)),
       fields_(BlockLayout::of(grid_.n)) {
   check_scene(scene_, grid_);
@@ -122,10 +139,11 @@ Simulation::Simulation(const Scene& scene)
     p.cells = a.cells;
     p.order = a.grading_order;
     p.kappa_max = a.kappa_max;
-    // Thickness of the thinnest absorbing layer sets sigma_max (uniform grid: all layers alike).
+    // The thinnest absorbing layer's actual thickness sets sigma_max (on a graded grid a layer's
+    // cells may be smaller than the base step, see mesh_plan.h).
     double thickness = std::numeric_limits<double>::infinity();
-    for (int ax = 0; ax < 3; ++ax)
-      if (absorbing[2 * ax] || absorbing[2 * ax + 1]) thickness = std::min(thickness, a.cells * grid_.min_spacing(ax));
+    for (int f = 0; f < 6; ++f)
+      if (absorbing[f]) thickness = std::min(thickness, absorber_thickness(grid_, f, a.cells));
     p.sigma_max = cpml_sigma_max(p.order, a.reflection, thickness, n_bg);
     // CFS shift: alpha/eps0 a tenth of the lowest source frequency keeps propagating waves absorbed
     // over the band while damping the late-time low-frequency tail (common practice).
@@ -158,7 +176,8 @@ Simulation::~Simulation() = default;
 
 ModelSummary Simulation::plan(const Scene& original) {
   const Scene scene = with_gap_material(original);
-  const Grid g = Grid::uniform(scene.domain);
+  const MeshPlan mesh = plan_mesh(scene);
+  const Grid& g = mesh.grid;
   const double dt = choose_time_step(scene, g);
   check_scene(scene, g);
   ModelSummary m;
@@ -169,6 +188,12 @@ ModelSummary Simulation::plan(const Scene& original) {
   m.smallest_cell = std::min({g.min_spacing(0), g.min_spacing(1), g.min_spacing(2)});
   for (int a = 0; a < 3; ++a)
     for (int i = 0; i < g.n[a]; ++i) m.largest_cell = std::max(m.largest_cell, g.primal(a, i));
+  for (int a = 0; a < 3; ++a) {
+    m.min_cell[a] = g.min_spacing(a);
+    for (int i = 0; i < g.n[a]; ++i) m.max_cell[a] = std::max(m.max_cell[a], g.primal(a, i));
+  }
+  m.gaps = refined_gaps(mesh);
+  m.mesh_notes = mesh.notes;
   const BlockLayout L = BlockLayout::of(g.n);
   std::size_t bytes = 6 * L.total * sizeof(real) + 3 * L.total;
   // CPML: four psi arrays per absorbing face over its slab.

@@ -38,6 +38,15 @@ struct ModelSummary {
   bool steps_estimated = false;    // true when the stop rule is a decay, so the count is a guess
   std::size_t memory_bytes = 0;    // fields, material index, absorbers, recorders
   double smallest_cell = 0, largest_cell = 0;  // m
+  std::array<double, 3> min_cell{}, max_cell{};  // m, smallest and largest cell per axis
+  struct RefinedGap {
+    int body_a = 0, body_b = 0;    // indices into Scene::bodies
+    double width = 0;              // m
+    Vec3 middle;                   // m
+    int cells_across = 0;          // along the axis the gap spans most
+  };
+  std::vector<RefinedGap> gaps;      // gaps between bodies found and refined by the mesh builder
+  std::vector<std::string> mesh_notes;  // what the mesh builder dropped or changed
 };
 
 struct Progress {

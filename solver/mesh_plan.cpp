@@ -1,0 +1,80 @@
+// Scene -> mesh request -> grid (see mesh_plan.h). A gap narrower than a thousandth of the base
+// step counts as touching (two stacked slabs share a face exactly, but rounding may leave a sliver).
+#include "solver/mesh_plan.h"
+
+#include <algorithm>
+#include <cmath>
+
+#include <fmt/format.h>
+
+#include "base/errors.h"
+#include "geometry/graded_mesh.h"
+
+namespace yeegap::solver {
+namespace {
+
+constexpr double touching_fraction = 1e-3;
+
+bool unbounded(double v) { return !std::isfinite(v); }
+
+}  // namespace
+
+double absorber_thickness(const Grid& g, int face, int cells) {
+  const int a = face / 2;
+  const auto& v = g.nodes[a];
+  YG_CHECK(cells >= 0 && cells <= g.n[a], "absorber wider than its axis");
+  return face % 2 == 0 ? v[cells] - v[0] : v[g.n[a]] - v[g.n[a] - cells];
+}
+
+MeshPlan plan_mesh(const Scene& s) {
+  const DomainSpec& d = s.domain;
+  geometry::MeshRequest q;
+  q.domain = {d.center - 0.5 * d.size, d.center + 0.5 * d.size};
+  q.base_step = d.step;
+  q.ratio = d.grading_ratio;
+  for (int f = 0; f < 6; ++f) q.absorber_cells[f] = d.edges[f] == EdgeKind::absorber ? d.absorber.cells : 0;
+  for (int a = 0; a < 3; ++a) q.periodic[a] = d.edges[2 * a] == EdgeKind::periodic;
+  for (const RefineZone& z : d.refine) q.zones.push_back({{z.box.lo, z.box.hi}, z.step});
+
+  // Slab faces (a body bounded along one axis only) must be cell edges; the box extremes of
+  // bounded bodies are cell edges where they cost nothing.
+  std::vector<geometry::ShapePtr> shapes;
+  for (const BodySpec& b : s.bodies) {
+    shapes.push_back(b.shape);
+    const geometry::Aabb box = b.shape->bounds();
+    int finite_axes = 0;
+    for (int a = 0; a < 3; ++a) finite_axes += !unbounded(box.lo[a]) || !unbounded(box.hi[a]);
+    for (int a = 0; a < 3; ++a)
+      for (double x : {box.lo[a], box.hi[a]}) {
+        if (unbounded(x)) continue;
+        (finite_axes == 1 ? q.interfaces[a] : q.optional_interfaces[a]).push_back(x);
+      }
+  }
+
+  MeshPlan plan;
+  if (d.gap_cells > 0 && shapes.size() > 1) {
+    geometry::GapSearch search;
+    const double base = std::max({d.step.x, d.step.y, d.step.z});
+    // A gap of gap_cells base cells or more is resolved already; the margin keeps a gap of exactly
+    // that width (4 nm on 1 nm cells) from being refined by rounding.
+    search.max_width = d.gap_cells * base * (1 - 1e-6);
+    search.region = q.domain;
+    const double touching = touching_fraction * std::min({d.step.x, d.step.y, d.step.z});
+    for (const geometry::Gap& g : geometry::find_gaps(shapes, search)) {
+      if (g.width < touching) {
+        plan.notes.push_back(fmt::format("bodies {} and {} touch (gap {:.3g} nm): not refined", g.body_a, g.body_b,
+                                         g.width * 1e9));
+        continue;
+      }
+      geometry::add_gap_refinement(q, g, d.gap_cells);
+      plan.gaps.push_back(g);
+    }
+  }
+
+  geometry::GradedMesh m = geometry::build_graded_mesh(q);
+  plan.notes.insert(plan.notes.end(), m.notes.begin(), m.notes.end());
+  plan.grid = Grid::from_nodes(std::move(m.nodes), d);
+  return plan;
+}
+
+}  // namespace yeegap::solver

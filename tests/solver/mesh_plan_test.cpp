@@ -1,0 +1,84 @@
+// The run's grid from a scene: exactly the uniform grid when nothing asks for grading, slab faces
+// on cell edges, refine zones and detected gaps honoured, and the absorbers' actual thickness.
+#include "solver/mesh_plan.h"
+
+#include <cmath>
+
+#include <gtest/gtest.h>
+
+#include "geometry/shapes.h"
+#include "test_scenes.h"
+
+namespace yeegap::solver {
+namespace {
+
+constexpr double nm = 1e-9;
+
+bool is_node(const std::vector<double>& v, double x) {
+  return std::any_of(v.begin(), v.end(), [&](double n) { return std::abs(n - x) < 1e-6 * nm; });
+}
+
+TEST(MeshPlan, WithoutGradingItIsTheUniformGrid) {
+  Scene s = testing::vacuum_box({40, 30, 20}, 5 * nm, testing::all_edges(EdgeKind::absorber));
+  s.domain.absorber.cells = 8;
+  s.bodies.push_back({geometry::make_sphere({0, 0, 0}, 30 * nm), 0, {}});   // box extremes: optional only
+  s.bodies.push_back({geometry::make_slab(2, -20 * nm, 10 * nm), 0, {}});   // faces on the grid
+  const MeshPlan p = plan_mesh(s);
+  const Grid u = Grid::uniform(s.domain);
+  for (int a = 0; a < 3; ++a) {
+    ASSERT_EQ(p.grid.n[a], u.n[a]);
+    for (int i = 0; i <= u.n[a]; ++i) EXPECT_NEAR(p.grid.nodes[a][i], u.nodes[a][i], 1e-12 * nm);
+  }
+  EXPECT_TRUE(p.gaps.empty());
+  EXPECT_NEAR(absorber_thickness(p.grid, 5, 8), 40 * nm, 1e-12 * nm);
+}
+
+TEST(MeshPlan, OffGridSlabFacesBecomeCellEdgesOnARefinedAxis) {
+  Scene s = testing::vacuum_box({40, 30, 40}, 5 * nm, testing::all_edges(EdgeKind::absorber));
+  s.bodies.push_back({geometry::make_slab(2, -12.3 * nm, 7.9 * nm), 0, {}});
+  // Unrefined: the faces stay between nodes (a staircased layer keeps its thickness that way).
+  EXPECT_FALSE(is_node(plan_mesh(s).grid.nodes[2], -12.3 * nm));
+  s.domain.refine.push_back({{{-100 * nm, -75 * nm, 20 * nm}, {100 * nm, 75 * nm, 30 * nm}}, {5 * nm, 5 * nm, 1 * nm}});
+  const MeshPlan p = plan_mesh(s);
+  EXPECT_TRUE(is_node(p.grid.nodes[2], -12.3 * nm));
+  EXPECT_TRUE(is_node(p.grid.nodes[2], 7.9 * nm));
+  EXPECT_EQ(p.grid.n[0], 40);  // other axes untouched
+}
+
+TEST(MeshPlan, GapBetweenSpheresGetsItsCellsAcross) {
+  Scene s = testing::vacuum_box({60, 40, 40}, 5 * nm, testing::all_edges(EdgeKind::absorber));
+  s.bodies.push_back({geometry::make_sphere({-20.5 * nm, 0, 0}, 20 * nm), 0, {}});
+  s.bodies.push_back({geometry::make_sphere({20.5 * nm, 0, 0}, 20 * nm), 0, {}});
+  s.domain.gap_cells = 5;
+  const MeshPlan p = plan_mesh(s);
+  ASSERT_EQ(p.gaps.size(), 1u);
+  EXPECT_NEAR(p.gaps[0].width, 1 * nm, 1e-9 * nm);
+  const auto& x = p.grid.nodes[0];
+  const long across = std::count_if(x.begin(), x.end(), [](double v) { return v > -0.5 * nm + 1e-15 && v < 0.5 * nm - 1e-15; }) + 1;
+  EXPECT_EQ(across, 5);
+  EXPECT_NEAR(p.grid.min_spacing(0), 0.2 * nm, 1e-9 * nm);
+  // Off by the user: no gap zone, the uniform grid.
+  s.domain.gap_cells = 0;
+  EXPECT_EQ(plan_mesh(s).grid.n[0], 60);
+}
+
+TEST(MeshPlan, RefineZoneAndTouchingBodies) {
+  Scene s = testing::vacuum_box({40, 40, 40}, 5 * nm, testing::all_edges(EdgeKind::absorber));
+  s.domain.refine.push_back({{{-10 * nm, -10 * nm, -10 * nm}, {10 * nm, 10 * nm, 10 * nm}}, {1 * nm, 2 * nm, 5 * nm}});
+  // Two stacked slabs share a face: touching, not a gap.
+  s.bodies.push_back({geometry::make_slab(2, -30 * nm, 0), 0, {}});
+  s.bodies.push_back({geometry::make_slab(2, 0, 30 * nm), 0, {}});
+  const MeshPlan p = plan_mesh(s);
+  EXPECT_TRUE(p.gaps.empty());
+  EXPECT_NEAR(p.grid.min_spacing(0), 1 * nm, 1e-6 * nm);
+  EXPECT_NEAR(p.grid.min_spacing(1), 2 * nm, 1e-6 * nm);
+  EXPECT_EQ(p.grid.n[2], 40);
+  for (int a = 0; a < 3; ++a)
+    for (int i = 0; i + 1 < p.grid.n[a]; ++i) {
+      const double r = p.grid.primal(a, i + 1) / p.grid.primal(a, i);
+      EXPECT_LE(std::max(r, 1 / r), 1.2 * (1 + 1e-9));
+    }
+}
+
+}  // namespace
+}  // namespace yeegap::solver
