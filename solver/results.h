@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "base/vec3.h"
+#include "solver/reflectance_dip.h"
 #include "solver/scene.h"
 
 namespace yeegap::solver {
@@ -85,6 +86,22 @@ struct DecayRateResult {
   std::vector<double> alone_power;         // W s^2, n eta0 k0^2 |I l(omega)|^2 / (12 pi)
 };
 
+/// Sensor figures of an angle scan (SensorSpec; definitions in docs/sensor.md): the run's own R(theta)
+/// and the repeat with the sensing medium's index raised by delta_n. Angles and widths in rad;
+/// sensitivity in rad per refractive-index unit.
+struct SensorResult {
+  std::string name;
+  std::string medium;                      // the sensing medium's material name
+  double delta_n = 0;
+  double index = 0;                        // its refractive index (real part) at omega, before the raise
+  double omega = 0;                        // rad/s of the scan
+  std::vector<double> angles;              // rad, increasing, in the incident medium
+  std::vector<double> reflectance;         // R at the medium's own index
+  std::vector<double> reflectance_raised;  // R with the index raised by delta_n
+  ReflectanceDip dip, dip_raised;          // positions and widths in rad
+  SensorFigures figures;                   // shift (rad), sensitivity (rad/RIU), figure of merit (1/RIU)
+};
+
 /// The gaps the tunnelling block found on the grid.
 struct GapResult {
   std::array<int, 2> pair{};               // body indices
@@ -123,6 +140,7 @@ struct RunResults {
   std::vector<FarFieldResult> far_fields;
   std::vector<DecayRateResult> decay_rates;
   std::vector<GapResult> gaps;
+  std::vector<SensorResult> sensors;
 };
 
 }  // namespace yeegap::solver

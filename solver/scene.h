@@ -179,6 +179,16 @@ struct DecayRateSpec {
   Where where;
 };
 
+/// Surface-plasmon sensor figures of an angle scan (docs/sensor.md): the run is repeated with the
+/// refractive index of one material raised by delta_n, and the two reflectance dips give the
+/// resonance angle, minimum, width, sensitivity and figure of merit.
+struct SensorSpec {
+  std::string name;
+  int medium = 0;                 // index into Scene::materials: the sensing medium (the analyte)
+  double delta_n = 1e-3;          // raise of its refractive index (common practice: 1e-3)
+  Where where;
+};
+
 /// Pairs of metal bodies whose gap may conduct by electron tunnelling. Quantum-corrected: every E
 /// location outside both bodies whose local gap width l = d_A + d_B (the two signed distances) is
 /// below the cut-off becomes a cell of the gap medium of Esteban et al., Nat. Commun. 3, 825 (2012),
@@ -216,6 +226,7 @@ struct Scene {
   std::vector<TunnellingSpec> tunnelling;  // at most one
   std::vector<FarFieldSpec> far_fields;
   std::vector<DecayRateSpec> decay_rates;
+  std::vector<SensorSpec> sensors;  // at most one; needs an angle scan
   StopSpec stop;
 };
 
