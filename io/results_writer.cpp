@@ -15,6 +15,7 @@
 
 #include "base/units.h"
 #include "io/h5.h"
+#include "io/sensor_writer.h"
 
 namespace yeegap::io {
 
@@ -398,6 +399,7 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   for (const auto& x : r.cross_sections) write_cross_sections(outputs, x);
   for (const auto& x : r.far_fields) write_far_field(outputs, x);
   for (const auto& x : r.decay_rates) write_decay_rate(outputs, x);
+  for (const auto& x : r.sensors) write_sensor(outputs, x);
 }
 
 /// Forces the file's bytes to disk, so the rename cannot expose an empty file after a crash.

@@ -1,7 +1,8 @@
 // The `outputs` list: what a run records. Each item is one recorder with a unique name: a probe
 // (time series at a point), a field_map (frequency-domain fields on a plane or in a region), a
 // flux (power through a plane, or out of a closed box), cross sections, a far_field (pattern and
-// radiated power) or a decay_rate (Purcell enhancement of a dipole).
+// radiated power), a decay_rate (Purcell enhancement of a dipole) or a sensor (the figures of an
+// angle scan's reflectance dip, docs/sensor.md).
 #include <algorithm>
 #include <cctype>
 #include <cmath>
@@ -251,6 +252,36 @@ solver::DecayRateSpec read_decay_rate(const Node& block, const solver::Scene& sc
   return d;
 }
 
+// Largest delta_n: the sensitivity is a derivative; beyond a few 1e-2 the dip moves by a good
+// fraction of its width and the forward difference stops meaning dtheta/dn (docs/sensor.md).
+constexpr double max_delta_n = 0.1;
+
+solver::SensorSpec read_sensor(const Node& block, solver::Scene& scene, std::map<std::string, Where>& used) {
+  block.allow({"name", "medium", "delta_n"});
+  solver::SensorSpec s;
+  s.where = block.where();
+  s.name = read_name(block, used);
+  if (!scene.sensors.empty()) block.fail("only one sensor output per scene (it repeats the whole scan)");
+  const Node medium = block.require("medium");
+  s.medium = material_index(medium, scene);
+  const solver::MaterialSpec& m = scene.materials[static_cast<std::size_t>(s.medium)];
+  if (m.perfect_conductor)
+    medium.fail(fmt::format("'{}' is a perfect conductor; the sensing medium needs a refractive index to raise", m.name));
+  bool fills = scene.domain.background == s.medium;
+  for (const auto& b : scene.bodies) fills = fills || b.material == s.medium;
+  if (!fills)
+    medium.fail(fmt::format("'{}' fills nothing: no body and not the background (domain.background) is made of it, "
+                            "so raising its index would change nothing", m.name));
+  if (auto v = block.get("delta_n")) {
+    s.delta_n = read_positive_number(*v);
+    if (s.delta_n > max_delta_n)
+      v->fail(fmt::format("delta_n must be at most {} (the sensitivity is a derivative; 1e-3 is usual), got {}",
+                          max_delta_n, s.delta_n));
+  }
+  block.done();
+  return s;
+}
+
 /// `radiated` must name a far_field or a closed flux box of the scene; outputs may come in any
 /// order, so this runs once all are read.
 void check_radiated(const Node& block, const solver::DecayRateSpec& d, const solver::Scene& scene) {
@@ -282,7 +313,7 @@ void read_outputs(const Node& list, solver::Scene& scene) {
   std::map<std::string, Where> used;  // output name -> where it was first given
   std::vector<Node> decay_blocks;     // the decay_rate blocks, for checking 'radiated' at the end
   for (const Node& item : list.items_or_single()) {
-    item.allow({"probe", "field_map", "flux", "cross_sections", "far_field", "decay_rate"},
+    item.allow({"probe", "field_map", "flux", "cross_sections", "far_field", "decay_rate", "sensor"},
                /*planned=*/{"resonances", "orders"});
     if (!item.is_map() || item.entries().size() != 1)
       item.fail(fmt::format("each item holds exactly one output, e.g. '- probe: {{...}}', got {}",
@@ -296,6 +327,7 @@ void read_outputs(const Node& list, solver::Scene& scene) {
       scene.decay_rates.push_back(read_decay_rate(*b, scene, used));
       decay_blocks.push_back(*b);
     }
+    if (auto b = item.get("sensor")) scene.sensors.push_back(read_sensor(*b, scene, used));
   }
   for (std::size_t i = 0; i < decay_blocks.size(); ++i) check_radiated(decay_blocks[i], scene.decay_rates[i], scene);
 }

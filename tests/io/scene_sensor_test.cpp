@@ -1,0 +1,68 @@
+// The sensor output as read from a scene (io/scene_outputs.cpp, docs/scene.md): the sensing medium
+// by name, delta_n and its default, and the mistakes refused with the place and what was expected.
+#include <string>
+
+#include <gmock/gmock.h>
+#include <gtest/gtest.h>
+
+#include "base/errors.h"
+#include "io/scene_reader.h"
+
+namespace {
+
+using ::testing::HasSubstr;
+using yeegap::io::read_scene_text;
+
+const std::string head = R"(scene: {version: 1}
+materials:
+  glass: {index: 1.5151}
+  gold: {library: Au_critical_points}
+  water: {index: 1.3317}
+  metal: {perfect_conductor: true}
+  spare: {index: 1.45}
+domain: {size: [2 nm, 2 nm, 600 nm], step: 2 nm, background: water, edges: {x: periodic, y: periodic}}
+bodies:
+  - {shape: slab, axis: z, from: -300 nm, to: 0 nm, material: glass}
+  - {shape: slab, axis: z, from: 0 nm, to: 50 nm, material: gold}
+  - {shape: slab, axis: z, from: 250 nm, to: 300 nm, material: metal}
+excitation:
+  - dipole: {position: [0, 0, 100 nm], direction: z, band: {from: 600 nm, to: 700 nm}}
+stop: {decayed: 1e-5}
+outputs:
+)";
+
+std::string failure_of(const std::string& outputs) {
+  try {
+    read_scene_text(head + outputs, "bad.yaml");
+  } catch (const yeegap::SceneError& e) {
+    return e.what();
+  }
+  ADD_FAILURE() << "the scene was accepted:\n" << outputs;
+  return {};
+}
+
+TEST(SceneSensor, ReadsTheMediumByNameAndDeltaN) {
+  const auto s = read_scene_text(head + "  - sensor: {name: chip, medium: water, delta_n: 0.002}\n", "ok.yaml");
+  ASSERT_EQ(s.sensors.size(), 1u);
+  EXPECT_EQ(s.sensors[0].name, "chip");
+  EXPECT_EQ(s.materials[static_cast<std::size_t>(s.sensors[0].medium)].name, "water");
+  EXPECT_DOUBLE_EQ(s.sensors[0].delta_n, 0.002);
+  const auto d = read_scene_text(head + "  - sensor: {name: chip, medium: gold}\n", "ok.yaml");
+  EXPECT_DOUBLE_EQ(d.sensors[0].delta_n, 1e-3);  // the default
+}
+
+TEST(SceneSensor, RefusesUnknownUnusedAndConductingMediaAndBadDeltaN) {
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: watr}\n"),
+              HasSubstr("bad.yaml:17:34: outputs[0].sensor.medium: unknown material 'watr'; did you mean 'water'?"));
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: spare}\n"), HasSubstr("'spare' fills nothing"));
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: metal}\n"), HasSubstr("is a perfect conductor"));
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: water, delta_n: 0}\n"), HasSubstr("delta_n"));
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: water, delta_n: 0.5}\n"),
+              HasSubstr("delta_n must be at most 0.1"));
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: water, delta: 0.001}\n"), HasSubstr("delta_n"));
+  EXPECT_THAT(failure_of("  - sensor: {name: a, medium: water}\n  - sensor: {name: b, medium: water}\n"),
+              HasSubstr("only one sensor output"));
+  EXPECT_THAT(failure_of("  - sensor: {medium: water}\n"), HasSubstr("missing key 'name'"));
+}
+
+}  // namespace
