@@ -10,6 +10,7 @@
   cell edges of the graded grid;
 - a Python without numpy/h5py/matplotlib gives the install hint and no traceback, from the script
   and from `yeegap view`;
+- the sensor figure draws both R(theta) curves and marks each dip at the file's resonance angle;
 - `yeegap run --plot --json` on a coarse example writes the sidecar and figures and keeps stdout
   one JSON object.
 Usage: plot_check.py YEEGAP_BINARY SOURCE_DIR"""
@@ -32,6 +33,7 @@ matplotlib.use("Agg")
 import matplotlib.image  # noqa: E402
 import plot_common  # noqa: E402
 import plot_field_maps  # noqa: E402
+import plot_sensor  # noqa: E402
 import plot_spectra  # noqa: E402
 
 HINT = "install python3-matplotlib python3-h5py"
@@ -58,6 +60,7 @@ WAVELENGTHS_NM = np.array([500.0, 600.0, 700.0])
 OMEGA = 2 * np.pi * C0 / (WAVELENGTHS_NM * 1e-9)
 IL = np.array([1e-16 + 2e-16j, 3e-16 - 1e-16j, 2e-16 + 0j])    # A m s, the dipole's current-moment spectrum
 ENHANCEMENT = np.array([3.0, 2.0, 1.5])                       # P / P0 the flux outputs are given
+SENSOR_DIPS = (71.0, 71.15)                                   # deg, the sensor's two resonance angles
 SCENE = f"""scene: {{version: 1}}
 domain: {{background: water}}
 materials:
@@ -124,6 +127,16 @@ def write_results(path):
             g["Ex_re"], g["Ex_im"] = np.sqrt(e2), np.zeros(shape)
             g["Ez_re"], g["Ez_im"] = np.zeros(shape), np.zeros(shape)
             g["E_squared"] = e2
+        g = f.create_group("outputs/chip")                  # a sensor: two Lorentzian dips (invented)
+        g.attrs["kind"], g.attrs["medium"] = np.bytes_("sensor"), np.bytes_("water")
+        g.attrs["index"], g.attrs["delta_n"], g.attrs["wavelength_nm"] = 1.3317, 1e-3, 632.8
+        angle = np.arange(60, 85.001, 0.05)
+        g["angle_deg"] = angle
+        for suffix, centre in (("", SENSOR_DIPS[0]), ("_raised", SENSOR_DIPS[1])):
+            g["reflectance" + suffix] = 0.98 - 0.95 / (1 + ((angle - centre) / 1.7) ** 2)
+            g.attrs["resonance_angle_deg" + suffix], g.attrs["r_min" + suffix] = centre, 0.03
+            g.attrs["baseline" + suffix], g.attrs["half_depth_angles_deg" + suffix] = 0.9, np.array([centre - 2, centre + 2])
+        g.attrs["width_deg"], g.attrs["sensitivity_deg_per_riu"], g.attrs["figure_of_merit"] = 4.0, 150.0, 37.5
 
 
 def png_is_a_picture(path):
@@ -157,7 +170,7 @@ with tempfile.TemporaryDirectory() as work:
     done = subprocess.run([sys.executable, script, results], capture_output=True, text=True, env=headless)
     check(done.returncode == 0, f"plot script exit code {done.returncode}: {done.stderr}")
     check(done.stdout == "", f"the plot script wrote to stdout: {done.stdout!r}")
-    stems = ["flux", "probe_at_dipole"] + [f"{m}_{w}nm" for m in ("volume", "xz_plane") for w in (500, 600, 700)]
+    stems = ["flux", "probe_at_dipole", "sensor_chip"] + [f"{m}_{w}nm" for m in ("volume", "xz_plane") for w in (500, 600, 700)]
     for stem in stems:
         for ext in ("png", "svg"):
             path = os.path.join(work, f"synthetic_{stem}.{ext}")
@@ -181,6 +194,13 @@ with tempfile.TemporaryDirectory() as work:
                   f"emitted P/P0 {curves.get('emitted')} want {ENHANCEMENT}")
             check(np.allclose(curves.get("through_top", []), 0.5 * ENHANCEMENT, rtol=1e-12),
                   f"through_top P/P0 {curves.get('through_top')}")
+
+        # 2b. The sensor figure: both curves, each dip marked at the file's resonance angle.
+        fig = plot_sensor.sensor_figure("chip", f["outputs/chip"])
+        lines = fig.axes[0].get_lines()
+        check(sum(len(line.get_xdata()) == 501 for line in lines) == 2, "the sensor figure lacks a curve")
+        markers = sorted(float(line.get_xdata()[0]) for line in lines if line.get_marker() == "v")
+        check(np.allclose(markers, SENSOR_DIPS), f"dip markers at {markers}, want {SENSOR_DIPS}")
 
         # 3. Graded coordinates: the colour mesh sits on the file's node coordinates, and the
         # material outline on cell edges of the graded grid (the box spans x nodes 3..6, z nodes 2..4).

@@ -4,6 +4,7 @@
                          alone when the scene has one dipole)
   <stem>_probe_<name>    each probe's time series
   <stem>_<map>_<wl>nm    |E|^2 of each field map at each wavelength, with the material boundaries
+  <stem>_sensor_<name>   each sensor output's R(theta), before and after the index raise, dips marked
 Headless (matplotlib's Agg backend). `yeegap view` and `yeegap run --plot` run this script.
 
 Usage: yeegap_plot.py RESULTS.h5 [--out-dir DIR] [--formats png,svg]
@@ -46,6 +47,7 @@ def write_figures(results, out_dir, formats):
     from plot_common import open_results, output_stem, outputs_of_kind, save, wavelength_label
     from plot_field_maps import field_map_figures
     from plot_probes import probe_figure
+    from plot_sensor import sensor_figure
     from plot_spectra import flux_figure
 
     written, notes = [], []
@@ -60,6 +62,8 @@ def write_figures(results, out_dir, formats):
         for name, g in outputs_of_kind(f, "field_map"):
             for wl, fig in field_map_figures(f, name, g):
                 written += save(fig, output_stem(results, out_dir, name, wavelength_label(wl) + "nm"), formats)
+        for name, g in outputs_of_kind(f, "sensor"):
+            written += save(sensor_figure(name, g), output_stem(results, out_dir, "sensor", name), formats)
     return written, notes
 
 
