@@ -17,6 +17,7 @@
 #include "io/scene_reader.h"
 #include "json.h"
 #include "progress.h"
+#include "sensor_report.h"
 #include "solver/simulation.h"
 #include "viewer_outputs.h"
 
@@ -180,6 +181,7 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
     std::fprintf(stderr, "  probe %s: %zu samples\n", p.name.c_str(), p.time.size());
     outs.add(p.name, json_array(rows));
   }
+  for (const auto& x : r.sensors) outs.add(x.name, report_sensor(x));
   return outs.str();
 }
 
