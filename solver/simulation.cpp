@@ -278,15 +278,22 @@ void Simulation::fill_periodic_halos(bool electric) {
       if (even_mirror && comp == 3 + a) continue;  // normal H: not read across the plane
       real* d = fields_.c[comp].data();
       // Copy the whole plane including the other axes' halos, so corners stay consistent.
+      // Offsets are formed once per row: on a 2D grid (one periodic cell along z) this plane is the
+      // whole grid, and index arithmetic per element made the copy cost more than the update.
+      const std::ptrdiff_t sa = L.stride(a), sb = L.stride(b), sc = L.stride(c);
+      const std::ptrdiff_t shift = static_cast<std::ptrdiff_t>(to - from) * sa;
 #pragma omp parallel for schedule(static) if (parallel_worth(L.n[b], L.n[c], 1))
-      for (int q = -1; q <= L.n[c]; ++q)
-        for (int p = -1; p <= L.n[b]; ++p) {
-          std::array<int, 3> src{}, dst{};
-          src[a] = from, dst[a] = to;
-          src[b] = dst[b] = p;
-          src[c] = dst[c] = q;
-          d[L.at(dst[0], dst[1], dst[2])] = sign * d[L.at(src[0], src[1], src[2])];
+      for (int q = -1; q <= L.n[c]; ++q) {
+        const std::ptrdiff_t row = L.at(0, 0, 0) + from * sa + q * sc - sb;
+        const real* src = d + row;
+        real* dst = d + row + shift;
+        const int len = L.n[b] + 2;
+        if (sb == 1) {
+          for (int p = 0; p < len; ++p) dst[p] = sign * src[p];
+        } else {
+          for (int p = 0; p < len; ++p) dst[p * sb] = sign * src[p * sb];
         }
+      }
     }
   }
 }

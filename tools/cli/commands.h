@@ -18,6 +18,7 @@ inline constexpr int exit_interrupted = 3;
 /// `command_line` is the program's arguments joined by spaces, stored with the results.
 void add_run_command(CLI::App& app, int& exit_code, const std::string& command_line);
 void add_check_command(CLI::App& app, int& exit_code);
+void add_sweep_command(CLI::App& app, int& exit_code, const std::string& command_line);
 void add_view_command(CLI::App& app, int& exit_code);
 void add_gap_command(CLI::App& app, int& exit_code);
 void add_materials_command(CLI::App& app, int& exit_code);

@@ -11,6 +11,7 @@
 #include <cstdio>
 #include <ctime>
 #include <filesystem>
+#include <optional>
 
 #include <fmt/format.h>
 
@@ -19,6 +20,7 @@
 #include "io/checkpoint.h"
 #include "io/results_writer.h"
 #include "io/scene_reader.h"
+#include "io/sweep_table.h"
 #include "json.h"
 #include "progress.h"
 #include "run_control.h"
@@ -34,6 +36,7 @@ struct RunOptions {
   std::string output;
   std::vector<std::string> overrides;
   int threads = 0;
+  std::optional<std::size_t> point;  // one point of the scene's sweep
   bool json = false;
   bool plot = false;
   std::string checkpoint_every = "30min";
@@ -41,8 +44,10 @@ struct RunOptions {
   std::string command_line;
 };
 
-std::string default_output(const std::string& scene) {
-  return std::filesystem::path(scene).replace_extension(".h5").string();
+std::string default_output(const std::string& scene, std::optional<std::size_t> point) {
+  std::filesystem::path p(scene);
+  if (point) return p.replace_extension().string() + fmt::format("_point_{}.h5", *point);
+  return p.replace_extension(".h5").string();
 }
 
 std::string now_iso8601() {
@@ -191,8 +196,16 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
 }
 
 int run_scene(const RunOptions& o) {
-  const solver::Scene scene = io::read_scene_file(o.scene, o.overrides);
-  const std::string output = o.output.empty() ? default_output(o.scene) : o.output;
+  io::SweepPlan sweep;
+  solver::Scene scene;
+  if (o.point) {
+    const std::string text = io::read_scene_file_text(o.scene);
+    sweep = io::read_sweep_plan(text, o.scene);
+    scene = io::read_scene_point(text, o.scene, sweep, *o.point, o.overrides);
+  } else {
+    scene = io::read_scene_file(o.scene, o.overrides);
+  }
+  const std::string output = o.output.empty() ? default_output(o.scene, o.point) : o.output;
   io::check_writable(output);  // fail now, not after hours of computing
   if (o.threads > 0) omp_set_num_threads(o.threads);
   const int threads = omp_get_max_threads();
@@ -202,7 +215,8 @@ int run_scene(const RunOptions& o) {
   const double checkpoint_seconds = parse_duration(o.checkpoint_every).value_or(0);  // checked by the option
 
   solver::Simulation sim(scene);
-  const io::CheckpointInfo info{YEEGAP_VERSION, o.overrides};
+  io::CheckpointInfo info{YEEGAP_VERSION, o.overrides};
+  if (o.point) info.overrides.push_back(fmt::format("(sweep point {})", *o.point));  // points share one text
   std::error_code ec;
   if (o.resume) {
     io::read_checkpoint(checkpoint, sim, scene, info);
@@ -256,6 +270,10 @@ int run_scene(const RunOptions& o) {
   }
   const bool interrupted = results.summary.stop_reason == "interrupted";
   io::write_results(output, results, scene, {YEEGAP_VERSION, o.command_line, started, threads});
+  // With its /sweep record the file counts as a finished point for `yeegap sweep` (if named
+  // point_NNNN.h5 in the sweep's folder); written after the results, so a failure here loses none.
+  // Partial results of an interrupted run get none: the point is not finished.
+  if (o.point && !interrupted) io::write_point_record(output, sweep, *o.point, io::compute_figures(results, scene), o.overrides);
   write_viewer_file(output);  // a failure is reported; the results are safe either way
   if (!interrupted) std::filesystem::remove(checkpoint, ec);  // finished: nothing left to resume
   const auto& s = results.summary;
@@ -290,6 +308,7 @@ void add_run_command(CLI::App& app, int& exit_code, const std::string& command_l
       "Examples:\n"
       "  yeegap run examples/dipole_near_sphere.yaml\n"
       "  yeegap run scene.yaml -o out.h5 --threads 2 --set 'bodies[0].radius=45 nm' --json\n"
+      "  yeegap run sweep_scene.yaml --point 2             one point of a scene's sweep block\n"
       "  yeegap run scene.yaml --checkpoint-every 10min     (then, after a kill or Ctrl-C:)\n"
       "  yeegap run scene.yaml --resume\n"
       "Exit codes: 0 done, 1 program or system failure, 2 input error, 3 stopped by SIGINT/SIGTERM\n"
@@ -298,6 +317,8 @@ void add_run_command(CLI::App& app, int& exit_code, const std::string& command_l
   cmd->add_option("-o,--output", opts->output, "results file (default: the scene's name with .h5)");
   cmd->add_option("--set", opts->overrides, "override a scene value, e.g. --set domain.step=2nm (repeatable)");
   cmd->add_option("--threads", opts->threads, "worker threads (default: all cores)")->check(CLI::PositiveNumber);
+  cmd->add_option("--point", opts->point,
+                  "for a scene with a sweep block: run this point of it (from 0; default output SCENE_point_K.h5)");
   cmd->add_flag("--json", opts->json, "print a one-object summary on stdout at the end");
   cmd->add_flag("--plot", opts->plot, "also write PNG and SVG figures next to the results (needs python3-matplotlib)");
   cmd->add_option("--checkpoint-every", opts->checkpoint_every,
