@@ -31,7 +31,9 @@ class FieldMapRecorder {
  public:
   FieldMapRecorder(const FieldMapSpec& spec, const Grid& g, const BlockLayout& L);
   void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
-  FieldMapResult result() const;
+  /// With `imaginary` (the same map in the imaginary part of a Bloch run) the values are
+  /// re + i im: the complex field's spectrum.
+  FieldMapResult result(const FieldMapRecorder* imaginary = nullptr) const;
   std::size_t memory_bytes() const;
   const std::vector<double>& result_omegas() const { return spec_.omegas; }
 
@@ -47,7 +49,9 @@ class FluxRecorder {
  public:
   FluxRecorder(const FluxSpec& spec, const Grid& g, const BlockLayout& L);
   void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
-  FluxResult result() const;
+  /// With `imaginary` (the same surface in the imaginary part of a Bloch run) the power is that of
+  /// the complex field E = E_re + i E_im, H likewise.
+  FluxResult result(const FluxRecorder* imaginary = nullptr) const;
   std::size_t memory_bytes() const;
   const std::vector<double>& result_omegas() const { return spec_.omegas; }
 

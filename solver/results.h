@@ -41,6 +41,10 @@ struct FluxResult {
   /// 0.5 Re of the integral of E(omega) x H(omega)* over the surface, from DFT spectra: J/Hz^2-like
   /// units (W s^2); divide by |source spectrum|^2 terms to normalise.
   std::vector<double> power;
+  /// With a plane wave in a Bloch cell: power / incident power through the same area, counted
+  /// positive along the incident direction (so a plane behind the stack gives T, one on the
+  /// entry side, in the reflected-only region, gives -R). Empty otherwise.
+  std::vector<double> fraction;
 };
 
 struct CrossSectionResult {
@@ -85,6 +89,20 @@ struct DecayRateResult {
   std::vector<double> alone_power;         // W s^2, n eta0 k0^2 |I l(omega)|^2 / (12 pi)
 };
 
+/// Reflectance, transmittance and absorptance of a plane wave in a Bloch cell, one row per
+/// frequency (a run at fixed in-plane wavevector: each row has its own angle, physics.md 3.7) or
+/// per angle (an angle scan: every row at the same frequency).
+struct ReflectanceResult {
+  std::string name;                        // "plane_wave"
+  bool angle_scan = false;
+  bool p_polarised = true;
+  double incident_index = 1;               // refractive index of the incident medium
+  std::vector<double> omegas;              // rad/s, per row
+  std::vector<double> angles;              // rad, per row, in the incident medium
+  std::vector<double> k_parallel;          // rad/m, per row
+  std::vector<double> reflectance, transmittance, absorptance;  // A = 1 - R - T
+};
+
 /// The gaps the tunnelling block found on the grid.
 struct GapResult {
   std::array<int, 2> pair{};               // body indices
@@ -123,6 +141,7 @@ struct RunResults {
   std::vector<FarFieldResult> far_fields;
   std::vector<DecayRateResult> decay_rates;
   std::vector<GapResult> gaps;
+  std::vector<ReflectanceResult> reflectance;    // plane waves in Bloch cells
 };
 
 }  // namespace yeegap::solver

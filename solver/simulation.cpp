@@ -11,6 +11,7 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
+#include "solver/bloch_halos.h"
 #include "solver/dispersive_stability.h"
 #include "solver/material_map.h"
 #include "solver/mesh_plan.h"
@@ -269,6 +270,7 @@ void Simulation::fill_periodic_halos(bool electric) {
     // tangential E on the plane. Normal H and the other fields need no image.
     const bool even_mirror = !electric && scene_.domain.edges[2 * a] == EdgeKind::mirror_even;
     if (!grid_.periodic[a] && !even_mirror) continue;
+    if (carries_bloch_phase(scene_.domain, a)) continue;  // copied with its phase by fill_bloch_halos
     const int n = L.n[a];
     const int from = electric ? 0 : (even_mirror ? 0 : n - 1), to = electric ? n : -1;
     const real sign = even_mirror ? real(-1) : real(1);
@@ -278,21 +280,28 @@ void Simulation::fill_periodic_halos(bool electric) {
       if (even_mirror && comp == 3 + a) continue;  // normal H: not read across the plane
       real* d = fields_.c[comp].data();
       // Copy the whole plane including the other axes' halos, so corners stay consistent.
+      // Flat offsets: the copy is as cheap as the 1D problems' bulk update it runs beside.
+      std::array<int, 3> corner{};
+      corner[a] = from, corner[b] = -1, corner[c] = -1;
+      const std::ptrdiff_t start = L.at(corner[0], corner[1], corner[2]), shift = (to - from) * L.stride(a);
+      const std::ptrdiff_t sb = L.stride(b), sc = L.stride(c);
 #pragma omp parallel for schedule(static) if (parallel_worth(L.n[b], L.n[c], 1))
-      for (int q = -1; q <= L.n[c]; ++q)
-        for (int p = -1; p <= L.n[b]; ++p) {
-          std::array<int, 3> src{}, dst{};
-          src[a] = from, dst[a] = to;
-          src[b] = dst[b] = p;
-          src[c] = dst[c] = q;
-          d[L.at(dst[0], dst[1], dst[2])] = sign * d[L.at(src[0], src[1], src[2])];
+      for (int q = 0; q <= L.n[c] + 1; ++q)
+        for (int p = 0; p <= L.n[b] + 1; ++p) {
+          const std::ptrdiff_t o = start + p * sb + q * sc;
+          d[o + shift] = sign * d[o];
         }
     }
   }
 }
 
 void Simulation::step() {
-  const double t_h = (n_ + 0.5) * dt_, t_e = (n_ + 1.0) * dt_;
+  step_h();
+  step_e();
+}
+
+void Simulation::step_h() {
+  const double t_h = (n_ + 0.5) * dt_;
   // Running DFTs are summed every dft_stride_ steps with weight dft_stride_ dt (see dft_stride()).
   const bool dft_now = n_ % dft_stride_ == 0;
   const double dft_dt = dft_stride_ * dt_;
@@ -301,6 +310,7 @@ void Simulation::step() {
   update_h(fields_, curls_);
   if (cpml_) cpml_->apply_h(fields_, dt_);
   for (auto& w : plane_waves_) w.apply_h(fields_);
+  for (auto& s : stages_) s->after_h(fields_);
   if (dft_now) {
     const auto phase = dft_phases(all_omegas_, t_h, dft_dt);
     for (std::size_t d = 0; d < dipoles_.size(); ++d) {
@@ -314,6 +324,12 @@ void Simulation::step() {
     for (auto& d : decay_) d.record(fields_, false, dft_phases(d.result_omegas(), t_h, dft_dt));
   }
   for (auto& p : probes_) p.record(fields_, false, t_h);
+}
+
+void Simulation::step_e() {
+  const double t_h = (n_ + 0.5) * dt_, t_e = (n_ + 1.0) * dt_;
+  const bool dft_now = n_ % dft_stride_ == 0;
+  const double dft_dt = dft_stride_ * dt_;
 
   fill_periodic_halos(false);
   if (!dispersive_->empty()) dispersive_->advance(fields_);
@@ -321,6 +337,7 @@ void Simulation::step() {
   if (cpml_) cpml_->apply_e(fields_, ecoef_, mindex_);
   for (const auto& d : dipoles_) d.apply_e(fields_, ecoef_, mindex_, t_h);
   for (auto& w : plane_waves_) w.apply_e(fields_, t_h);
+  for (auto& s : stages_) s->after_e(fields_, t_h);
   if (!dispersive_->empty()) dispersive_->correct(fields_);
   if (dft_now) {
     if (!plane_waves_.empty()) {
@@ -408,7 +425,9 @@ RunResults Simulation::run(const std::function<void(const Progress&)>& progress)
   return results();
 }
 
-RunResults Simulation::results() const {
+RunResults Simulation::results() const { return results(nullptr); }
+
+RunResults Simulation::results(const Simulation* imaginary) const {
   RunResults r;
   r.summary.steps = n_;
   r.summary.time_step = dt_;
@@ -427,8 +446,8 @@ RunResults Simulation::results() const {
   r.incident_spectra = incident_dft_;
   r.gaps = gaps_;
   for (const auto& p : probes_) r.probes.push_back(p.result());
-  for (const auto& m : maps_) r.field_maps.push_back(m.result());
-  for (const auto& f : fluxes_) r.fluxes.push_back(f.result());
+  for (std::size_t i = 0; i < maps_.size(); ++i) r.field_maps.push_back(maps_[i].result(imaginary ? &imaginary->maps_[i] : nullptr));
+  for (std::size_t i = 0; i < fluxes_.size(); ++i) r.fluxes.push_back(fluxes_[i].result(imaginary ? &imaginary->fluxes_[i] : nullptr));
   for (const auto& c : cross_) {
     std::vector<Complex> incident;
     for (double w : c.result_omegas()) {

@@ -23,6 +23,7 @@
 #include "solver/recorders.h"
 #include "solver/results.h"
 #include "solver/scene.h"
+#include "solver/stage.h"
 #include "solver/tfsf.h"
 #include "solver/yee_kernels.h"
 
@@ -71,15 +72,28 @@ class Simulation {
   static ModelSummary plan(const Scene& scene);
   /// Advances one full step (H then E).
   void step();
+  /// The two halves of step(), for runs that fill halos between them (Bloch cells: the real and
+  /// imaginary parts exchange their periodic copies, bloch_halos.h). step() = step_h(); step_e().
+  void step_h();
+  void step_e();
+  /// Adds work done after each half step's sources (see stage.h); the run shares ownership.
+  void add_stage(std::shared_ptr<Stage> s) { stages_.push_back(std::move(s)); }
   /// Runs until the stop rule holds; `progress` is called about twice a second.
   RunResults run(const std::function<void(const Progress&)>& progress = {});
   /// Collects the results at the current time (also usable after step()).
   RunResults results() const;
+  /// The same with the flux and field-map spectra of a complex (Bloch) field whose imaginary part
+  /// ran in `imaginary` (the same scene): E(omega) = E_re(omega) + i E_im(omega).
+  RunResults results(const Simulation* imaginary) const;
 
   // Access for tests and tools.
   const Grid& grid() const { return grid_; }
   Fields& fields() { return fields_; }
   double dt() const { return dt_; }
+  const Scene& scene() const { return scene_; }
+  const CurlCoefficients& curls() const { return curls_; }
+  const ECoefficients& e_update_coefficients() const { return ecoef_; }
+  const MaterialIndex& material_index() const { return mindex_; }
   long steps_done() const { return n_; }
   /// Field energy 1/2 sum (eps E^2 + mu0 H^2) dV over the interior, J (per unit length along
   /// invariant axes scaled by their cell size).
@@ -110,6 +124,7 @@ class Simulation {
   std::vector<CrossSectionRecorder> cross_;
   std::vector<FarFieldRecorder> far_;
   std::vector<DecayRateRecorder> decay_;
+  std::vector<std::shared_ptr<Stage>> stages_;
   std::vector<double> all_omegas_;                 // union of output frequencies, for source spectra
   std::vector<std::vector<Complex>> source_dft_;   // per dipole
   std::vector<std::vector<Complex>> incident_dft_; // per plane wave

@@ -1,0 +1,303 @@
+// Bloch run: preparation, lock-step time loop of the parts, and R, T, A (see bloch_run.h).
+// Per step, halos first (they read the interiors of both parts, which are complete):
+//   Bloch E halos -> real.step_h, imag.step_h -> incident problem step_h
+//   Bloch H halos -> real.step_e, imag.step_e -> incident problem step_e
+// The entry plane's H correction reads the incident E at step n and its E correction the incident
+// H at n+1/2, which is why the incident problem advances each half step after the main one.
+#include "solver/bloch_run.h"
+
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <set>
+
+#include <fmt/format.h>
+
+#include "base/constants.h"
+#include "base/errors.h"
+#include "solver/bloch_halos.h"
+#include "solver/mesh_plan.h"
+#include "solver/recorders.h"
+
+namespace yeegap::solver {
+
+namespace {
+
+constexpr long energy_interval = 20;  // as Simulation::run: a decay check every 20 steps
+
+void fill_halos(Simulation* re, Simulation* im, bool electric) {
+  if (im) fill_bloch_halos(re->fields(), im->fields(), re->grid(), re->scene().domain, electric);
+}
+
+FluxSpec plane_at(const std::string& name, const Grid& g, int axis, int node, const std::vector<double>& omegas) {
+  FluxSpec f;
+  f.name = name;
+  for (int a = 0; a < 3; ++a) {
+    f.region.lo[a] = a == axis ? g.nodes[a][node] : g.nodes[a].front();
+    f.region.hi[a] = a == axis ? g.nodes[a][node] : g.nodes[a].back();
+  }
+  f.omegas = omegas;
+  return f;
+}
+
+// Lateral area (m^2) of a flux plane normal to `axis`, as the flux recorder integrates it.
+double plane_area(const Grid& g, const FluxSpec& f, int axis) {
+  double area = 1;
+  for (int a = 0; a < 3; ++a) {
+    if (a == axis) continue;
+    const auto r = node_range(g, a, f.region.lo[a], f.region.hi[a]);
+    area *= g.nodes[a][r[1]] - g.nodes[a][r[0]];
+  }
+  return area;
+}
+
+// The incident problem: one lateral cell of the main grid's lateral spacing, the main grid's
+// nodes along the axis, the incident medium only, the same time step and absorber, and the Bloch
+// phase per cell of the main grid (on an axis of several cells that phase is k h, which a one-cell
+// axis reproduces with the wavevector 2 sin(k h / 2) / h: see bloch_phase()).
+Scene incident_scene(const Scene& main, const Grid& g, const BlochWavePlan& p, const std::vector<double>& omegas,
+                     double dt) {
+  Scene s;
+  s.file = main.file;
+  s.title = "incident wave";
+  DomainSpec& d = s.domain;
+  d = main.domain;
+  d.refine.clear();
+  d.gap_cells = 0;
+  d.time_step = dt;
+  d.background = 0;
+  for (int a = 0; a < 3; ++a) {
+    if (a == p.axis) {
+      d.nodes[a] = g.nodes[a];
+      continue;
+    }
+    const double h = g.primal(a, 0);
+    d.nodes[a] = {0.0, h};
+    d.size[a] = h, d.center[a] = 0.5 * h, d.step[a] = h;
+    const double k = main.domain.bloch_wavevector[a];
+    d.bloch_wavevector[a] = g.n[a] > 1 ? 2 * std::sin(0.5 * k * h) / h : k;
+  }
+  MaterialSpec m = main.materials[p.material];
+  s.materials = {m};
+  s.fluxes = {plane_at("incident", Grid::from_nodes(d.nodes, d), p.axis, p.entry, omegas)};
+  s.stop = main.stop;
+  return s;
+}
+
+}  // namespace
+
+Scene BlochRun::prepare(const Scene& original) {
+  Scene s = original;
+  if (s.bloch_waves.size() > 1) throw RunError(s.file + ": at most one plane_wave per run");
+  if (!s.bloch_waves.empty()) {
+    BlochWaveSpec& w = s.bloch_waves.front();
+    if (!w.scan_angles.empty()) throw RunError(s.file + ": an angle scan runs through run_angle_scan(), not BlochRun");
+    if (!s.plane_waves.empty())
+      throw RunError(fmt::format("{}: a plane_wave (Bloch cell) and a tfsf box cannot share a run", w.where.location()));
+    const Grid g = plan_mesh(s).grid;
+    const BlochWavePlan p = plan_bloch_wave(w, s, g);
+    s.domain.bloch_wavevector = p.k_parallel;
+    if (s.domain.absorber.alpha_max == 0)  // the CFS shift Simulation derives from its own sources
+      s.domain.absorber.alpha_max = 0.1 * (w.waveform.omega_min > 0 ? w.waveform.omega_min : w.waveform.omega_max) *
+                                    constants::eps0;
+    const std::size_t user = s.fluxes.size();
+    s.fluxes.push_back(plane_at("reflected", g, p.axis, p.reflected, w.omegas));
+    s.fluxes.push_back(plane_at("transmitted", g, p.axis, p.transmitted, w.omegas));
+    (void)user;
+  }
+  if (needs_imaginary_part(s.domain)) {
+    if (!s.cross_sections.empty() || !s.far_fields.empty() || !s.decay_rates.empty() || !s.plane_waves.empty())
+      throw RunError(fmt::format("{}: cross_sections, far_field, decay_rate and tfsf assume real fields; they cannot "
+                                 "run in a Bloch cell with a non-zero wavevector", s.file));
+    // The time step: the scene's own choice, lowered where the fixed lateral wavenumber needs it.
+    const Grid g = plan_mesh(s).grid;
+    const double limit = bloch_courant_limit(g, s.domain);
+    const double own = Simulation::plan(s).time_step;
+    if (s.domain.time_step > limit)
+      throw RunError(fmt::format("{}: domain.time_step {:.6g} s is above the limit {:.6g} s with the Bloch wavevector",
+                                 s.file, s.domain.time_step, limit));
+    s.domain.time_step = std::min(own, s.domain.courant_safety * limit);
+  }
+  return s;
+}
+
+BlochRun::BlochRun(const Scene& scene) : scene_(prepare(scene)) {
+  re_ = std::make_unique<Simulation>(scene_);
+  const bool complex = needs_imaginary_part(scene_.domain);
+  if (complex) {
+    Scene imag = scene_;
+    imag.dipoles.clear();  // a real source drives the real part; the imaginary part follows by the halos
+    im_ = std::make_unique<Simulation>(imag);
+  }
+  if (scene_.bloch_waves.empty()) return;
+  wave_ = true;
+  const BlochWaveSpec& w = scene_.bloch_waves.front();
+  const Grid& g = re_->grid();
+  plan_ = plan_bloch_wave(w, scene_, g);
+  user_fluxes_ = scene_.fluxes.size() - 2;
+  std::set<double> omegas(w.omegas.begin(), w.omegas.end());
+  for (std::size_t i = 0; i < user_fluxes_; ++i) omegas.insert(scene_.fluxes[i].omegas.begin(), scene_.fluxes[i].omegas.end());
+  const Scene inc = incident_scene(scene_, g, plan_, {omegas.begin(), omegas.end()}, re_->dt());
+  inc_re_ = std::make_unique<Simulation>(inc);
+  if (complex) inc_im_ = std::make_unique<Simulation>(inc);
+  BlochWavePlan aux = plan_;
+  aux.material = 0;
+  for (int part = 0; part < (complex ? 2 : 1); ++part) {
+    Simulation& a = part == 0 ? *inc_re_ : *inc_im_;
+    a.add_stage(std::make_shared<BlochWaveSheet>(aux, a.grid(), a.fields().layout, a.curls(), a.e_update_coefficients(),
+                                                 a.scene().domain, w.waveform, part));
+    Simulation& m = part == 0 ? *re_ : *im_;
+    m.add_stage(std::make_shared<BlochWaveEntry>(plan_, m.grid(), m.fields().layout, m.curls(), m.e_update_coefficients(),
+                                                 m.material_index(), m.scene().domain, part, &inc_re_->fields(),
+                                                 inc_im_ ? &inc_im_->fields() : nullptr));
+  }
+}
+
+BlochRun::~BlochRun() = default;
+
+void BlochRun::step() {
+  Simulation* re = re_.get();
+  Simulation* im = im_.get();
+  fill_halos(re, im, true);
+  re->step_h();
+  if (im) im->step_h();
+  if (inc_re_) {
+    fill_halos(inc_re_.get(), inc_im_.get(), true);
+    inc_re_->step_h();
+    if (inc_im_) inc_im_->step_h();
+  }
+  fill_halos(re, im, false);
+  re->step_e();
+  if (im) im->step_e();
+  if (inc_re_) {
+    fill_halos(inc_re_.get(), inc_im_.get(), false);
+    inc_re_->step_e();
+    if (inc_im_) inc_im_->step_e();
+  }
+  ++n_;
+}
+
+RunResults BlochRun::run(const std::function<void(const Progress&)>& progress) {
+  using clock = std::chrono::steady_clock;
+  const StopSpec& st = scene_.stop;
+  const double dt = re_->dt();
+  const long after_steps = st.after > 0 ? static_cast<long>(std::ceil(st.after / dt)) : -1;
+  double source_end = 0;
+  for (const auto& d : scene_.dipoles) source_end = std::max(source_end, SourceTime(d.waveform).end_time());
+  for (const auto& w : scene_.bloch_waves) source_end = std::max(source_end, SourceTime(w.waveform).end_time());
+  const long planned = after_steps >= 0 ? after_steps : plan(scene_).steps;
+  auto energy = [&] { return re_->field_energy() + (im_ ? im_->field_energy() : 0.0); };
+  const auto start = clock::now();
+  auto last_report = start;
+  stop_reason_.clear();
+  while (stop_reason_.empty()) {
+    step();
+    if (after_steps >= 0 && n_ >= after_steps) stop_reason_ = "time";
+    else if (n_ >= st.max_steps) stop_reason_ = "max_steps";
+    else if (st.decayed > 0 && n_ % energy_interval == 0) {
+      last_energy_ = energy();
+      peak_energy_ = std::max(peak_energy_, last_energy_);
+      if (n_ * dt > source_end && peak_energy_ > 0 && last_energy_ < st.decayed * peak_energy_) stop_reason_ = "decayed";
+    }
+    if (progress && (n_ & 15) == 0) {
+      const auto now = clock::now();
+      if (std::chrono::duration<double>(now - last_report).count() > 0.5) {
+        last_report = now;
+        Progress p;
+        p.step = n_;
+        p.planned_steps = std::max(planned, n_);
+        const double elapsed = std::chrono::duration<double>(now - start).count();
+        p.steps_per_second = n_ / elapsed;
+        p.cells_per_second = p.steps_per_second * static_cast<double>(re_->grid().cell_count());
+        p.eta_seconds = (p.planned_steps - n_) / p.steps_per_second;
+        progress(p);
+      }
+    }
+  }
+  wall_seconds_ = std::chrono::duration<double>(clock::now() - start).count();
+  if (st.decayed > 0 || peak_energy_ == 0) {
+    last_energy_ = energy();
+    peak_energy_ = std::max(peak_energy_, last_energy_);
+  }
+  return results();
+}
+
+RunResults BlochRun::results() const {
+  RunResults r = re_->results(im_.get());
+  const double dt = re_->dt();
+  r.summary.steps = n_;
+  r.summary.simulated_time = n_ * dt;
+  r.summary.wall_seconds = wall_seconds_;
+  r.summary.cell_updates_per_second =
+      wall_seconds_ > 0 ? n_ * static_cast<double>(re_->grid().cell_count()) * (im_ ? 2 : 1) / wall_seconds_ : 0;
+  r.summary.stop_reason = stop_reason_;
+  r.summary.final_energy_fraction = peak_energy_ > 0 ? last_energy_ / peak_energy_ : 0;
+  if (!wave_) return r;
+
+  const Grid& g = re_->grid();
+  const BlochWaveSpec& w = scene_.bloch_waves.front();
+  // Incident intensity per frequency (W s^2 / m^2 in DFT units): the incident problem's power
+  // through its entry plane over that plane's area, counted along the travel.
+  const FluxResult inc = inc_re_->results(inc_im_.get()).fluxes.front();
+  const double inc_area = plane_area(inc_re_->grid(), inc_re_->scene().fluxes.front(), plan_.axis);
+  auto intensity = [&](double omega) {
+    const auto it = std::find(inc.omegas.begin(), inc.omegas.end(), omega);
+    YG_CHECK(it != inc.omegas.end(), "the incident problem records every output frequency");
+    return plan_.sign * inc.power[it - inc.omegas.begin()] / inc_area;
+  };
+  for (std::size_t i = 0; i < user_fluxes_; ++i) {
+    FluxResult& f = r.fluxes[i];
+    if (f.closed || f.normal_axis != plan_.axis) continue;
+    const double area = plane_area(g, scene_.fluxes[i], plan_.axis);
+    for (std::size_t q = 0; q < f.omegas.size(); ++q)
+      f.fraction.push_back(plan_.sign * f.power[q] / (intensity(f.omegas[q]) * area));
+  }
+  const FluxResult& refl = r.fluxes[user_fluxes_];
+  const FluxResult& trans = r.fluxes[user_fluxes_ + 1];
+  const double area = plane_area(g, scene_.fluxes[user_fluxes_], plan_.axis);
+  ReflectanceResult out;
+  out.name = "plane_wave";
+  out.p_polarised = w.p_polarised;
+  out.incident_index = plan_.index;
+  const double k = norm(plan_.k_parallel);
+  for (std::size_t q = 0; q < w.omegas.size(); ++q) {
+    const double omega = w.omegas[q];
+    const double p_inc = intensity(omega) * area;
+    out.omegas.push_back(omega);
+    out.angles.push_back(bloch_wave_angle(k, plan_.index, omega));
+    out.k_parallel.push_back(k);
+    const double R = -plan_.sign * refl.power[q] / p_inc, T = plan_.sign * trans.power[q] / p_inc;
+    out.reflectance.push_back(R);
+    out.transmittance.push_back(T);
+    out.absorptance.push_back(1 - R - T);
+  }
+  r.reflectance.push_back(std::move(out));
+  r.fluxes.resize(user_fluxes_);
+  return r;
+}
+
+ModelSummary BlochRun::plan(const Scene& scene) {
+  const Scene s = prepare(scene);
+  ModelSummary m = Simulation::plan(s);
+  const bool complex = needs_imaginary_part(s.domain);
+  if (complex) {
+    m.memory_bytes *= 2;
+    m.mesh_notes.push_back(fmt::format("complex fields (Bloch wavevector ({:.6g}, {:.6g}, {:.6g}) rad/um): real and "
+                                       "imaginary parts, twice the memory and time",
+                                       s.domain.bloch_wavevector.x * 1e-6, s.domain.bloch_wavevector.y * 1e-6,
+                                       s.domain.bloch_wavevector.z * 1e-6));
+  }
+  if (!s.bloch_waves.empty()) {
+    const BlochWaveSpec& w = s.bloch_waves.front();
+    const Grid g = plan_mesh(s).grid;
+    const BlochWavePlan p = plan_bloch_wave(w, s, g);
+    if (m.steps_estimated) m.steps += static_cast<long>(std::ceil(SourceTime(w.waveform).end_time() / m.time_step));
+    m.mesh_notes.push_back(fmt::format("plane wave from the {} side along {} in '{}' (n = {:.4g}) at {:.4g} deg, "
+                                       "entry plane at node {}; incident wave from an auxiliary 1 x 1 x {} problem",
+                                       w.sign > 0 ? "low" : "high", "xyz"[w.axis], s.materials[p.material].name, p.index,
+                                       w.angle * 180 / constants::pi, p.entry, g.n[w.axis]));
+  }
+  return m;
+}
+
+}  // namespace yeegap::solver

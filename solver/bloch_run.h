@@ -1,0 +1,60 @@
+// A run on a Bloch-periodic cell with a non-zero in-plane wavevector (physics.md 3.7): two
+// Simulations of the same scene hold the real and imaginary parts of the complex fields and meet
+// only at the periodic copies (bloch_halos.h); with k = 0 the imaginary part is never built. A
+// plane_wave adds a third and fourth, small, auxiliary problem (the incident wave alone, one
+// lateral cell: bloch_wave.h) that feeds the entry plane and measures the incident power, so the
+// fluxes become reflectance, transmittance and absorptance without a separate reference run.
+#pragma once
+
+#include <functional>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "solver/bloch_wave.h"
+#include "solver/simulation.h"
+
+namespace yeegap::solver {
+
+class BlochRun {
+ public:
+  /// `scene` may hold one plane_wave (bloch_waves) without an angle list, dipoles, probes, field
+  /// maps and fluxes; cross sections, far fields, decay rates and tfsf boxes are refused when the
+  /// wavevector is not zero (they assume real fields).
+  explicit BlochRun(const Scene& scene);
+  BlochRun(const BlochRun&) = delete;
+  BlochRun& operator=(const BlochRun&) = delete;
+  ~BlochRun();
+
+  /// The scene as it runs: the Bloch wavevector set from the plane wave's angle, a time step that
+  /// is stable with it, the CPML shift from the wave's band, and the reflected and transmitted
+  /// power planes added after the user's fluxes. Throws RunError for what cannot run.
+  static Scene prepare(const Scene& scene);
+  /// Figures for `yeegap check`, with notes on the complex fields and the auxiliary problem.
+  static ModelSummary plan(const Scene& scene);
+
+  void step();
+  RunResults run(const std::function<void(const Progress&)>& progress = {});
+  RunResults results() const;
+
+  Simulation& real_part() { return *re_; }
+  Simulation* imaginary_part() { return im_.get(); }
+  Simulation* incident_real_part() { return inc_re_.get(); }
+  Simulation* incident_imaginary_part() { return inc_im_.get(); }
+  const BlochWavePlan* wave_plan() const { return wave_ ? &plan_ : nullptr; }
+  long steps_done() const { return n_; }
+  double dt() const { return re_->dt(); }
+
+ private:
+  Scene scene_;
+  bool wave_ = false;
+  BlochWavePlan plan_;
+  std::size_t user_fluxes_ = 0;    // the user's fluxes come first; then reflected, transmitted
+  std::unique_ptr<Simulation> re_, im_, inc_re_, inc_im_;
+  long n_ = 0;
+  double wall_seconds_ = 0;
+  std::string stop_reason_;
+  double peak_energy_ = 0, last_energy_ = 0;
+};
+
+}  // namespace yeegap::solver
