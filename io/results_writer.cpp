@@ -13,6 +13,7 @@
 #include <filesystem>
 #include <stdexcept>
 
+#include "base/constants.h"
 #include "base/units.h"
 #include "io/h5.h"
 
@@ -257,6 +258,39 @@ void write_flux(const h5::Group& outputs, const solver::FluxResult& x) {
       .set_attribute("description",
                      "0.5 Re of the surface integral of E x conj(H) from DFT spectra; outward for a closed box, "
                      "towards +normal_axis for a plane");
+  if (!x.fraction.empty()) {
+    require(x.fraction.size() == x.omegas.size(), fmt::format("flux '{}' has {} fractions for {} frequencies", x.name,
+                                                              x.fraction.size(), x.omegas.size()));
+    with_units(g.write("fraction", x.fraction), "1")
+        .set_attribute("description", "power over the plane wave's incident power through the same area, positive "
+                                      "along the incident direction");
+  }
+}
+
+void write_reflectance(const h5::Group& outputs, const solver::ReflectanceResult& x) {
+  check_output_name(outputs, x.name);
+  const std::size_t n = x.omegas.size();
+  require(x.angles.size() == n && x.k_parallel.size() == n && x.reflectance.size() == n && x.transmittance.size() == n &&
+              x.absorptance.size() == n,
+          fmt::format("reflectance '{}' has arrays that do not match its {} rows", x.name, n));
+  const h5::Group g = outputs.create_group(x.name);
+  g.set_attribute("kind", "reflectance");
+  g.set_attribute("angle_scan", std::int32_t{x.angle_scan ? 1 : 0});
+  g.set_attribute("polarization", x.p_polarised ? "p" : "s");
+  g.set_attribute("incident_index", x.incident_index);
+  write_frequency_axes(g, x.omegas);
+  with_units(g.write("angle", x.angles), "rad")
+      .set_attribute("description", "angle of incidence of each row, from the axis, in the incident medium");
+  std::vector<double> deg;
+  for (double a : x.angles) deg.push_back(a * 180 / constants::pi);
+  with_units(g.write("angle_deg", deg), "deg").set_attribute("description", "the same in degrees");
+  with_units(g.write("k_parallel", x.k_parallel), "rad/m")
+      .set_attribute("description", "in-plane wavevector of each row's run (fixed within one run)");
+  with_units(g.write("reflectance", x.reflectance), "1")
+      .set_attribute("description", "reflected power over incident power");
+  with_units(g.write("transmittance", x.transmittance), "1")
+      .set_attribute("description", "power through the far side over incident power");
+  with_units(g.write("absorptance", x.absorptance), "1").set_attribute("description", "1 - reflectance - transmittance");
 }
 
 void write_cross_sections(const h5::Group& outputs, const solver::CrossSectionResult& x) {
@@ -398,6 +432,7 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   for (const auto& x : r.cross_sections) write_cross_sections(outputs, x);
   for (const auto& x : r.far_fields) write_far_field(outputs, x);
   for (const auto& x : r.decay_rates) write_decay_rate(outputs, x);
+  for (const auto& x : r.reflectance) write_reflectance(outputs, x);
 }
 
 /// Forces the file's bytes to disk, so the rename cannot expose an empty file after a crash.

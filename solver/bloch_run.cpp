@@ -24,6 +24,30 @@ namespace yeegap::solver {
 namespace {
 
 constexpr long energy_interval = 20;  // as Simulation::run: a decay check every 20 steps
+// Widest band (half-width over the centre) a one-frequency run uses: a shorter pulse than this
+// gains little, since the run's length is then set by the structure's ring-down.
+constexpr double widest_relative_half_width = 0.1;
+
+// Band of the pulse of a one-frequency run. With k_par fixed, frequency omega_m = c k_par / n_m
+// runs at grazing incidence in each lossless medium m (physics.md 3.7): such a wave never leaves the
+// cell and the absorbers barely take it, so it must carry no power. Keeping every omega_m at least
+// two half-widths from the centre puts it where the Gaussian spectrum holds 1e-8 of its peak power
+// (the band edges hold 1e-2, waveform.h).
+void narrow_band(BlochWaveSpec& w, const Scene& s, double k_par) {
+  const double w0 = w.reference_omega;
+  double half = widest_relative_half_width * w0;
+  for (const MaterialSpec& m : s.materials) {
+    if (m.poles.dispersive() || m.perfect_conductor || !(m.poles.eps_inf > 0)) continue;
+    const double grazing = constants::c0 * k_par / std::sqrt(m.poles.eps_inf);
+    if (grazing > 0) half = std::min(half, 0.5 * std::abs(grazing - w0));
+  }
+  if (!(half > 1e-4 * w0))
+    throw RunError(fmt::format("{}: at {:.4g} deg the wave runs along one of the media (grazing) at the requested "
+                               "frequency itself; pick another angle", w.where.location(), w.angle * 180 / constants::pi));
+  w.waveform.kind = Waveform::Kind::pulse;
+  w.waveform.omega_min = w0 - half;
+  w.waveform.omega_max = w0 + half;
+}
 
 void fill_halos(Simulation* re, Simulation* im, bool electric) {
   if (im) fill_bloch_halos(re->fields(), im->fields(), re->grid(), re->scene().domain, electric);
@@ -51,11 +75,38 @@ double plane_area(const Grid& g, const FluxSpec& f, int axis) {
   return area;
 }
 
+// Cells the incident problem keeps beyond its entry plane before its own absorber: it only needs
+// the wave's values at the plane, and a few clear cells keep the absorber's tiny reflection away.
+constexpr int incident_margin = 4;
+
+// Node coordinates of the incident problem along the axis: the main grid's from its absorber on the
+// entry side to a few cells past the entry plane, then an absorber of the same cells (its own
+// spacing repeated). Sets p.aux_offset (main index - incident index).
+std::vector<double> incident_nodes(const Scene& main, const Grid& g, BlochWavePlan& p) {
+  const auto& v = g.nodes[p.axis];
+  const int n = g.n[p.axis], cells = main.domain.absorber.cells;
+  std::vector<double> out;
+  if (p.sign > 0) {
+    const int last = std::min(n, p.entry + incident_margin);
+    out.assign(v.begin(), v.begin() + last + 1);
+    const double h = v[last] - v[last - 1];
+    for (int i = 1; i <= cells; ++i) out.push_back(v[last] + i * h);
+    p.aux_offset = 0;
+  } else {
+    const int first = std::max(0, p.entry - incident_margin);
+    const double h = v[first + 1] - v[first];
+    for (int i = cells; i >= 1; --i) out.push_back(v[first] - i * h);
+    out.insert(out.end(), v.begin() + first, v.end());
+    p.aux_offset = first - cells;
+  }
+  return out;
+}
+
 // The incident problem: one lateral cell of the main grid's lateral spacing, the main grid's
-// nodes along the axis, the incident medium only, the same time step and absorber, and the Bloch
-// phase per cell of the main grid (on an axis of several cells that phase is k h, which a one-cell
-// axis reproduces with the wavevector 2 sin(k h / 2) / h: see bloch_phase()).
-Scene incident_scene(const Scene& main, const Grid& g, const BlochWavePlan& p, const std::vector<double>& omegas,
+// nodes along the axis around the entry plane, the incident medium only, the same time step and
+// absorber, and the Bloch phase per cell of the main grid (on an axis of several cells that phase
+// is k h, which a one-cell axis reproduces with the wavevector 2 sin(k h / 2) / h: bloch_phase()).
+Scene incident_scene(const Scene& main, const Grid& g, BlochWavePlan& p, const std::vector<double>& omegas,
                      double dt) {
   Scene s;
   s.file = main.file;
@@ -68,7 +119,9 @@ Scene incident_scene(const Scene& main, const Grid& g, const BlochWavePlan& p, c
   d.background = 0;
   for (int a = 0; a < 3; ++a) {
     if (a == p.axis) {
-      d.nodes[a] = g.nodes[a];
+      d.nodes[a] = incident_nodes(main, g, p);
+      d.size[a] = d.nodes[a].back() - d.nodes[a].front();
+      d.center[a] = 0.5 * (d.nodes[a].back() + d.nodes[a].front());
       continue;
     }
     const double h = g.primal(a, 0);
@@ -79,7 +132,7 @@ Scene incident_scene(const Scene& main, const Grid& g, const BlochWavePlan& p, c
   }
   MaterialSpec m = main.materials[p.material];
   s.materials = {m};
-  s.fluxes = {plane_at("incident", Grid::from_nodes(d.nodes, d), p.axis, p.entry, omegas)};
+  s.fluxes = {plane_at("incident", Grid::from_nodes(d.nodes, d), p.axis, p.entry - p.aux_offset, omegas)};
   s.stop = main.stop;
   return s;
 }
@@ -97,6 +150,7 @@ Scene BlochRun::prepare(const Scene& original) {
     const Grid g = plan_mesh(s).grid;
     const BlochWavePlan p = plan_bloch_wave(w, s, g);
     s.domain.bloch_wavevector = p.k_parallel;
+    if (w.single_frequency) narrow_band(w, s, norm(p.k_parallel));
     if (s.domain.absorber.alpha_max == 0)  // the CFS shift Simulation derives from its own sources
       s.domain.absorber.alpha_max = 0.1 * (w.waveform.omega_min > 0 ? w.waveform.omega_min : w.waveform.omega_max) *
                                     constants::eps0;
@@ -140,8 +194,11 @@ BlochRun::BlochRun(const Scene& scene) : scene_(prepare(scene)) {
   const Scene inc = incident_scene(scene_, g, plan_, {omegas.begin(), omegas.end()}, re_->dt());
   inc_re_ = std::make_unique<Simulation>(inc);
   if (complex) inc_im_ = std::make_unique<Simulation>(inc);
-  BlochWavePlan aux = plan_;
+  BlochWavePlan aux = plan_;  // the same plane in the incident problem's own indices
   aux.material = 0;
+  aux.entry -= plan_.aux_offset;
+  aux.sheet -= plan_.aux_offset;
+  aux.aux_offset = 0;
   for (int part = 0; part < (complex ? 2 : 1); ++part) {
     Simulation& a = part == 0 ? *inc_re_ : *inc_im_;
     a.add_stage(std::make_shared<BlochWaveSheet>(aux, a.grid(), a.fields().layout, a.curls(), a.e_update_coefficients(),
@@ -292,10 +349,12 @@ ModelSummary BlochRun::plan(const Scene& scene) {
     const Grid g = plan_mesh(s).grid;
     const BlochWavePlan p = plan_bloch_wave(w, s, g);
     if (m.steps_estimated) m.steps += static_cast<long>(std::ceil(SourceTime(w.waveform).end_time() / m.time_step));
+    BlochWavePlan q = p;
+    const std::size_t aux_cells = incident_nodes(s, g, q).size() - 1;
     m.mesh_notes.push_back(fmt::format("plane wave from the {} side along {} in '{}' (n = {:.4g}) at {:.4g} deg, "
                                        "entry plane at node {}; incident wave from an auxiliary 1 x 1 x {} problem",
                                        w.sign > 0 ? "low" : "high", "xyz"[w.axis], s.materials[p.material].name, p.index,
-                                       w.angle * 180 / constants::pi, p.entry, g.n[w.axis]));
+                                       w.angle * 180 / constants::pi, p.entry, aux_cells));
   }
   return m;
 }

@@ -151,7 +151,7 @@ BlochWaveEntry::BlochWaveEntry(const BlochWavePlan& p, const Grid& g, const Bloc
   const BlockLayout& A = aux_re->layout;
   auto aux_at = [&](int node) {
     std::array<int, 3> idx{0, 0, 0};
-    idx[a] = node;
+    idx[a] = node - p.aux_offset;
     return A.at(idx[0], idx[1], idx[2]);
   };
   const double cbce = ec.cb[p.material] * curls.e[a][p.entry];

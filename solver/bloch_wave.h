@@ -29,6 +29,7 @@ struct BlochWavePlan {
   int reflected = 0;               // node of the plane that sees the reflected wave alone
   int transmitted = 0;             // node of the plane just before the far absorber
   int sheet = 0;                   // node of the current sheet in the auxiliary problem
+  int aux_offset = 0;              // main node index - incident problem's node index along the axis
   int material = 0;                // the incident medium (index into Scene::materials)
   double index = 1;                // its refractive index
   double reference_omega = 0;      // rad/s

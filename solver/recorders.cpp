@@ -102,6 +102,18 @@ FieldMapRecorder::FieldMapRecorder(const FieldMapSpec& spec, const Grid& g, cons
     for (int a = 0; a < 3; ++a)
       idx[a] = g.invariant(a) ? std::vector<int>{0}
                               : sample_indices(g, a, nodes_[a][0], nodes_[a][1], staggered(c, a));
+    // Periods each list entry was wrapped by (periodic axes): a Bloch field takes their phase.
+    std::array<std::vector<int>, 3> wraps;
+    for (int a = 0; a < 3; ++a) {
+      if (g.invariant(a) || !g.periodic[a]) {
+        wraps[a].assign(idx[a].size(), 0);
+        continue;
+      }
+      const bool half = staggered(c, a);
+      for (int i = half ? nodes_[a][0] - 1 : nodes_[a][0]; i <= nodes_[a][1]; ++i)
+        wraps[a].push_back(i >= 0 ? i / g.n[a] : -((-i + g.n[a] - 1) / g.n[a]));
+    }
+    wraps_.push_back(std::move(wraps));
     boxes_.emplace_back(c, L, std::move(idx), 0, spec.omegas.size());
   }
 }
@@ -111,7 +123,7 @@ void FieldMapRecorder::record(const Fields& f, bool electric, const std::vector<
     if (is_electric(b.component()) == electric) b.accumulate(f, phase);
 }
 
-FieldMapResult FieldMapRecorder::result(const FieldMapRecorder* imaginary) const {
+FieldMapResult FieldMapRecorder::result(const FieldMapRecorder* imaginary, const std::array<double, 3>& bloch_phase) const {
   FieldMapResult r;
   r.name = spec_.name;
   r.x = x_, r.y = y_, r.z = z_;
@@ -123,8 +135,11 @@ FieldMapResult FieldMapRecorder::result(const FieldMapRecorder* imaginary) const
     for (std::size_t bi = 0; bi < boxes_.size(); ++bi) {
       const DftBox& b = boxes_[bi];
       const DftBox* bim = imaginary ? &imaginary->boxes_[bi] : nullptr;
+      const auto& wr = wraps_[bi];
       auto value = [&](std::size_t i, std::size_t j, std::size_t k) {
-        return bim ? b.at(i, j, k, fq) + Complex(0, 1) * bim->at(i, j, k, fq) : b.at(i, j, k, fq);
+        const Complex v = bim ? b.at(i, j, k, fq) + Complex(0, 1) * bim->at(i, j, k, fq) : b.at(i, j, k, fq);
+        const double phase = wr[0][i] * bloch_phase[0] + wr[1][j] * bloch_phase[1] + wr[2][k] * bloch_phase[2];
+        return phase == 0 ? v : v * std::polar(1.0, phase);
       };
       std::vector<Complex> v(nx * ny * nz);
       // A staggered axis's list starts one position below the first node: node p is the mean of

@@ -139,6 +139,8 @@ struct BlochWaveSpec {
   bool position_given = false;    // false: a few cells inside the absorber on the entry side
   std::vector<double> omegas;     // rad/s, frequencies of the R, T, A table
   std::vector<double> scan_angles;  // rad; non-empty: one run per angle at reference_omega
+  bool single_frequency = false;  // one output frequency: the run picks the pulse's band itself,
+                                  // narrow enough to keep grazing frequencies out (bloch_run.cpp)
   Where where;
 };
 

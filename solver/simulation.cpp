@@ -446,7 +446,10 @@ RunResults Simulation::results(const Simulation* imaginary) const {
   r.incident_spectra = incident_dft_;
   r.gaps = gaps_;
   for (const auto& p : probes_) r.probes.push_back(p.result());
-  for (std::size_t i = 0; i < maps_.size(); ++i) r.field_maps.push_back(maps_[i].result(imaginary ? &imaginary->maps_[i] : nullptr));
+  std::array<double, 3> phases{};
+  for (int a = 0; a < 3; ++a) phases[a] = imaginary ? bloch_phase(grid_, scene_.domain, a) : 0.0;
+  for (std::size_t i = 0; i < maps_.size(); ++i)
+    r.field_maps.push_back(maps_[i].result(imaginary ? &imaginary->maps_[i] : nullptr, phases));
   for (std::size_t i = 0; i < fluxes_.size(); ++i) r.fluxes.push_back(fluxes_[i].result(imaginary ? &imaginary->fluxes_[i] : nullptr));
   for (const auto& c : cross_) {
     std::vector<Complex> incident;

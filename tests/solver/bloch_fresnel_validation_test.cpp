@@ -128,7 +128,9 @@ TEST(BlochPlaneWave, GlassToAirBeyondTheCriticalAngleReflectsEverything) {
     const double expected = angle_deg < 41 ? fresnel_R(1.5, 1.0, angle_deg * deg, false) : 1.0;
     EXPECT_NEAR(t.reflectance[0], expected, 1e-3) << angle_deg;
     EXPECT_NEAR(t.incident_index, 1.5, 1e-12);
-    if (angle_deg > 41) EXPECT_NEAR(t.transmittance[0], 0.0, 1e-4);
+    if (angle_deg > 41) {
+      EXPECT_NEAR(t.transmittance[0], 0.0, 1e-4);
+    }
   }
 }
 

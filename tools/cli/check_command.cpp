@@ -9,7 +9,7 @@
 #include "commands.h"
 #include "io/scene_reader.h"
 #include "json.h"
-#include "solver/simulation.h"
+#include "solver/run_scene.h"
 
 namespace yeegap::cli {
 
@@ -55,7 +55,7 @@ double uniform_cells_at(const solver::Scene& scene, const solver::ModelSummary& 
 
 int run_check(const CheckOptions& o) {
   const solver::Scene scene = io::read_scene_file(o.scene, o.overrides);
-  const solver::ModelSummary m = solver::Simulation::plan(scene);
+  const solver::ModelSummary m = solver::plan_scene(scene);
   const double cost_seconds = static_cast<double>(m.cell_count) * m.steps / assumed_cell_updates_per_second;
   const double uniform = uniform_cells_at(scene, m);
   if (o.json) {

@@ -17,7 +17,7 @@
 #include "io/scene_reader.h"
 #include "json.h"
 #include "progress.h"
-#include "solver/simulation.h"
+#include "solver/run_scene.h"
 #include "viewer_outputs.h"
 
 namespace yeegap::cli {
@@ -73,10 +73,30 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
         row.number("relative_to_dipole_alone", rel_power);
         rel = fmt::format("  ({:.4f} x the dipole alone)", rel_power);
       }
+      if (!f.fraction.empty()) {
+        row.number("fraction_of_incident", f.fraction[q]);
+        rel += fmt::format("  ({:.5f} of the incident power)", f.fraction[q]);
+      }
       std::fprintf(stderr, "    %8.2f nm  %.5g%s\n", lambda_nm, f.power[q], rel.c_str());
       rows.push_back(row.str());
     }
     outs.add(f.name, json_array(rows));
+  }
+  for (const auto& t : r.reflectance) {
+    std::vector<std::string> rows;
+    std::fprintf(stderr, "  %s (%s, incident index %.4g)%s: wavelength, angle, R, T, A\n", t.name.c_str(),
+                 t.p_polarised ? "p" : "s", t.incident_index, t.angle_scan ? ", angle scan" : ", each frequency at its own angle");
+    for (std::size_t q = 0; q < t.omegas.size(); ++q) {
+      const double lambda_nm = 2 * constants::pi * constants::c0 / t.omegas[q] * 1e9;
+      const double angle_deg = t.angles[q] * 180 / constants::pi;
+      JsonObject row;
+      row.number("wavelength_nm", lambda_nm).number("angle_deg", angle_deg).number("R", t.reflectance[q])
+          .number("T", t.transmittance[q]).number("A", t.absorptance[q]);
+      rows.push_back(row.str());
+      std::fprintf(stderr, "    %8.2f nm  %7.3f deg  %.5f  %.5f  %.5f\n", lambda_nm, angle_deg, t.reflectance[q],
+                   t.transmittance[q], t.absorptance[q]);
+    }
+    outs.add(t.name, json_array(rows));
   }
   for (const auto& g : r.gaps) {
     const auto body_name = [&](int i) {
@@ -191,15 +211,14 @@ int run_scene(const RunOptions& o) {
   const int threads = omp_get_max_threads();
   const std::string started = now_iso8601();
 
-  solver::Simulation sim(scene);
-  const solver::ModelSummary plan = sim.summary();
+  const solver::ModelSummary plan = solver::plan_scene(scene);
   std::fprintf(stderr, "yeegap: %s: %d x %d x %d cells, dt %.4g fs, %s%ld steps, %.1f MB, %d thread%s\n", o.scene.c_str(),
                plan.cells[0], plan.cells[1], plan.cells[2], plan.time_step * 1e15, plan.steps_estimated ? "about " : "",
                plan.steps, plan.memory_bytes / 1e6, threads, threads == 1 ? "" : "s");
   solver::RunResults results;
   {
     ProgressLine progress;
-    results = sim.run([&](const solver::Progress& p) { progress.update(p); });
+    results = solver::run_scene(scene, [&](const solver::Progress& p) { progress.update(p); });
   }
   io::write_results(output, results, scene, {YEEGAP_VERSION, o.command_line, started, threads});
   write_viewer_file(output);  // a failure is reported; the results are safe either way
