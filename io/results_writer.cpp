@@ -3,7 +3,6 @@
 // (like any failure) leaves no .partial file and no damage to an older results file.
 #include "io/results_writer.h"
 
-#include <fcntl.h>
 #include <fmt/format.h>
 #include <unistd.h>
 
@@ -17,6 +16,7 @@
 #include <stdexcept>
 
 #include "base/units.h"
+#include "io/atomic_file.h"
 #include "io/h5.h"
 
 namespace yeegap::io {
@@ -430,25 +430,6 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   for (const auto& x : r.decay_rates) write_decay_rate(outputs, x);
 }
 
-/// Forces the file's bytes to disk, so the rename cannot expose an empty file after a crash.
-void sync_file(const std::string& path) {
-  const int fd = ::open(path.c_str(), O_RDONLY);
-  if (fd < 0 || ::fsync(fd) != 0) {
-    const int err = errno;
-    if (fd >= 0) ::close(fd);
-    throw std::runtime_error(fmt::format("cannot flush '{}' to disk: {}", path, std::strerror(err)));
-  }
-  ::close(fd);
-}
-
-/// Makes the rename itself durable; best effort, since some file systems refuse fsync on a directory.
-void sync_directory(const fs::path& dir) {
-  const int fd = ::open(dir.empty() ? "." : dir.c_str(), O_RDONLY | O_DIRECTORY);
-  if (fd < 0) return;
-  ::fsync(fd);
-  ::close(fd);
-}
-
 }  // namespace
 
 void check_writable(const std::string& path) {
@@ -474,7 +455,7 @@ void check_writable(const std::string& path) {
 
 void write_results(const std::string& path, const solver::RunResults& results, const solver::Scene& scene,
                    const WriteInfo& info) {
-  const std::string partial = path + ".partial";
+  const std::string partial = partial_path(path);
   bool partial_is_ours = false;  // never remove something of that name that we did not create
   try {
     {
@@ -483,10 +464,8 @@ void write_results(const std::string& path, const solver::RunResults& results, c
       write_layout(file, results, scene, info);
       file.close();  // every group and dataset above is closed by now, as File::close requires
     }
-    sync_file(partial);
-    fs::rename(partial, path);  // atomic replacement of an older file within one file system (POSIX)
+    commit_file(partial, path);
     partial_is_ours = false;
-    sync_directory(fs::path(path).parent_path());
   } catch (const std::exception& e) {
     if (partial_is_ours) {
       std::error_code ec;

@@ -23,6 +23,7 @@
 #include "solver/recorders.h"
 #include "solver/results.h"
 #include "solver/scene.h"
+#include "solver/simulation_state.h"
 #include "solver/tfsf.h"
 #include "solver/yee_kernels.h"
 
@@ -71,8 +72,12 @@ class Simulation {
   static ModelSummary plan(const Scene& scene);
   /// Advances one full step (H then E).
   void step();
-  /// Runs until the stop rule holds; `progress` is called about twice a second.
-  RunResults run(const std::function<void(const Progress&)>& progress = {});
+  /// Runs until the stop rule holds; `progress` is called about twice a second. `between_steps`,
+  /// if given, is called after every step that the stop rule lets pass (a checkpoint may be taken
+  /// there); returning true ends the run at once with stop reason "interrupted", leaving the
+  /// state exactly as a checkpoint needs it (the final energy measurement is skipped).
+  RunResults run(const std::function<void(const Progress&)>& progress = {},
+                 const std::function<bool()>& between_steps = {});
   /// Collects the results at the current time (also usable after step()).
   RunResults results() const;
 
@@ -87,6 +92,15 @@ class Simulation {
   double field_energy() const;
   /// Polarisation currents of the dispersive materials (per-cell damping of gap cells goes here).
   DispersiveCurrents& dispersive() { return *dispersive_; }
+
+  // Checkpoints (simulation_state.cpp). A Simulation built from the same scene and given the
+  // counters and arrays of another between two steps continues bit for bit as the other would.
+  StateCounters state_counters() const;
+  /// Sets the counters and sizes the arrays that grow with the step count (probe series), so
+  /// state_arrays() can then be filled from a checkpoint.
+  void restore_counters(const StateCounters& c);
+  /// Views of every array of the state in a fixed order, sized for the current step count.
+  StateArrays state_arrays();
 
  private:
   void fill_periodic_halos(bool electric);
