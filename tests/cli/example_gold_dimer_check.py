@@ -5,7 +5,8 @@ collection fraction in (0, 1), a bonding plasmon red of the single sphere's reso
 one 20 nm-radius sphere of the same gold model in water, from materials/mie_sphere.h; the
 plasmon-ruler trend of Jain, Huang, El-Sayed, Nano Lett. 7, 2080 (2007) puts a gap of a tenth of
 the diameter about 10 % further red), and a gap field well above the incident one.
-Usage: example_gold_dimer_check.py YEEGAP_BINARY SOURCE_DIR"""
+Usage: example_gold_dimer_check.py YEEGAP_BINARY SOURCE_DIR [KEEP_DIR]
+With KEEP_DIR the results (dimer.h5) stay there instead of in a temporary folder."""
 import json
 import os
 import subprocess
@@ -25,7 +26,8 @@ def check(ok, what):
     fails += 0 if ok else 1
 
 
-with tempfile.TemporaryDirectory() as work:
+with tempfile.TemporaryDirectory() as scratch:
+    work = sys.argv[3] if len(sys.argv) > 3 else scratch
     out = os.path.join(work, "dimer.h5")
     cmd = [yeegap, "run", os.path.join(src, "examples", "gold_dimer_antenna.yaml"), "-o", out, "--json",
            "--set", "domain.step=2 nm", "--set", "domain.absorber.cells=6",
