@@ -58,13 +58,13 @@ struct Progress {
   double eta_seconds = 0;          // < 0 when unknown
 };
 
-class Simulation {
+class Simulation : public Checkpointable {
  public:
   /// Builds everything; throws RunError for settings that cannot run (unstable time step, ...).
   explicit Simulation(const Scene& scene);
   Simulation(const Simulation&) = delete;
   Simulation& operator=(const Simulation&) = delete;
-  ~Simulation();
+  ~Simulation() override;
 
   ModelSummary summary() const;
   /// The same figures without allocating the fields (for `yeegap check` on scenes too big to
@@ -82,9 +82,9 @@ class Simulation {
   RunResults results() const;
 
   // Access for tests and tools.
-  const Grid& grid() const { return grid_; }
+  const Grid& grid() const override { return grid_; }
   Fields& fields() { return fields_; }
-  double dt() const { return dt_; }
+  double dt() const override { return dt_; }
   long steps_done() const { return n_; }
   /// Field energy 1/2 sum (eps E^2 + mu0 H^2) dV over the interior, J (per unit length along
   /// invariant axes scaled by their cell size).
@@ -93,14 +93,10 @@ class Simulation {
   /// Polarisation currents of the dispersive materials (per-cell damping of gap cells goes here).
   DispersiveCurrents& dispersive() { return *dispersive_; }
 
-  // Checkpoints (simulation_state.cpp). A Simulation built from the same scene and given the
-  // counters and arrays of another between two steps continues bit for bit as the other would.
-  StateCounters state_counters() const;
-  /// Sets the counters and sizes the arrays that grow with the step count (probe series), so
-  /// state_arrays() can then be filled from a checkpoint.
-  void restore_counters(const StateCounters& c);
-  /// Views of every array of the state in a fixed order, sized for the current step count.
-  StateArrays state_arrays();
+  // Checkpoints (simulation_state.h; defined in simulation_state.cpp).
+  StateCounters state_counters() const override;
+  void restore_counters(const StateCounters& c) override;
+  StateArrays state_arrays() override;
 
  private:
   void fill_periodic_halos(bool electric);

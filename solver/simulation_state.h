@@ -55,4 +55,23 @@ struct StateCounters {
   double wall_seconds = 0;     // s, run time so far (reports only; never changes a result)
 };
 
+class Grid;
+
+/// What a checkpoint needs of a run (style.md: an optional ability gets its own small interface).
+/// A run made of several Simulations (the real and imaginary parts of Bloch fields) lists all of
+/// their arrays under one prefix each. A run built from the same scene and given the counters and
+/// arrays of another between two steps continues bit for bit as the other would.
+class Checkpointable {
+ public:
+  virtual ~Checkpointable() = default;
+  virtual const Grid& grid() const = 0;
+  virtual double dt() const = 0;                 // s
+  virtual StateCounters state_counters() const = 0;
+  /// Sets the counters and sizes the arrays that grow with the step count (probe series), so that
+  /// state_arrays() can then be filled from a checkpoint.
+  virtual void restore_counters(const StateCounters& c) = 0;
+  /// Views of every array of the state in a fixed order, sized for the current step count.
+  virtual StateArrays state_arrays() = 0;
+};
+
 }  // namespace yeegap::solver

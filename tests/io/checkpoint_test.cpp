@@ -12,6 +12,8 @@
 #include <omp.h>
 #include <unistd.h>
 
+#include <cmath>
+#include <cstdio>
 #include <complex>
 #include <cstring>
 #include <filesystem>
@@ -224,6 +226,44 @@ TEST_F(Checkpoint, MissingStateChangesTheResult) {
     EXPECT_EQ(same_bits(rest.probes[0].values, whole.probes[0].values), !drop_currents)
         << (drop_currents ? "zeroed pole currents went unnoticed" : "resume differs");
   }
+}
+
+TEST_F(Checkpoint, DecayStopRuleResumesWithItsMemory) {
+  // The `decayed` rule compares the energy with its peak so far: a resume that forgot the peak
+  // would stop at another step. Stopped half-way between the end of the source (the 400-1000 nm
+  // pulse lasts 18.3 fs: waveform.cpp) and the end of the run.
+  std::string text = small_text;
+  text.replace(text.find("stop: {after: 6 fs}"), 19, "stop: {decayed: 1e-6}");
+  const solver::Scene decaying = scene_with(text);
+  solver::Simulation whole_sim(decaying);
+  const solver::RunResults whole = whole_sim.run();
+  ASSERT_EQ(whole.summary.stop_reason, "decayed");
+  const long source_end = static_cast<long>(std::ceil(18.3e-15 / whole.summary.time_step));
+  const long at = (source_end + whole.summary.steps) / 2;
+  ASSERT_GT(whole.summary.steps - source_end, 2 * 20) << "the decay should span a few energy checks (every 20 steps) after the source";
+  const std::string file = (dir_.path / "decay.checkpoint.h5").string();
+  run_and_checkpoint(decaying, at, file);
+  solver::Simulation resumed(decaying);
+  io::read_checkpoint(file, resumed, decaying, info);
+  const solver::RunResults rest = resumed.run();
+  EXPECT_EQ(rest.summary.steps, whole.summary.steps);
+  EXPECT_EQ(rest.summary.stop_reason, "decayed");
+  EXPECT_TRUE(same_bits(rest.probes[0].values, whole.probes[0].values));
+  EXPECT_EQ(rest.summary.final_energy_fraction, whole.summary.final_energy_fraction);
+  // Without the peak the rule would judge the decay against later, smaller energies only and stop
+  // later (capped here at twice the steps, so the check stays short).
+  solver::Scene capped = decaying;
+  capped.stop.max_steps = 2 * whole.summary.steps;
+  solver::Simulation forgetful(capped);
+  io::read_checkpoint(file, forgetful, capped, info);
+  solver::StateCounters c = forgetful.state_counters();
+  ASSERT_LT(c.last_energy, c.peak_energy);
+  c.peak_energy = c.last_energy;
+  forgetful.restore_counters(c);  // same step count: the probe series keep their samples
+  const solver::RunResults wrong = forgetful.run();
+  EXPECT_GT(wrong.summary.steps, whole.summary.steps);
+  std::printf("decayed rule: whole run %ld steps, checkpoint at %ld, resumed %ld, resumed without the peak %ld (%s)\n",
+              whole.summary.steps, at, rest.summary.steps, wrong.summary.steps, wrong.summary.stop_reason.c_str());
 }
 
 TEST_F(Checkpoint, RefusesMismatchedCheckpointsNamingWhatDiffers) {
