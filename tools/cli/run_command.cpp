@@ -243,9 +243,12 @@ int run_scene(const RunOptions& o) {
       if (checkpoint_seconds > 0 &&
           std::chrono::duration<double>(clock::now() - last_checkpoint).count() >= checkpoint_seconds) {
         try {
+          const auto begin = clock::now();
           io::write_checkpoint(checkpoint, sim, scene, info);
           progress.break_line();
-          std::fprintf(stderr, "yeegap: checkpoint at step %ld in %s\n", sim.steps_done(), checkpoint.c_str());
+          std::fprintf(stderr, "yeegap: checkpoint at step %ld in %s (%.3g MB, %.1f s)\n", sim.steps_done(),
+                       checkpoint.c_str(), std::filesystem::file_size(checkpoint, ec) / 1e6,
+                       std::chrono::duration<double>(clock::now() - begin).count());
         } catch (const std::exception& e) {
           progress.break_line();
           std::fprintf(stderr, "yeegap: warning: %s; the run goes on\n", e.what());
