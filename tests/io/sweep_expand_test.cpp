@@ -289,6 +289,7 @@ TEST(SweepSubstitution, SyntaxErrorMadeByAValueIsReportedOnItsLineInFileColumns)
   EXPECT_GE(e.where().column, column) << e.what();
   EXPECT_LE(e.where().column, file_line_length + 1) << e.what();
   EXPECT_NE(e.message().find("YAML syntax error"), std::string::npos) << e.what();
+  EXPECT_NE(e.message().find("${width} = '[20 nm'"), std::string::npos) << e.what();
 }
 
 TEST(SweepSubstitution, PointOfASceneWithoutSweepIsRefused) {
