@@ -6,7 +6,10 @@
 #include <fmt/format.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <cerrno>
+#include <cmath>
+#include <complex>
 #include <cstdio>
 #include <cstring>
 #include <filesystem>
@@ -196,7 +199,26 @@ void write_probe(const h5::Group& outputs, const solver::ProbeResult& p, double 
   }
 }
 
-void write_field_map(const h5::Group& outputs, const solver::FieldMapResult& m) {
+/// |E_inc(omega)|^2 of the run's plane wave at each of `omegas`, or empty when the run has no plane
+/// wave, more than one (the enhancement would be ambiguous), or lacks one of the frequencies. In a
+/// lossless homogeneous background a plane wave has the same |E| everywhere, so the value at the
+/// TFSF box centre normalises every node of a map.
+std::vector<double> incident_squared_at(const solver::RunResults& r, const std::vector<double>& omegas) {
+  if (r.incident_spectra.size() != 1 || r.incident_spectra[0].size() != r.source_omegas.size()) return {};
+  std::vector<double> out;
+  for (double w : omegas) {
+    const auto it = std::find_if(r.source_omegas.begin(), r.source_omegas.end(),
+                                 [&](double s) { return std::abs(s - w) <= 1e-9 * w; });
+    if (it == r.source_omegas.end()) return {};
+    const double e2 = std::norm(r.incident_spectra[0][static_cast<std::size_t>(it - r.source_omegas.begin())]);
+    if (!(e2 > 0)) return {};
+    out.push_back(e2);
+  }
+  return out;
+}
+
+void write_field_map(const h5::Group& outputs, const solver::FieldMapResult& m,
+                     const std::vector<double>& incident_squared) {
   check_output_name(outputs, m.name);
   const hsize_t nf = m.omegas.size(), nx = m.x.size(), ny = m.y.size(), nz = m.z.size();
   const std::size_t nodes = nx * ny * nz;
@@ -242,6 +264,14 @@ void write_field_map(const h5::Group& outputs, const solver::FieldMapResult& m) 
   e2.set_attribute("description", "sum of |E_c|^2 over the E components listed in components");
   e2.set_attribute("components", electric);
   for (std::size_t f = 0; f < nf; ++f) e2.write_slab(f, std::span<const double>(e_squared[f]));
+  // Near-field enhancement: only meaningful when all three E components went into the sum.
+  if (incident_squared.size() != nf || electric.size() != 3) return;
+  const h5::Dataset en = with_units(g.create_dataset<double>("E_enhancement", shape, compressed()), "1");
+  en.set_attribute("description", "|E|^2 / |E_inc|^2: E_squared over the plane wave's incident |E|^2 at each frequency");
+  for (std::size_t f = 0; f < nf; ++f) {
+    for (double& v : e_squared[f]) v /= incident_squared[f];
+    en.write_slab(f, std::span<const double>(e_squared[f]));
+  }
 }
 
 void write_flux(const h5::Group& outputs, const solver::FluxResult& x) {
@@ -393,7 +423,7 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   if (!r.gaps.empty()) write_gaps(file, r.gaps);
   const h5::Group outputs = file.create_group("outputs");
   for (const auto& p : r.probes) write_probe(outputs, p, r.summary.time_step);
-  for (const auto& m : r.field_maps) write_field_map(outputs, m);
+  for (const auto& m : r.field_maps) write_field_map(outputs, m, incident_squared_at(r, m.omegas));
   for (const auto& x : r.fluxes) write_flux(outputs, x);
   for (const auto& x : r.cross_sections) write_cross_sections(outputs, x);
   for (const auto& x : r.far_fields) write_far_field(outputs, x);

@@ -38,6 +38,11 @@ class StateArrays {
   void add_vector(std::string name, Vector& v) {
     add(std::move(name), std::span(v.data(), v.size()));
   }
+  /// Adds every array of `other` with `prefix` + "/" before its name: the parts of a run made of
+  /// several Simulations ("real/fields/Ex", "imaginary/fields/Ex").
+  void add_all(const std::string& prefix, StateArrays&& other) {
+    for (StateArray& a : other.list_) add(prefix + "/" + a.name, a.type, a.data, a.count);
+  }
   const std::vector<StateArray>& list() const& { return list_; }
   std::vector<StateArray> list() && { return std::move(list_); }  // safe on a temporary
   std::size_t bytes() const;
