@@ -10,8 +10,6 @@ namespace yeegap::solver {
 
 namespace {
 
-bool is_bloch(const Scene& s) { return !s.bloch_waves.empty() || needs_imaginary_part(s.domain); }
-
 // The scene as it will run: a plane-wave stack reduced to one lateral cell.
 Scene reduced(const Scene& s, std::string* note) {
   if (s.bloch_waves.empty()) return s;
@@ -21,8 +19,10 @@ Scene reduced(const Scene& s, std::string* note) {
 
 }  // namespace
 
+bool is_bloch_scene(const Scene& s) { return !s.bloch_waves.empty() || needs_imaginary_part(s.domain); }
+
 ModelSummary plan_scene(const Scene& scene) {
-  if (!is_bloch(scene)) return Simulation::plan(scene);
+  if (!is_bloch_scene(scene)) return Simulation::plan(scene);
   std::string note;
   const Scene s = reduced(scene, &note);
   const bool scan = !s.bloch_waves.empty() && !s.bloch_waves.front().scan_angles.empty();
@@ -32,7 +32,7 @@ ModelSummary plan_scene(const Scene& scene) {
 }
 
 RunResults run_scene(const Scene& scene, const std::function<void(const Progress&)>& progress) {
-  if (!is_bloch(scene)) return Simulation(scene).run(progress);
+  if (!is_bloch_scene(scene)) return Simulation(scene).run(progress);
   const Scene s = reduced(scene, nullptr);
   if (!s.bloch_waves.empty() && !s.bloch_waves.front().scan_angles.empty()) return run_angle_scan(s, progress);
   return BlochRun(s).run(progress);

@@ -10,6 +10,8 @@
 
 namespace yeegap::solver {
 
+/// Whether the scene runs as a Bloch run (a plane_wave, or a non-zero Bloch wavevector).
+bool is_bloch_scene(const Scene& scene);
 /// Figures for `yeegap check`; the mesh notes say which kind of run it is.
 ModelSummary plan_scene(const Scene& scene);
 /// Builds and runs the scene to its stop rule.

@@ -23,6 +23,7 @@
 #include "solver/recorders.h"
 #include "solver/results.h"
 #include "solver/scene.h"
+#include "solver/simulation_state.h"
 #include "solver/stage.h"
 #include "solver/tfsf.h"
 #include "solver/yee_kernels.h"
@@ -58,13 +59,13 @@ struct Progress {
   double eta_seconds = 0;          // < 0 when unknown
 };
 
-class Simulation {
+class Simulation : public Checkpointable {
  public:
   /// Builds everything; throws RunError for settings that cannot run (unstable time step, ...).
   explicit Simulation(const Scene& scene);
   Simulation(const Simulation&) = delete;
   Simulation& operator=(const Simulation&) = delete;
-  ~Simulation();
+  ~Simulation() override;
 
   ModelSummary summary() const;
   /// The same figures without allocating the fields (for `yeegap check` on scenes too big to
@@ -78,8 +79,12 @@ class Simulation {
   void step_e();
   /// Adds work done after each half step's sources (see stage.h); the run shares ownership.
   void add_stage(std::shared_ptr<Stage> s) { stages_.push_back(std::move(s)); }
-  /// Runs until the stop rule holds; `progress` is called about twice a second.
-  RunResults run(const std::function<void(const Progress&)>& progress = {});
+  /// Runs until the stop rule holds; `progress` is called about twice a second. `between_steps`,
+  /// if given, is called after every step that the stop rule lets pass (a checkpoint may be taken
+  /// there); returning true ends the run at once with stop reason "interrupted", leaving the
+  /// state exactly as a checkpoint needs it (the final energy measurement is skipped).
+  RunResults run(const std::function<void(const Progress&)>& progress = {},
+                 const std::function<bool()>& between_steps = {});
   /// Collects the results at the current time (also usable after step()).
   RunResults results() const;
   /// The same with the flux and field-map spectra of a complex (Bloch) field whose imaginary part
@@ -87,9 +92,9 @@ class Simulation {
   RunResults results(const Simulation* imaginary) const;
 
   // Access for tests and tools.
-  const Grid& grid() const { return grid_; }
+  const Grid& grid() const override { return grid_; }
   Fields& fields() { return fields_; }
-  double dt() const { return dt_; }
+  double dt() const override { return dt_; }
   const Scene& scene() const { return scene_; }
   const CurlCoefficients& curls() const { return curls_; }
   const ECoefficients& e_update_coefficients() const { return ecoef_; }
@@ -101,6 +106,11 @@ class Simulation {
   double field_energy() const;
   /// Polarisation currents of the dispersive materials (per-cell damping of gap cells goes here).
   DispersiveCurrents& dispersive() { return *dispersive_; }
+
+  // Checkpoints (simulation_state.h; defined in simulation_state.cpp).
+  StateCounters state_counters() const override;
+  void restore_counters(const StateCounters& c) override;
+  StateArrays state_arrays() override;
 
  private:
   void fill_periodic_halos(bool electric);
