@@ -196,6 +196,8 @@ int run_scene(const RunOptions& o) {
   std::fprintf(stderr, "yeegap: %s: %d x %d x %d cells, dt %.4g fs, %s%ld steps, %.1f MB, %d thread%s\n", o.scene.c_str(),
                plan.cells[0], plan.cells[1], plan.cells[2], plan.time_step * 1e15, plan.steps_estimated ? "about " : "",
                plan.steps, plan.memory_bytes / 1e6, threads, threads == 1 ? "" : "s");
+  if (plan.mixed_cells > 0)
+    std::fprintf(stderr, "yeegap: %lld E locations on body surfaces averaged (domain.averaging)\n", plan.mixed_cells);
   solver::RunResults results;
   {
     ProgressLine progress;
