@@ -287,15 +287,22 @@ void Simulation::fill_periodic_halos(bool electric) {
       if (even_mirror && comp == 3 + a) continue;  // normal H: not read across the plane
       real* d = fields_.c[comp].data();
       // Copy the whole plane including the other axes' halos, so corners stay consistent.
+      // Offsets are formed once per row: on a 2D grid (one periodic cell along z) this plane is the
+      // whole grid, and index arithmetic per element made the copy cost more than the update.
+      const std::ptrdiff_t sa = L.stride(a), sb = L.stride(b), sc = L.stride(c);
+      const std::ptrdiff_t shift = static_cast<std::ptrdiff_t>(to - from) * sa;
 #pragma omp parallel for schedule(static) if (parallel_worth(L.n[b], L.n[c], 1))
-      for (int q = -1; q <= L.n[c]; ++q)
-        for (int p = -1; p <= L.n[b]; ++p) {
-          std::array<int, 3> src{}, dst{};
-          src[a] = from, dst[a] = to;
-          src[b] = dst[b] = p;
-          src[c] = dst[c] = q;
-          d[L.at(dst[0], dst[1], dst[2])] = sign * d[L.at(src[0], src[1], src[2])];
+      for (int q = -1; q <= L.n[c]; ++q) {
+        const std::ptrdiff_t row = L.at(0, 0, 0) + from * sa + q * sc - sb;
+        const real* src = d + row;
+        real* dst = d + row + shift;
+        const int len = L.n[b] + 2;
+        if (sb == 1) {
+          for (int p = 0; p < len; ++p) dst[p] = sign * src[p];
+        } else {
+          for (int p = 0; p < len; ++p) dst[p * sb] = sign * src[p * sb];
         }
+      }
     }
   }
 }
@@ -378,13 +385,16 @@ double Simulation::field_energy() const {
   return total;
 }
 
-RunResults Simulation::run(const std::function<void(const Progress&)>& progress) {
+RunResults Simulation::run(const std::function<void(const Progress&)>& progress,
+                           const std::function<bool()>& between_steps) {
   using clock = std::chrono::steady_clock;
   const ModelSummary plan = summary();
   const StopSpec& st = scene_.stop;
   const long after_steps = st.after > 0 ? static_cast<long>(std::ceil(st.after / dt_)) : -1;
   const double source_end = sources_end_time();
   const auto start = clock::now();
+  const long first_step = n_;                 // > 0 when resumed from a checkpoint
+  const double earlier_wall = wall_seconds_;  // run time of the segments before a resume
   auto last_report = start;
   stop_reason_.clear();
   while (stop_reason_.empty()) {
@@ -404,15 +414,19 @@ RunResults Simulation::run(const std::function<void(const Progress&)>& progress)
         p.step = n_;
         p.planned_steps = after_steps >= 0 ? after_steps : std::max(plan.steps, n_);
         const double elapsed = std::chrono::duration<double>(now - start).count();
-        p.steps_per_second = n_ / elapsed;
+        p.steps_per_second = (n_ - first_step) / elapsed;
         p.cells_per_second = p.steps_per_second * static_cast<double>(grid_.cell_count());
         p.eta_seconds = (p.planned_steps - n_) / p.steps_per_second;
         progress(p);
       }
     }
+    if (stop_reason_.empty() && between_steps) {
+      wall_seconds_ = earlier_wall + std::chrono::duration<double>(clock::now() - start).count();
+      if (between_steps()) stop_reason_ = "interrupted";
+    }
   }
-  wall_seconds_ = std::chrono::duration<double>(clock::now() - start).count();
-  if (st.decayed > 0 || peak_energy_ == 0) {
+  wall_seconds_ = earlier_wall + std::chrono::duration<double>(clock::now() - start).count();
+  if (stop_reason_ != "interrupted" && (st.decayed > 0 || peak_energy_ == 0)) {
     last_energy_ = field_energy();
     peak_energy_ = std::max(peak_energy_, last_energy_);
   }

@@ -12,11 +12,14 @@
 #include "solver/subcell_average.h"
 
 #include <map>
+
+#include <fmt/format.h>
 #include <utility>
 
 #include "base/constants.h"
 #include "base/errors.h"
 #include "materials/discrete_permittivity.h"
+#include "solver/simulation_state.h"
 
 namespace yeegap::solver {
 
@@ -118,11 +121,11 @@ void SubcellAverage::keep(const Fields& f) {
       const real* e = f.c[c].data();
       for (std::size_t i = g.start[c]; i < g.start[c + 1]; ++i) g.e_old[i] = e[g.offset[i]];
     }
-  if (started_) return;
+  if (started_[0] != 0) return;
   // Fields given before the first step (a test's initial condition) start every branch there.
   for (Group& g : groups_)
     for (int b = 0; b < 3; ++b) g.e[b].assign(g.e_old.begin(), g.e_old.end());
-  started_ = true;
+  started_[0] = 1;
 }
 
 void SubcellAverage::apply(Fields& f) {
@@ -188,6 +191,21 @@ std::size_t SubcellAverage::memory_bytes() const {
     for (const BranchPole& bp : g.poles) bytes += (bp.q.size() + bp.p.size()) * sizeof(real);
   }
   return bytes;
+}
+
+void SubcellAverage::add_state(StateArrays& s, const std::string& prefix) {
+  s.add_vector(prefix + "/started", started_);
+  for (Group& g : groups_) {
+    const std::string base = fmt::format("{}/pair{}_{}", prefix, g.inside, g.outside);
+    for (int b = 0; b < 3; ++b) {
+      s.add_vector(fmt::format("{}/branch{}/e", base, b), g.e[b]);
+      s.add_vector(fmt::format("{}/branch{}/e_previous", base, b), g.e_previous[b]);
+    }
+    for (std::size_t k = 0; k < g.poles.size(); ++k) {
+      s.add_vector(fmt::format("{}/pole{}/q", base, k), g.poles[k].q);
+      if (!g.poles[k].p.empty()) s.add_vector(fmt::format("{}/pole{}/p", base, k), g.poles[k].p);
+    }
+  }
 }
 
 }  // namespace yeegap::solver

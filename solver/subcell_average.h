@@ -16,6 +16,7 @@
 
 #include <array>
 #include <cstddef>
+#include <string>
 #include <vector>
 
 #include "solver/fields.h"
@@ -24,6 +25,8 @@
 #include "solver/yee_kernels.h"
 
 namespace yeegap::solver {
+
+class StateArrays;  // simulation_state.h
 
 /// The averaged update of the mixed E locations, around the bulk update:
 ///   before update_e:  keep(f)   saves E^n of the mixed locations
@@ -48,6 +51,8 @@ class SubcellAverage {
   void keep(const Fields& f);
   void apply(Fields& f);
   std::size_t memory_bytes() const;
+  /// The branch fields and pole currents, for checkpoints (simulation_state.h).
+  void add_state(StateArrays& s, const std::string& prefix);
 
  private:
   // One pole's update in the units of dispersive.h (Q = dt J / eps0, P / eps0, both V/m):
@@ -82,7 +87,9 @@ class SubcellAverage {
   std::vector<MixedCell> cells_;
   std::vector<Response> responses_;  // per material
   std::vector<Group> groups_;
-  bool started_ = false;
+  // 1 once the branches hold a state (the first keep() starts them at the fields then present);
+  // an array so a checkpoint carries it.
+  std::vector<double> started_{0.0};
 };
 
 }  // namespace yeegap::solver
