@@ -94,7 +94,9 @@ GapCells::GapCells(const Scene& scene, const Grid& g, const BlockLayout& L, Mate
 }
 
 void GapCells::set_damping(DispersiveCurrents& d) const {
-  if (material_ < 0) return;
+  // A gap wider than the cut-off everywhere has no gap cells, and then the gap material has no
+  // dispersive cells to set (a quantum-corrected run of a wide gap is the classical run).
+  if (material_ < 0 || width_.empty()) return;
   const std::vector<DispersiveCell> cells = d.cells(material_);
   std::vector<double> gamma;
   gamma.reserve(cells.size());

@@ -81,5 +81,20 @@ TEST(GapCells, ClassicalRunFindsTheSameGapButLeavesItEmpty) {
   EXPECT_EQ(c.material_names.size(), 2u) << "no gap material in a classical run";
 }
 
+TEST(GapCells, QuantumCorrectedGapWiderThanTheCutoffRunsAsClassical) {
+  // Spheres 1 nm apart: wider than the exponential fit's cut-off (0.55 nm), so no cell is gap
+  // medium; the run must build and step like the classical one.
+  Scene s = dimer(true);
+  const double wide = 1e-9, cx = radius + wide / 2;
+  s.bodies[0].shape = geometry::make_sphere({-cx, 0, 0}, radius);
+  s.bodies[1].shape = geometry::make_sphere({cx, 0, 0}, radius);
+  ASSERT_GT(wide, s.tunnelling[0].model.cutoff_width);
+  Simulation sim(s);
+  sim.step();
+  const RunResults r = sim.results();
+  ASSERT_EQ(r.gaps.size(), 1u);
+  EXPECT_EQ(r.gaps[0].cells, 0);
+}
+
 }  // namespace
 }  // namespace yeegap::solver
