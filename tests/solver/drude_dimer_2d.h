@@ -182,6 +182,14 @@ inline Peak strongest_peak_near(const DimerSpectrum& d, double energy_eV, double
 /// Extinction at `energy_eV`, linear between samples.
 inline double extinction_at(const DimerSpectrum& d, double energy_eV);
 
+/// The largest extinction within `window_eV` of `energy_eV` (samples and the window's ends).
+inline double largest_extinction_near(const DimerSpectrum& d, double energy_eV, double window_eV) {
+  double top = std::max(extinction_at(d, energy_eV - window_eV), extinction_at(d, energy_eV + window_eV));
+  for (std::size_t q = 0; q < d.energy_eV.size(); ++q)
+    if (std::abs(d.energy_eV[q] - energy_eV) <= window_eV) top = std::max(top, d.extinction[q]);
+  return top;
+}
+
 /// A charge-transfer peak of the quantum-corrected spectrum `q` against the classical `c` with
 /// bonding peak `bonding`: the strongest local maximum more than 0.3 eV (three linewidths) below
 /// the bonding peak, at least three times the classical extinction at its energy and at least 5 %

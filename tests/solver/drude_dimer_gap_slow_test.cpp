@@ -40,7 +40,7 @@ TEST(DrudeDimerGapSeries, ClassicalRedshiftsQuantumCorrectedSaturatesAndOpensACh
   }
 
   std::printf("\n gap_nm  quasi-static_n1_eV  classical_eV  classical_C_ext_nm  qcm_eV  qcm_C_ext_nm  "
-              "qcm/classical_at_classical_peak  ctp_eV  ctp_C_ext_nm\n");
+              "qcm_largest_within_0.15eV/classical  ctp_eV  ctp_C_ext_nm\n");
   std::vector<Peak> bonding(gaps.size()), bonding_q(gaps.size()), transfer(gaps.size());
   for (std::size_t g = 0; g < gaps.size(); ++g) {
     const double estimate = testing::bonding_mode_eV(R, gaps[g], 1);
@@ -49,7 +49,7 @@ TEST(DrudeDimerGapSeries, ClassicalRedshiftsQuantumCorrectedSaturatesAndOpensACh
     transfer[g] = testing::charge_transfer_peak(quantum[g], classical[g], bonding[g]);
     std::printf("%6.2f  %8.3f  %8.3f  %8.2f  %8.3f  %8.2f  %6.3f  %8.3f  %8.2f\n", gaps[g] / nm, estimate,
                 bonding[g].energy_eV, bonding[g].height / nm, bonding_q[g].energy_eV, bonding_q[g].height / nm,
-                testing::extinction_at(quantum[g], bonding[g].energy_eV) / bonding[g].height, transfer[g].energy_eV,
+                testing::largest_extinction_near(quantum[g], bonding[g].energy_eV, 0.15) / bonding[g].height, transfer[g].energy_eV,
                 transfer[g].height / nm);
   }
 
@@ -93,11 +93,10 @@ TEST(DrudeDimerGapSeries, ClassicalRedshiftsQuantumCorrectedSaturatesAndOpensACh
       }
       EXPECT_EQ(transfer[g].height, 0) << "a charge-transfer peak where the gap does not conduct";
     } else {
-      // (b) Below the lossy width the bonding peak is gone: no maximum within 0.15 eV of the
-      // classical one, and the extinction there below half the classical peak (the gap's loss
-      // rate exceeds the metal's own, which alone would halve the height; docs/gaps.md).
-      EXPECT_EQ(bonding_q[g].height, 0) << "a quantum-corrected peak at " << bonding_q[g].energy_eV << " eV";
-      EXPECT_LT(testing::extinction_at(quantum[g], bonding[g].energy_eV), 0.5 * bonding[g].height);
+      // (b) Below the lossy width the bonding peak is gone: within 0.15 eV of the classical peak
+      // the quantum-corrected extinction stays below half the classical peak height (the gap's
+      // loss rate exceeds the metal's own, which alone would halve the height; docs/gaps.md).
+      EXPECT_LT(testing::largest_extinction_near(quantum[g], bonding[g].energy_eV, 0.15), 0.5 * bonding[g].height);
     }
     if (gaps[g] < th[g].conducting) {
       // (c) Once the gap conducts, the charge-transfer peak (charge_transfer_peak: more than 0.3 eV

@@ -78,13 +78,11 @@ TEST(DrudeDimerGap, ConductingGapReplacesTheBondingPeakByAChargeTransferPeak) {
               q_b_wide.energy_eV, q_b_wide.height / b_wide.height, testing::height_bound(wide));
   EXPECT_NEAR(q_b_wide.energy_eV, b_wide.energy_eV, 0.02);
   EXPECT_GT(q_b_wide.height / b_wide.height, testing::height_bound(wide) - 0.02);
-  // At 0.15 nm it is gone: no maximum within 0.15 eV of the classical peak, and the extinction
-  // there below half the classical peak (below the lossy width the gap's loss rate exceeds the
+  // At 0.15 nm it is gone: within 0.15 eV of the classical peak the quantum-corrected extinction
+  // stays below half the classical peak (below the lossy width the gap's loss rate exceeds the
   // metal's own, which alone would halve the height; docs/gaps.md).
-  const Peak q_b_narrow = testing::peak_near(q_narrow, b_narrow.energy_eV, 0.15);
-  const double ratio = testing::extinction_at(q_narrow, b_narrow.energy_eV) / b_narrow.height;
-  std::printf("quantum-corrected at the classical peak, 0.15 nm: ratio %.3f\n", ratio);
-  EXPECT_EQ(q_b_narrow.height, 0) << "a quantum-corrected peak at " << q_b_narrow.energy_eV << " eV";
+  const double ratio = testing::largest_extinction_near(q_narrow, b_narrow.energy_eV, 0.15) / b_narrow.height;
+  std::printf("quantum-corrected within 0.15 eV of the classical peak, 0.15 nm: at most %.3f of it\n", ratio);
   EXPECT_LT(ratio, 0.5);
 
   // (c) The charge-transfer peak: a maximum of the quantum-corrected spectrum more than 0.3 eV below
