@@ -166,7 +166,86 @@ void Object::set_attribute(std::string_view name, const std::vector<double>& val
   write_attribute(name, H5T_NATIVE_DOUBLE, H5T_IEEE_F64LE, values.data(), Shape{values.size()});
 }
 
+// ---- Object: reading attributes ----
+
+bool Object::has_attribute(std::string_view name) const {
+  const std::string key(name);
+  const htri_t exists = H5Aexists(id(), key.c_str());
+  check_status(exists < 0 ? -1 : 0, "look up attribute", fmt::format("{}@{}", path_, name), file_);
+  return exists > 0;
+}
+
+namespace {
+/// Opens a scalar attribute of the given type class, or throws naming what was found instead.
+Handle open_scalar_attribute(hid_t object, std::string_view name, H5T_class_t wanted, const char* what,
+                             const std::string& path, const std::string& file) {
+  const std::string where = fmt::format("{}@{}", path, name);
+  const std::string key(name);
+  const htri_t exists = H5Aexists(object, key.c_str());
+  check_status(exists < 0 ? -1 : 0, "look up attribute", where, file);
+  if (exists == 0) throw std::runtime_error(fmt::format("file '{}' has no attribute '{}'", file, where));
+  Handle attribute(check_id(H5Aopen(object, key.c_str(), H5P_DEFAULT), "open attribute", where, file), H5Aclose);
+  Handle type(check_id(H5Aget_type(attribute.get()), "get the type of attribute", where, file), H5Tclose);
+  Handle space(check_id(H5Aget_space(attribute.get()), "get the dataspace of attribute", where, file), H5Sclose);
+  if (H5Tget_class(type.get()) != wanted || H5Sget_simple_extent_npoints(space.get()) != 1)
+    throw std::runtime_error(fmt::format("attribute '{}' in file '{}' is not a single {}", where, file, what));
+  return attribute;
+}
+}  // namespace
+
+std::string Object::string_attribute(std::string_view name) const {
+  const std::string where = fmt::format("{}@{}", path_, name);
+  Handle attribute = open_scalar_attribute(id(), name, H5T_STRING, "string", path_, file_);
+  Handle type(check_id(H5Aget_type(attribute.get()), "get the type of attribute", where, file_), H5Tclose);
+  if (H5Tis_variable_str(type.get()) > 0)
+    throw std::runtime_error(fmt::format("attribute '{}' in file '{}' is a variable-length string; this program "
+                                         "writes and reads fixed-length ones", where, file_));
+  std::string buffer(H5Tget_size(type.get()), '\0');
+  check_status(H5Aread(attribute.get(), type.get(), buffer.data()), "read attribute", where, file_);
+  return buffer.substr(0, buffer.find('\0'));
+}
+
+std::int64_t Object::int_attribute(std::string_view name) const {
+  Handle attribute = open_scalar_attribute(id(), name, H5T_INTEGER, "integer", path_, file_);
+  std::int64_t value = 0;
+  check_status(H5Aread(attribute.get(), H5T_NATIVE_INT64, &value), "read attribute", fmt::format("{}@{}", path_, name),
+               file_);
+  return value;
+}
+
+double Object::double_attribute(std::string_view name) const {
+  Handle attribute = open_scalar_attribute(id(), name, H5T_FLOAT, "floating-point number", path_, file_);
+  double value = 0;
+  check_status(H5Aread(attribute.get(), H5T_NATIVE_DOUBLE, &value), "read attribute", fmt::format("{}@{}", path_, name),
+               file_);
+  return value;
+}
+
 // ---- Dataset ----
+
+bool Dataset::stores_type(hid_t file_type) const {
+  Handle type(check_id(H5Dget_type(id()), "get the type of", path_, file_), H5Tclose);
+  const htri_t same = H5Tequal(type.get(), file_type);
+  check_status(same < 0 ? -1 : 0, "compare the type of", path_, file_);
+  return same > 0;
+}
+
+void Dataset::read_all(hid_t memory_type, void* data, std::size_t count) const {
+  if (count != size())
+    throw std::invalid_argument(fmt::format("dataset '{}' in file '{}' holds {} values, the reader expected {}", path_,
+                                            file_, size(), count));
+  if (count == 0) return;
+  check_status(H5Dread(id(), memory_type, H5S_ALL, H5S_ALL, H5P_DEFAULT, data), "read dataset", path_, file_);
+}
+
+std::string Dataset::read_string() const {
+  Handle type(check_id(H5Dget_type(id()), "get the type of", path_, file_), H5Tclose);
+  if (H5Tget_class(type.get()) != H5T_STRING || H5Tis_variable_str(type.get()) > 0 || !shape_.empty())
+    throw std::runtime_error(fmt::format("dataset '{}' in file '{}' is not a fixed-length string", path_, file_));
+  std::string buffer(H5Tget_size(type.get()), '\0');
+  check_status(H5Dread(id(), type.get(), H5S_ALL, H5S_ALL, H5P_DEFAULT, buffer.data()), "read dataset", path_, file_);
+  return buffer.substr(0, buffer.find('\0'));
+}
 
 std::size_t Dataset::size() const { return static_cast<std::size_t>(product(shape_)); }
 
@@ -246,6 +325,17 @@ Group Group::open_group(const std::string& name) const {
                file_, path);
 }
 
+Dataset Group::open_dataset(const std::string& name) const {
+  const std::string path = child_path(name);
+  Handle dataset(check_id(H5Dopen2(id(), name.c_str(), H5P_DEFAULT), "open dataset", path, file_), H5Dclose);
+  Handle space(check_id(H5Dget_space(dataset.get()), "get the dataspace of", path, file_), H5Sclose);
+  const int rank = H5Sget_simple_extent_ndims(space.get());
+  check_status(rank < 0 ? -1 : 0, "get the rank of", path, file_);
+  Shape shape(static_cast<std::size_t>(rank));
+  if (rank > 0) check_status(H5Sget_simple_extent_dims(space.get(), shape.data(), nullptr), "get the extent of", path, file_);
+  return Dataset(std::move(dataset), file_, path, std::move(shape));
+}
+
 bool Group::contains(const std::string& name) const {
   const htri_t exists = H5Lexists(id(), name.c_str(), H5P_DEFAULT);
   check_status(exists < 0 ? -1 : 0, "look up", child_path(name), file_);
@@ -260,7 +350,7 @@ Dataset Group::create(const std::string& name, hid_t file_type, std::size_t elem
 
   const bool has_zero = std::find(shape.begin(), shape.end(), hsize_t{0}) != shape.end();
   Shape chunk = storage.chunk;
-  if (chunk.empty() && storage.deflate_level > 0) chunk = chunk_for(shape, element_size);
+  if (chunk.empty() && (storage.deflate_level > 0 || storage.checksum)) chunk = chunk_for(shape, element_size);
   if (!chunk.empty() && !shape.empty() && !has_zero) {
     if (chunk.size() != shape.size())
       throw std::invalid_argument(fmt::format("dataset '{}' in file '{}': chunk has {} axes, the shape {}", path,
@@ -273,6 +363,7 @@ Dataset Group::create(const std::string& name, hid_t file_type, std::size_t elem
       check_status(H5Pset_deflate(properties.get(), static_cast<unsigned>(std::min(storage.deflate_level, 9))),
                    "set deflate on dataset", path, file_);
     }
+    if (storage.checksum) check_status(H5Pset_fletcher32(properties.get()), "set a checksum on dataset", path, file_);
   }
   Handle dataset(check_id(H5Dcreate2(id(), name.c_str(), file_type, space.get(), H5P_DEFAULT, properties.get(),
                                      H5P_DEFAULT),

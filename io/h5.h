@@ -2,6 +2,7 @@
 // HDF5): files, groups, N-d datasets of double/float/int32/int64/uint8 with optional chunking and
 // deflate, complex arrays as a pair of real datasets <name>_re/<name>_im, and string attributes
 // stored as fixed-length ASCII (ParaView 5.11 rejects variable-length UTF-8 strings).
+// Reading is the small part needed to read back what we wrote (checkpoints, sidecars).
 // Every HDF5 failure throws std::runtime_error naming the file and the object, carrying HDF5's own
 // innermost message; HDF5's automatic printing of its error stack is switched off.
 #pragma once
@@ -29,6 +30,8 @@ struct Storage {
   Shape chunk;             // empty = contiguous (unless deflate asks for chunks)
   int deflate_level = 0;   // 0 = none, 1..9 = zlib level
   bool shuffle = false;    // byte shuffle before deflate: helps floating-point data compress
+  bool checksum = false;   // Fletcher32 per chunk (needs chunks, picked as for deflate): a damaged
+                           // chunk fails to read instead of giving wrong numbers
 };
 
 /// A chunk shape for `shape` of at most about `target_bytes`: the slowest axes are halved first,
@@ -107,6 +110,12 @@ class Object {
   void set_attribute(std::string_view name, std::int64_t value) const;
   void set_attribute(std::string_view name, const std::vector<double>& values) const;
 
+  // Reading attributes back; a missing attribute or one of another kind throws, naming both.
+  bool has_attribute(std::string_view name) const;
+  std::string string_attribute(std::string_view name) const;
+  std::int64_t int_attribute(std::string_view name) const;   // any integer attribute, scalar
+  double double_attribute(std::string_view name) const;      // a floating-point attribute, scalar
+
  protected:
   Object(Handle handle, std::string file, std::string path)
       : handle_(std::move(handle)), file_(std::move(file)), path_(std::move(path)) {}
@@ -135,8 +144,23 @@ class Dataset : public Object {
     write_selection(detail::Native<T>::memory(), data.data(), data.size(), index);
   }
 
+  /// Whether the stored elements are exactly T's file type, so reading converts nothing.
+  template <class T>
+  bool stores() const {
+    return stores_type(detail::Native<T>::file());
+  }
+  /// Reads the whole dataset; data.size() must equal size(). HDF5 converts to T if needed.
+  template <class T>
+  void read(std::span<T> data) const {
+    read_all(detail::Native<T>::memory(), data.data(), data.size());
+  }
+  /// The text of a scalar string dataset (as written by Group::write_string).
+  std::string read_string() const;
+
  private:
   friend class Group;
+  bool stores_type(hid_t file_type) const;
+  void read_all(hid_t memory_type, void* data, std::size_t count) const;
   Dataset(Handle handle, std::string file, std::string path, Shape shape)
       : Object(std::move(handle), std::move(file), std::move(path)), shape_(std::move(shape)) {}
   void write_selection(hid_t memory_type, const void* data, std::size_t count, std::optional<hsize_t> slab) const;
@@ -156,6 +180,8 @@ class Group : public Object {
  public:
   Group create_group(const std::string& name) const;
   Group open_group(const std::string& name) const;
+  /// Opens an existing dataset (its shape is read from the file).
+  Dataset open_dataset(const std::string& name) const;
   bool contains(const std::string& name) const;
 
   /// Creates a dataset of element type T, to be filled with Dataset::write or write_slab.

@@ -3,17 +3,20 @@
 // (like any failure) leaves no .partial file and no damage to an older results file.
 #include "io/results_writer.h"
 
-#include <fcntl.h>
 #include <fmt/format.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <cerrno>
+#include <cmath>
+#include <complex>
 #include <cstdio>
 #include <cstring>
 #include <filesystem>
 #include <stdexcept>
 
 #include "base/units.h"
+#include "io/atomic_file.h"
 #include "io/h5.h"
 
 namespace yeegap::io {
@@ -196,7 +199,26 @@ void write_probe(const h5::Group& outputs, const solver::ProbeResult& p, double 
   }
 }
 
-void write_field_map(const h5::Group& outputs, const solver::FieldMapResult& m) {
+/// |E_inc(omega)|^2 of the run's plane wave at each of `omegas`, or empty when the run has no plane
+/// wave, more than one (the enhancement would be ambiguous), or lacks one of the frequencies. In a
+/// lossless homogeneous background a plane wave has the same |E| everywhere, so the value at the
+/// TFSF box centre normalises every node of a map.
+std::vector<double> incident_squared_at(const solver::RunResults& r, const std::vector<double>& omegas) {
+  if (r.incident_spectra.size() != 1 || r.incident_spectra[0].size() != r.source_omegas.size()) return {};
+  std::vector<double> out;
+  for (double w : omegas) {
+    const auto it = std::find_if(r.source_omegas.begin(), r.source_omegas.end(),
+                                 [&](double s) { return std::abs(s - w) <= 1e-9 * w; });
+    if (it == r.source_omegas.end()) return {};
+    const double e2 = std::norm(r.incident_spectra[0][static_cast<std::size_t>(it - r.source_omegas.begin())]);
+    if (!(e2 > 0)) return {};
+    out.push_back(e2);
+  }
+  return out;
+}
+
+void write_field_map(const h5::Group& outputs, const solver::FieldMapResult& m,
+                     const std::vector<double>& incident_squared) {
   check_output_name(outputs, m.name);
   const hsize_t nf = m.omegas.size(), nx = m.x.size(), ny = m.y.size(), nz = m.z.size();
   const std::size_t nodes = nx * ny * nz;
@@ -242,6 +264,14 @@ void write_field_map(const h5::Group& outputs, const solver::FieldMapResult& m) 
   e2.set_attribute("description", "sum of |E_c|^2 over the E components listed in components");
   e2.set_attribute("components", electric);
   for (std::size_t f = 0; f < nf; ++f) e2.write_slab(f, std::span<const double>(e_squared[f]));
+  // Near-field enhancement: only meaningful when all three E components went into the sum.
+  if (incident_squared.size() != nf || electric.size() != 3) return;
+  const h5::Dataset en = with_units(g.create_dataset<double>("E_enhancement", shape, compressed()), "1");
+  en.set_attribute("description", "|E|^2 / |E_inc|^2: E_squared over the plane wave's incident |E|^2 at each frequency");
+  for (std::size_t f = 0; f < nf; ++f) {
+    for (double& v : e_squared[f]) v /= incident_squared[f];
+    en.write_slab(f, std::span<const double>(e_squared[f]));
+  }
 }
 
 void write_flux(const h5::Group& outputs, const solver::FluxResult& x) {
@@ -393,30 +423,11 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   if (!r.gaps.empty()) write_gaps(file, r.gaps);
   const h5::Group outputs = file.create_group("outputs");
   for (const auto& p : r.probes) write_probe(outputs, p, r.summary.time_step);
-  for (const auto& m : r.field_maps) write_field_map(outputs, m);
+  for (const auto& m : r.field_maps) write_field_map(outputs, m, incident_squared_at(r, m.omegas));
   for (const auto& x : r.fluxes) write_flux(outputs, x);
   for (const auto& x : r.cross_sections) write_cross_sections(outputs, x);
   for (const auto& x : r.far_fields) write_far_field(outputs, x);
   for (const auto& x : r.decay_rates) write_decay_rate(outputs, x);
-}
-
-/// Forces the file's bytes to disk, so the rename cannot expose an empty file after a crash.
-void sync_file(const std::string& path) {
-  const int fd = ::open(path.c_str(), O_RDONLY);
-  if (fd < 0 || ::fsync(fd) != 0) {
-    const int err = errno;
-    if (fd >= 0) ::close(fd);
-    throw std::runtime_error(fmt::format("cannot flush '{}' to disk: {}", path, std::strerror(err)));
-  }
-  ::close(fd);
-}
-
-/// Makes the rename itself durable; best effort, since some file systems refuse fsync on a directory.
-void sync_directory(const fs::path& dir) {
-  const int fd = ::open(dir.empty() ? "." : dir.c_str(), O_RDONLY | O_DIRECTORY);
-  if (fd < 0) return;
-  ::fsync(fd);
-  ::close(fd);
 }
 
 }  // namespace
@@ -444,7 +455,7 @@ void check_writable(const std::string& path) {
 
 void write_results(const std::string& path, const solver::RunResults& results, const solver::Scene& scene,
                    const WriteInfo& info) {
-  const std::string partial = path + ".partial";
+  const std::string partial = partial_path(path);
   bool partial_is_ours = false;  // never remove something of that name that we did not create
   try {
     {
@@ -453,10 +464,8 @@ void write_results(const std::string& path, const solver::RunResults& results, c
       write_layout(file, results, scene, info);
       file.close();  // every group and dataset above is closed by now, as File::close requires
     }
-    sync_file(partial);
-    fs::rename(partial, path);  // atomic replacement of an older file within one file system (POSIX)
+    commit_file(partial, path);
     partial_is_ours = false;
-    sync_directory(fs::path(path).parent_path());
   } catch (const std::exception& e) {
     if (partial_is_ours) {
       std::error_code ec;

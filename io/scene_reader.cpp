@@ -23,15 +23,68 @@ namespace {
 // that reads its keys differently.
 constexpr long scene_format_version = 1;
 
-YAML::Node parse_yaml(const std::string& text, const std::string& label) {
+YAML::Node parse_yaml(const std::string& text, const SceneSource& source) {
   try {
     return YAML::Load(text);
   } catch (const YAML::ParserException& e) {
     // e.msg is yaml-cpp's text without its own "error at line..." prefix; marks are 0-based.
-    throw SceneError(Where{label, e.mark.line + 1, e.mark.column + 1, ""}, fmt::format("YAML syntax error: {}", e.msg));
+    int column = e.mark.column;
+    source.to_file_column(e.mark.line, column);
+    std::string note = source.substitution_note(e.mark.line, e.mark.column);
+    // The parser often notices a bad value only at a later token: name the values on that line.
+    for (const SceneSource::Substitution& s : source.substitutions)
+      if (note.empty() && s.line == e.mark.line)
+        note = fmt::format(" (this line has ${{{}}} = '{}', {})", s.name, s.value, source.point_label);
+    throw SceneError(Where{source.file, e.mark.line + 1, column + 1, ""}, fmt::format("YAML syntax error: {}{}", e.msg, note));
   } catch (const YAML::Exception& e) {
-    throw SceneError(Where{label, 0, 0, ""}, fmt::format("cannot read the YAML: {}", e.what()));
+    throw SceneError(Where{source.file, 0, 0, ""}, fmt::format("cannot read the YAML: {}", e.what()));
   }
+}
+
+// A --set cannot change the sweep itself: the points are laid out from the file's block before
+// any override is applied, so such an override would silently do nothing.
+void refuse_sweep_overrides(const std::vector<std::string>& overrides, const std::string& label) {
+  for (const std::string& o : overrides) {
+    const std::string path = o.substr(0, o.find('='));
+    const auto first = path.find_first_not_of(" \t");
+    if (first != std::string::npos && path.compare(first, 5, "sweep") == 0 &&
+        (path.size() == first + 5 || std::string(".[ \t").find(path[first + 5]) != std::string::npos))
+      throw SceneError(Where{label, 0, 0, "sweep"},
+                       fmt::format("--set {}: the sweep block cannot be changed with --set; edit it in the file", o));
+  }
+}
+
+solver::Scene read_parsed_scene(const std::string& text, std::shared_ptr<SceneSource> source,
+                                const std::vector<std::string>& overrides, const NoteSink& notes) {
+  const std::string& file_label = source->file;
+  YAML::Node doc = parse_yaml(text, *source);
+  if (!doc.IsDefined() || doc.IsNull())
+    throw SceneError(Where{file_label, 0, 0, ""}, "the scene is empty; it needs at least the blocks scene, domain, "
+                                                  "excitation and stop (see docs/scene.md)");
+  if (!doc.IsMap())
+    throw SceneError(Where{file_label, doc.Mark().line + 1, doc.Mark().column + 1, ""},
+                     "a scene is a block of keys (scene, domain, materials, bodies, excitation, outputs, stop)");
+  refuse_sweep_overrides(overrides, file_label);
+  apply_overrides(doc, overrides, *source);
+
+  const Node root = Node::root(doc, source);
+  root.allow({"scene", "domain", "materials", "bodies", "tunnelling", "excitation", "outputs", "stop", "sweep"});
+
+  solver::Scene scene;
+  scene.file = file_label;
+  scene.text = text;
+  read_scene_block(root.require("scene"), scene);
+  if (auto materials = root.get("materials")) read_materials(*materials, scene, notes);
+  read_domain(root.require("domain"), scene);
+  if (auto bodies = root.get("bodies")) read_bodies(*bodies, scene);
+  if (auto tunnelling = root.get("tunnelling")) read_tunnelling(*tunnelling, scene);
+  read_excitation(root.require("excitation"), scene);
+  warn_outside_library_ranges(scene, notes);
+  if (auto outputs = root.get("outputs")) read_outputs(*outputs, scene);
+  read_stop(root.require("stop"), scene);
+  root.get("sweep");  // read by read_sweep_plan, which laid out this point
+  root.done();
+  return scene;
 }
 
 }  // namespace
@@ -64,45 +117,48 @@ void read_stop(const Node& block, solver::Scene& scene) {
 
 solver::Scene read_scene_text(const std::string& text, const std::string& file_label,
                               const std::vector<std::string>& overrides, const NoteSink& notes) {
+  const SweepPlan plan = read_sweep_plan(text, file_label);
+  if (!plan.empty()) {
+    const std::size_t n = plan.point_count();
+    throw SceneError(plan.where, fmt::format("this scene is a sweep of {} point{}: run them all with 'yeegap sweep {}', "
+                                             "or one with 'yeegap run {} --point K' (K from 0 to {})",
+                                             n, n == 1 ? "" : "s", file_label, file_label, n - 1));
+  }
+  const PointText point = substitute_point(text, file_label, plan, 0);  // refuses any ${...}
   auto source = std::make_shared<SceneSource>();
   source->file = file_label;
-  YAML::Node doc = parse_yaml(text, file_label);
-  if (!doc.IsDefined() || doc.IsNull())
-    throw SceneError(Where{file_label, 0, 0, ""}, "the scene is empty; it needs at least the blocks scene, domain, "
-                                                  "excitation and stop (see docs/scene.md)");
-  if (!doc.IsMap())
-    throw SceneError(Where{file_label, doc.Mark().line + 1, doc.Mark().column + 1, ""},
-                     "a scene is a block of keys (scene, domain, materials, bodies, excitation, outputs, stop)");
-  apply_overrides(doc, overrides, *source);
-
-  const Node root = Node::root(doc, source);
-  root.allow({"scene", "domain", "materials", "bodies", "tunnelling", "excitation", "outputs", "stop"},
-             /*planned=*/{"sweep"});
-
-  solver::Scene scene;
-  scene.file = file_label;
-  scene.text = text;
-  read_scene_block(root.require("scene"), scene);
-  if (auto materials = root.get("materials")) read_materials(*materials, scene, notes);
-  read_domain(root.require("domain"), scene);
-  if (auto bodies = root.get("bodies")) read_bodies(*bodies, scene);
-  if (auto tunnelling = root.get("tunnelling")) read_tunnelling(*tunnelling, scene);
-  read_excitation(root.require("excitation"), scene);
-  warn_outside_library_ranges(scene, notes);
-  if (auto outputs = root.get("outputs")) read_outputs(*outputs, scene);
-  read_stop(root.require("stop"), scene);
-  root.done();
-  return scene;
+  return read_parsed_scene(point.text, source, overrides, notes);
 }
 
-solver::Scene read_scene_file(const std::string& path, const std::vector<std::string>& overrides,
-                              const NoteSink& notes) {
+solver::Scene read_scene_point(const std::string& text, const std::string& file_label, const SweepPlan& plan,
+                               std::size_t point, const std::vector<std::string>& overrides, const NoteSink& notes) {
+  if (plan.empty())
+    throw SceneError(Where{file_label, 0, 0, ""}, "the scene has no 'sweep' block, so it has no points to choose from; "
+                                                  "run it without --point");
+  const std::size_t n = plan.point_count();
+  if (point >= n)
+    throw SceneError(plan.where, fmt::format("there is no point {}: the sweep has {} point{}, numbered 0 to {}", point, n,
+                                             n == 1 ? "" : "s", n - 1));
+  PointText expanded = substitute_point(text, file_label, plan, point);
+  auto source = std::make_shared<SceneSource>();
+  source->file = file_label;
+  source->substitutions = std::move(expanded.substitutions);
+  source->point_label = fmt::format("sweep point {}", point);
+  return read_parsed_scene(expanded.text, source, overrides, notes);
+}
+
+std::string read_scene_file_text(const std::string& path) {
   std::ifstream in(path, std::ios::binary);
   if (!in) throw SceneError(Where{path, 0, 0, ""}, fmt::format("cannot open the scene file: {}", std::strerror(errno)));
   std::ostringstream text;
   text << in.rdbuf();
   if (in.bad()) throw SceneError(Where{path, 0, 0, ""}, "cannot read the scene file");
-  return read_scene_text(text.str(), path, overrides, notes);
+  return text.str();
+}
+
+solver::Scene read_scene_file(const std::string& path, const std::vector<std::string>& overrides,
+                              const NoteSink& notes) {
+  return read_scene_text(read_scene_file_text(path), path, overrides, notes);
 }
 
 }  // namespace yeegap::io

@@ -24,6 +24,26 @@ const SceneSource::Override* SceneSource::override_for(std::string_view path) co
   return hit;
 }
 
+const SceneSource::Substitution* SceneSource::to_file_column(int line, int& column) const {
+  int shift = 0;  // file column - parsed column, from replacements earlier on the line
+  for (const Substitution& s : substitutions) {
+    if (s.line != line || s.parsed_column > column) continue;
+    if (column < s.parsed_column + s.value_length) {
+      column = s.column;
+      return &s;
+    }
+    shift = s.column + s.written_length - (s.parsed_column + s.value_length);
+  }
+  column += shift;
+  return nullptr;
+}
+
+std::string SceneSource::substitution_note(int line, int parsed_column) const {
+  const Substitution* s = to_file_column(line, parsed_column);
+  if (!s) return "";
+  return fmt::format(" (${{{}}} = '{}' here, {})", s->name, s->value, point_label);
+}
+
 Node::Node(YAML::Node node, std::string path, std::shared_ptr<const SceneSource> source, YAML::Mark key_mark)
     : node_(node),
       path_(std::move(path)),
@@ -46,13 +66,14 @@ Node& Node::operator=(const Node& other) {
 
 Where Node::where_of(const YAML::Mark& mark, const std::string& path) const {
   if (source_->override_for(path) || mark.is_null()) return Where{source_->file, 0, 0, path};
-  return Where{source_->file, mark.line + 1, mark.column + 1, path};
+  int column = mark.column;
+  source_->to_file_column(mark.line, column);
+  return Where{source_->file, mark.line + 1, column + 1, path};
 }
 
-Where Node::where() const {
-  if (node_.IsScalar() || key_mark_.is_null()) return where_of(node_.Mark(), path_);
-  return where_of(key_mark_, path_);
-}
+YAML::Mark Node::mark() const { return node_.IsScalar() || key_mark_.is_null() ? node_.Mark() : key_mark_; }
+
+Where Node::where() const { return where_of(mark(), path_); }
 
 std::string Node::text() const {
   if (node_.IsScalar()) return node_.Scalar();
@@ -83,12 +104,15 @@ std::string Node::override_note(const std::string& path) const {
 }
 
 void Node::fail_at(const YAML::Mark& mark, const std::string& path, std::string_view message) const {
-  throw SceneError(where_of(mark, path), fmt::format("{}{}", message, override_note(path)));
+  const std::string note = mark.is_null() ? "" : source_->substitution_note(mark.line, mark.column);
+  throw SceneError(where_of(mark, path), fmt::format("{}{}{}", message, override_note(path), note));
 }
 
 void Node::fail(std::string_view message) const {
   const std::string text = path_.empty() ? std::string(message) : fmt::format("{}: {}", path_, message);
-  throw SceneError(where(), text + override_note(path_));
+  const YAML::Mark m = mark();
+  const std::string note = m.is_null() ? "" : source_->substitution_note(m.line, m.column);
+  throw SceneError(where(), text + override_note(path_) + note);
 }
 
 void Node::fail_key(std::string_view key, std::string_view message) const {

@@ -19,18 +19,36 @@
 
 namespace yeegap::io {
 
-/// Shared by every Node of one scene: the file label for messages, and the --set overrides applied
-/// to the tree, whose values have no place in the file and are reported by the override instead.
+/// Shared by every Node of one scene: the file label for messages, the --set overrides applied
+/// to the tree, whose values have no place in the file and are reported by the override instead,
+/// and the ${name} uses of a sweep point (io/sweep_expand.h) replaced in the text before parsing.
 struct SceneSource {
   struct Override {
     std::string path;  // canonical key path it sets, "bodies[0].radius"
     std::string text;  // as the user gave it, "bodies[0].radius=40 nm"
   };
+  /// One ${name} replaced by its value. Values are single lines, so lines are the same in the
+  /// file and in the parsed text; only columns after a replacement on its line move.
+  struct Substitution {
+    int line = 0;            // 0-based line
+    int column = 0;          // 0-based column of '${' in the file
+    int parsed_column = 0;   // 0-based column where the value starts in the parsed text
+    int written_length = 0;  // characters of "${name}"
+    int value_length = 0;    // characters of the value
+    std::string name, value;
+  };
   std::string file;
   std::vector<Override> overrides;
+  std::vector<Substitution> substitutions;  // in text order
+  std::string point_label;                  // "sweep point 2", for messages about a substituted value
 
   /// The override that wrote the value at `path` or at one of its parents; the last one wins.
   const Override* override_for(std::string_view path) const;
+  /// Turns a 0-based column of the parsed text on `line` into the file's column (a place inside a
+  /// substituted value maps to its '${'); returns the substitution it fell in, if any.
+  const Substitution* to_file_column(int line, int& column) const;
+  /// " (${gap} = '0.3 nm' here, sweep point 2)" for a place inside a substituted value, else "".
+  std::string substitution_note(int line, int parsed_column) const;
 };
 
 class Node {
@@ -89,6 +107,7 @@ class Node {
   std::string block_name() const;  // "domain", or "the top level" for the root
   std::optional<std::pair<YAML::Node, YAML::Node>> find(std::string_view key) const;  // key, value
   Where where_of(const YAML::Mark& mark, const std::string& path) const;
+  YAML::Mark mark() const;  // the position where() reports
   std::string override_note(const std::string& path) const;
   [[noreturn]] void fail_at(const YAML::Mark& mark, const std::string& path, std::string_view message) const;
 

@@ -6,7 +6,10 @@
 #include <cmath>
 
 #include "base/constants.h"
+#include <fmt/format.h>
+
 #include "base/errors.h"
+#include "solver/simulation_state.h"
 
 namespace yeegap::solver {
 
@@ -160,6 +163,12 @@ std::size_t Cpml::memory_bytes() const {
   for (const Slab& s : slabs_)
     for (const auto& v : s.psi) bytes += v.size() * sizeof(real);
   return bytes;
+}
+
+void Cpml::add_state(StateArrays& s, const std::string& prefix) {
+  for (std::size_t i = 0; i < slabs_.size(); ++i)
+    for (std::size_t t = 0; t < slabs_[i].psi.size(); ++t)
+      s.add_vector(fmt::format("{}/slab{}/psi{}", prefix, i, t), slabs_[i].psi[t]);
 }
 
 }  // namespace yeegap::solver

@@ -15,6 +15,8 @@
 
 namespace yeegap::solver {
 
+class StateArrays;  // simulation_state.h
+
 /// Resolved layer settings (SI); sigma_max from the target reflection and background index.
 struct CpmlProfile {
   int cells = 12;
@@ -40,6 +42,8 @@ class Cpml {
 
   std::size_t memory_bytes() const;
   bool active() const { return !slabs_.empty(); }
+  /// The psi arrays, for checkpoints.
+  void add_state(StateArrays& s, const std::string& prefix);
 
  private:
   struct Slab {

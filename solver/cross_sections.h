@@ -19,6 +19,10 @@ class CrossSectionRecorder {
   const std::vector<double>& result_omegas() const { return spec_.omegas; }
   int plane_wave() const { return spec_.plane_wave; }
   std::size_t memory_bytes() const { return inner_->memory_bytes() + outer_->memory_bytes(); }
+  void add_state(StateArrays& s, const std::string& prefix) {
+    inner_->add_state(s, prefix + "/inner");
+    outer_->add_state(s, prefix + "/outer");
+  }
 
  private:
   CrossSectionSpec spec_;

@@ -24,6 +24,7 @@ class DecayRateRecorder {
   /// Needs `r` to hold the source spectra and the far fields and fluxes already.
   DecayRateResult result(const RunResults& r) const;
   std::size_t memory_bytes() const { return box_->memory_bytes(); }
+  void add_state(StateArrays& s, const std::string& prefix) { box_->add_state(s, prefix + "/box"); }
   /// The frequencies: the scene's, or those of the `radiated` output when the scene lists none.
   const std::vector<double>& result_omegas() const { return omegas_; }
 

@@ -2,6 +2,7 @@
 #include "solver/dft_box.h"
 
 #include "solver/field.h"
+#include "solver/simulation_state.h"
 
 #include <cmath>
 
@@ -38,5 +39,7 @@ std::vector<Complex> dft_phases(const std::vector<double>& omegas, double t, dou
   for (std::size_t q = 0; q < omegas.size(); ++q) p[q] = std::polar(dt, omegas[q] * t);
   return p;
 }
+
+void DftBox::add_state(StateArrays& s, const std::string& name) { s.add_vector(name, acc_); }
 
 }  // namespace yeegap::solver

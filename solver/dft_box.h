@@ -7,11 +7,14 @@
 
 #include <array>
 #include <complex>
+#include <string>
 #include <vector>
 
 #include "solver/fields.h"
 
 namespace yeegap::solver {
+
+class StateArrays;  // simulation_state.h
 
 using Complex = std::complex<double>;
 
@@ -29,6 +32,8 @@ class DftBox {
     return acc_[((c * idx_[1].size() + b) * idx_[0].size() + a) * nf_ + f];
   }
   std::size_t memory_bytes() const { return acc_.size() * sizeof(Complex); }
+  /// The accumulators, for checkpoints.
+  void add_state(StateArrays& s, const std::string& name);
 
  private:
   Component comp_;

@@ -14,6 +14,7 @@
 // With g dt -> infinity the Drude factor (1 - g dt/2)/(1 + g dt/2) tends to -1 from above, so the
 // update stays stable for any damping (physics.md 1.4).
 #include "solver/dispersive.h"
+#include "solver/simulation_state.h"
 
 #include <fmt/format.h>
 
@@ -234,6 +235,22 @@ std::size_t DispersiveCurrents::memory_bytes() const {
       }
   }
   return bytes;
+}
+
+void DispersiveCurrents::add_state(StateArrays& s, const std::string& prefix) {
+  for (Group& g : groups_) {
+    const std::string base = fmt::format("{}/material{}", prefix, g.material);
+    const auto poles = [&](std::vector<Pole>& list, const char* kind) {
+      for (std::size_t i = 0; i < list.size(); ++i) {
+        s.add_vector(fmt::format("{}/{}{}/q", base, kind, i), list[i].q);
+        if (!list[i].p.empty()) s.add_vector(fmt::format("{}/{}{}/p", base, kind, i), list[i].p);
+      }
+    };
+    poles(g.drude, "drude");
+    poles(g.lorentz, "lorentz");
+    poles(g.critical, "critical");
+    if (!g.e_previous.empty()) s.add_vector(base + "/e_previous", g.e_previous);
+  }
 }
 
 }  // namespace yeegap::solver

@@ -13,6 +13,8 @@
 
 namespace yeegap::solver {
 
+class StateArrays;  // simulation_state.h
+
 /// One E location of a dispersive material: which component and its block index.
 struct DispersiveCell {
   Component component;
@@ -51,6 +53,9 @@ class DispersiveCurrents {
   std::vector<double> drude_damping(int material, int pole) const;
 
   std::size_t memory_bytes() const;
+  /// The pole currents (and E^{n-1} of critical points), for checkpoints. The per-cell dampings
+  /// are set once from the geometry and never change, so they are rebuilt, not stored.
+  void add_state(StateArrays& s, const std::string& prefix);
 
  private:
   // A coefficient shared by the whole material (one value) or given per cell (one per cell):

@@ -7,6 +7,7 @@
 // plane of each face, and the averaging is undone per direction (see the loop; derived here). The
 // DFTs use each component's true sample time (dft_box.h), so H's half-step lag needs no extra phase.
 #include "solver/far_field.h"
+#include "solver/simulation_state.h"
 #include "solver/surface_weights.h"
 
 #include <algorithm>
@@ -339,6 +340,11 @@ FarFieldResult FarFieldRecorder::result() const {
     r.directivity.push_back(std::move(di));
   }
   return r;
+}
+
+void FarFieldRecorder::add_state(StateArrays& s, const std::string& prefix) {
+  for (std::size_t f = 0; f < faces_.size(); ++f)
+    for (std::size_t t = 0; t < faces_[f].dft.size(); ++t) faces_[f].dft[t].add_state(s, fmt::format("{}/face{}/dft{}", prefix, f, t));
 }
 
 }  // namespace yeegap::solver

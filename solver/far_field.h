@@ -28,6 +28,7 @@ class FarFieldRecorder {
   std::size_t memory_bytes() const;
   const std::vector<double>& result_omegas() const { return spec_.omegas; }
   const std::string& name() const { return spec_.name; }
+  void add_state(StateArrays& s, const std::string& prefix);
 
  private:
   // Points of one face come in two sets, each holding an E and an H component at the same place

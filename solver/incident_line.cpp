@@ -1,5 +1,6 @@
 // 1D incident-wave grid (see incident_line.h).
 #include "solver/incident_line.h"
+#include "solver/simulation_state.h"
 
 #include <algorithm>
 #include <cmath>
@@ -69,6 +70,11 @@ void IncidentLine::advance_e(double t_h) {
   // recorded incident spectrum accounts for).
   const double k_sheet = -(2.0 / eta_) * amplitude_ * time_.moment(t_h);
   e_[source_] -= ce_b_[source_] * k_sheet * inv_dual_[source_];
+}
+
+void IncidentLine::add_state(StateArrays& s, const std::string& prefix) {
+  s.add_vector(prefix + "/e", e_);
+  s.add_vector(prefix + "/h", h_);
 }
 
 }  // namespace yeegap::solver

@@ -14,6 +14,8 @@
 
 namespace yeegap::solver {
 
+class StateArrays;  // simulation_state.h
+
 class IncidentLine {
  public:
   /// `first`..`last`: 3D node indices along `axis` the line must cover (it extends beyond them
@@ -29,6 +31,8 @@ class IncidentLine {
   int axis() const { return axis_; }
   int sign() const { return sign_; }
   double end_time() const { return time_.end_time(); }
+  /// E1 and H1 along the line, for checkpoints.
+  void add_state(StateArrays& s, const std::string& prefix);
 
  private:
   int axis_, sign_, offset_ = 0;  // offset_: 3D index of the line's first node

@@ -5,9 +5,12 @@
 // integrated by the trapezoid rule over the face's nodes.
 #include "solver/recorders.h"
 #include "solver/surface_weights.h"
+#include "solver/simulation_state.h"
 
 #include <algorithm>
 #include <cmath>
+
+#include <fmt/format.h>
 
 #include "base/errors.h"
 
@@ -248,6 +251,28 @@ std::size_t FluxRecorder::memory_bytes() const {
   for (const Face& face : faces_)
     for (const DftBox& d : face.dft) s += d.memory_bytes();
   return s;
+}
+
+// ---------------------------------------------------------------- checkpoints
+
+void ProbeRecorder::resize(std::size_t samples) {
+  result_.time.resize(samples);
+  for (auto& v : result_.values) v.resize(samples);
+}
+
+void ProbeRecorder::add_state(StateArrays& s, const std::string& prefix) {
+  s.add_vector(prefix + "/time", result_.time);
+  for (std::size_t q = 0; q < result_.values.size(); ++q)
+    s.add_vector(fmt::format("{}/{}", prefix, component_names[static_cast<int>(result_.components[q])]), result_.values[q]);
+}
+
+void FieldMapRecorder::add_state(StateArrays& s, const std::string& prefix) {
+  for (std::size_t b = 0; b < boxes_.size(); ++b) boxes_[b].add_state(s, fmt::format("{}/box{}", prefix, b));
+}
+
+void FluxRecorder::add_state(StateArrays& s, const std::string& prefix) {
+  for (std::size_t f = 0; f < faces_.size(); ++f)
+    for (std::size_t t = 0; t < faces_[f].dft.size(); ++t) faces_[f].dft[t].add_state(s, fmt::format("{}/face{}/dft{}", prefix, f, t));
 }
 
 }  // namespace yeegap::solver

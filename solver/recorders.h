@@ -13,6 +13,8 @@
 
 namespace yeegap::solver {
 
+class StateArrays;  // simulation_state.h
+
 /// Node index range [first, last] covered by [lo, hi] on axis a (the whole axis if invariant).
 std::array<int, 2> node_range(const Grid& g, int a, double lo, double hi);
 
@@ -21,6 +23,9 @@ class ProbeRecorder {
   ProbeRecorder(const ProbeSpec& spec, const Grid& g, const BlockLayout& L);
   void record(const Fields& f, bool electric, double t);
   ProbeResult result() const { return result_; }
+  /// Sizes the series for `samples` steps (before a checkpoint is read into them).
+  void resize(std::size_t samples);
+  void add_state(StateArrays& s, const std::string& prefix);
 
  private:
   std::vector<std::ptrdiff_t> offsets_;
@@ -34,6 +39,7 @@ class FieldMapRecorder {
   FieldMapResult result() const;
   std::size_t memory_bytes() const;
   const std::vector<double>& result_omegas() const { return spec_.omegas; }
+  void add_state(StateArrays& s, const std::string& prefix);
 
  private:
   FieldMapSpec spec_;
@@ -50,6 +56,7 @@ class FluxRecorder {
   FluxResult result() const;
   std::size_t memory_bytes() const;
   const std::vector<double>& result_omegas() const { return spec_.omegas; }
+  void add_state(StateArrays& s, const std::string& prefix);
 
  private:
   struct Face {

@@ -100,7 +100,7 @@ struct RunSummary {
   double simulated_time = 0;               // s
   double wall_seconds = 0;
   double cell_updates_per_second = 0;
-  std::string stop_reason;                 // "time", "decayed", "max_steps"
+  std::string stop_reason;                 // "time", "decayed", "max_steps"; "interrupted" (run's hook)
   double final_energy_fraction = 0;        // field energy at the end / its peak
 };
 

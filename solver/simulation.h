@@ -23,6 +23,7 @@
 #include "solver/recorders.h"
 #include "solver/results.h"
 #include "solver/scene.h"
+#include "solver/simulation_state.h"
 #include "solver/tfsf.h"
 #include "solver/yee_kernels.h"
 
@@ -57,13 +58,13 @@ struct Progress {
   double eta_seconds = 0;          // < 0 when unknown
 };
 
-class Simulation {
+class Simulation : public Checkpointable {
  public:
   /// Builds everything; throws RunError for settings that cannot run (unstable time step, ...).
   explicit Simulation(const Scene& scene);
   Simulation(const Simulation&) = delete;
   Simulation& operator=(const Simulation&) = delete;
-  ~Simulation();
+  ~Simulation() override;
 
   ModelSummary summary() const;
   /// The same figures without allocating the fields (for `yeegap check` on scenes too big to
@@ -71,15 +72,19 @@ class Simulation {
   static ModelSummary plan(const Scene& scene);
   /// Advances one full step (H then E).
   void step();
-  /// Runs until the stop rule holds; `progress` is called about twice a second.
-  RunResults run(const std::function<void(const Progress&)>& progress = {});
+  /// Runs until the stop rule holds; `progress` is called about twice a second. `between_steps`,
+  /// if given, is called after every step that the stop rule lets pass (a checkpoint may be taken
+  /// there); returning true ends the run at once with stop reason "interrupted", leaving the
+  /// state exactly as a checkpoint needs it (the final energy measurement is skipped).
+  RunResults run(const std::function<void(const Progress&)>& progress = {},
+                 const std::function<bool()>& between_steps = {});
   /// Collects the results at the current time (also usable after step()).
   RunResults results() const;
 
   // Access for tests and tools.
-  const Grid& grid() const { return grid_; }
+  const Grid& grid() const override { return grid_; }
   Fields& fields() { return fields_; }
-  double dt() const { return dt_; }
+  double dt() const override { return dt_; }
   long steps_done() const { return n_; }
   /// Field energy 1/2 sum (eps E^2 + mu0 H^2) dV over the interior, J (per unit length along
   /// invariant axes scaled by their cell size).
@@ -87,6 +92,11 @@ class Simulation {
   double field_energy() const;
   /// Polarisation currents of the dispersive materials (per-cell damping of gap cells goes here).
   DispersiveCurrents& dispersive() { return *dispersive_; }
+
+  // Checkpoints (simulation_state.h; defined in simulation_state.cpp).
+  StateCounters state_counters() const override;
+  void restore_counters(const StateCounters& c) override;
+  StateArrays state_arrays() override;
 
  private:
   void fill_periodic_halos(bool electric);

@@ -29,6 +29,8 @@ class PlaneWaveSource {
   /// Incident E1 at the box centre (an integer time): for the incident spectrum.
   double reference_e() const { return line_.e_at(reference_node_); }
   double end_time() const { return line_.end_time(); }
+  /// The incident line's fields, for checkpoints.
+  void add_state(StateArrays& s, const std::string& prefix) { line_.add_state(s, prefix); }
 
  private:
   struct Correction {

@@ -20,14 +20,14 @@ constexpr double d = 0.1e-9;       // cells
 constexpr double radius = 2e-9;
 constexpr double gap = 0.35e-9;    // surface to surface, on the x axis
 
-Scene dimer(bool quantum) {
+Scene dimer(bool quantum, double gap_width = gap) {
   Scene s = testing::vacuum_box({80, 40, 40}, d, testing::all_edges(EdgeKind::metal));
   MaterialSpec metal;
   metal.name = "metal";
   const materials::TunnelMetal au = *materials::find_tunnel_metal("Au");
   metal.poles.drude.push_back({au.plasma_frequency, au.damping});
   s.materials.push_back(metal);
-  const double cx = radius + gap / 2;
+  const double cx = radius + gap_width / 2;
   s.bodies.push_back({geometry::make_sphere({-cx, 0, 0}, radius), 1, {}});
   s.bodies.push_back({geometry::make_sphere({cx, 0, 0}, radius), 1, {}});
   TunnellingSpec t;
@@ -81,19 +81,16 @@ TEST(GapCells, ClassicalRunFindsTheSameGapButLeavesItEmpty) {
   EXPECT_EQ(c.material_names.size(), 2u) << "no gap material in a classical run";
 }
 
-TEST(GapCells, QuantumCorrectedGapWiderThanTheCutoffRunsAsClassical) {
-  // Spheres 1 nm apart: wider than the exponential fit's cut-off (0.55 nm), so no cell is gap
-  // medium; the run must build and step like the classical one.
-  Scene s = dimer(true);
-  const double wide = 1e-9, cx = radius + wide / 2;
-  s.bodies[0].shape = geometry::make_sphere({-cx, 0, 0}, radius);
-  s.bodies[1].shape = geometry::make_sphere({cx, 0, 0}, radius);
-  ASSERT_GT(wide, s.tunnelling[0].model.cutoff_width);
+TEST(GapCells, QuantumCorrectedGapWiderThanTheCutoffBuildsWithNoGapCells) {
+  // A sweep of gap widths crosses the cut-off: beyond it the quantum-corrected run has no gap
+  // cells at all and must build and run like the classical one.
+  const Scene s = dimer(true, 0.8e-9);
+  ASSERT_GT(0.8e-9, s.tunnelling[0].model.cutoff_width);
   Simulation sim(s);
-  sim.step();
-  const RunResults r = sim.results();
+  const RunResults r = sim.run();
   ASSERT_EQ(r.gaps.size(), 1u);
   EXPECT_EQ(r.gaps[0].cells, 0);
+  EXPECT_TRUE(sim.dispersive().cells(2).empty());
 }
 
 }  // namespace

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <optional>
 
 #include <fmt/format.h>
 
@@ -53,13 +54,66 @@ double uniform_cells_at(const solver::Scene& scene, const solver::ModelSummary& 
   return n;
 }
 
+double cell_updates(const solver::ModelSummary& m) { return static_cast<double>(m.cell_count) * m.steps; }
+
+// A scene with a sweep block: every point is read and planned (so a mistake in any point shows
+// now); the whole sweep's cost is the sum over the points, whose grids may differ.
+struct SweepCost {
+  std::size_t points = 0;
+  std::string combine;
+  double cell_updates = 0;
+  long long fewest_cells = 0, most_cells = 0;
+  std::size_t memory_bytes = 0;  // the largest point's: points run one at a time by default
+  std::vector<std::string> rows;  // JSON per point
+};
+
+SweepCost sweep_cost(const std::string& text, const CheckOptions& o, const io::SweepPlan& plan) {
+  SweepCost c;
+  c.points = plan.point_count();
+  c.combine = plan.combine == io::Combine::zip ? "zip" : "grid";
+  for (std::size_t k = 0; k < c.points; ++k) {
+    const solver::Scene s = io::read_scene_point(text, o.scene, plan, k, o.overrides, k == 0 ? io::NoteSink(io::notes_to_stderr)
+                                                                                              : io::NoteSink([](const std::string&) {}));
+    const solver::ModelSummary m = solver::Simulation::plan(s);
+    c.cell_updates += cell_updates(m);
+    c.fewest_cells = k == 0 ? m.cell_count : std::min(c.fewest_cells, m.cell_count);
+    c.most_cells = std::max(c.most_cells, m.cell_count);
+    c.memory_bytes = std::max(c.memory_bytes, m.memory_bytes);
+    JsonObject row;
+    row.number("point", static_cast<double>(k))
+        .text("values", plan.describe(k))
+        .number("cells", static_cast<double>(m.cell_count))
+        .number("steps", static_cast<double>(m.steps))
+        .number("estimated_seconds", cell_updates(m) / assumed_cell_updates_per_second);
+    c.rows.push_back(row.str());
+  }
+  return c;
+}
+
 int run_check(const CheckOptions& o) {
-  const solver::Scene scene = io::read_scene_file(o.scene, o.overrides);
+  const std::string text = io::read_scene_file_text(o.scene);
+  const io::SweepPlan plan = io::read_sweep_plan(text, o.scene);
+  std::optional<SweepCost> sweep;
+  if (!plan.empty()) sweep = sweep_cost(text, o, plan);
+  // The details below are those of the scene, or of a sweep's first point.
+  const solver::Scene scene = plan.empty() ? io::read_scene_text(text, o.scene, o.overrides)
+                                           : io::read_scene_point(text, o.scene, plan, 0, o.overrides,
+                                                                  [](const std::string&) {});
   const solver::ModelSummary m = solver::Simulation::plan(scene);
-  const double cost_seconds = static_cast<double>(m.cell_count) * m.steps / assumed_cell_updates_per_second;
+  const double cost_seconds = cell_updates(m) / assumed_cell_updates_per_second;
   const double uniform = uniform_cells_at(scene, m);
   if (o.json) {
     JsonObject j;
+    if (sweep) {
+      JsonObject s;
+      s.number("points", static_cast<double>(sweep->points))
+          .text("combine", sweep->combine)
+          .number("cell_updates", sweep->cell_updates)
+          .number("estimated_seconds", sweep->cell_updates / assumed_cell_updates_per_second)
+          .number("largest_memory_bytes", static_cast<double>(sweep->memory_bytes))
+          .add("per_point", json_array(sweep->rows));
+      j.add("sweep", s.str());
+    }
     j.text("scene", o.scene)
         .add("grid", json_array({fmt::format("{}", m.cells[0]), fmt::format("{}", m.cells[1]), fmt::format("{}", m.cells[2])}))
         .number("cells", static_cast<double>(m.cell_count))
@@ -84,6 +138,15 @@ int run_check(const CheckOptions& o) {
     return exit_ok;
   }
   std::fprintf(stderr, "%s: valid\n", o.scene.c_str());
+  if (sweep) {
+    const double seconds = sweep->cell_updates / assumed_cell_updates_per_second;
+    std::fprintf(stderr, "  sweep       %zu points (%s), %lld to %lld cells each\n", sweep->points, sweep->combine.c_str(),
+                 sweep->fewest_cells, sweep->most_cells);
+    std::fprintf(stderr, "  sweep cost  about %.3g cell updates in all, %.3g s at %.0f Mcells/s (one point at a time; "
+                 "largest point %.1f MB)\n", sweep->cell_updates, seconds, assumed_cell_updates_per_second / 1e6,
+                 sweep->memory_bytes / 1e6);
+    std::fprintf(stderr, "  below: point 0 (%s)\n", plan.describe(0).c_str());
+  }
   std::fprintf(stderr, "  grid        %d x %d x %d = %lld cells, cells %.4g to %.4g nm\n", m.cells[0], m.cells[1], m.cells[2],
                m.cell_count, m.smallest_cell * 1e9, m.largest_cell * 1e9);
   for (int a = 0; a < 3; ++a)
@@ -112,7 +175,8 @@ int run_check(const CheckOptions& o) {
 void add_check_command(CLI::App& app, int& exit_code) {
   auto opts = std::make_shared<CheckOptions>();
   CLI::App* cmd = app.add_subcommand("check", "validate a scene and print grid, time step, steps, memory and cost");
-  cmd->footer("Example:\n  yeegap check examples/dipole_near_sphere.yaml --json");
+  cmd->footer("Examples:\n  yeegap check examples/dipole_near_sphere.yaml --json\n"
+              "  yeegap check examples/tunnelling_gap_sweep.yaml      a sweep: points, cost of all of them, point 0 in detail");
   cmd->add_option("scene", opts->scene, "scene file (YAML)")->required();
   cmd->add_option("--set", opts->overrides, "override a scene value, e.g. --set domain.step=2nm (repeatable)");
   cmd->add_flag("--json", opts->json, "print one JSON object on stdout");

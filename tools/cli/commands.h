@@ -7,14 +7,18 @@
 namespace yeegap::cli {
 
 /// Exit codes: 0 success, 1 a failure of the program or the system (disk, memory),
-/// 2 a mistake in the user's input (scene, option, unstable setting), found before running.
+/// 2 a mistake in the user's input (scene, option, unstable setting, a checkpoint that does not
+/// fit), found before running, 3 `run` stopped by SIGINT or SIGTERM after writing its checkpoint
+/// and partial results (`run --resume` finishes it).
 inline constexpr int exit_ok = 0;
 inline constexpr int exit_failure = 1;
 inline constexpr int exit_user_error = 2;
+inline constexpr int exit_interrupted = 3;
 
 /// `command_line` is the program's arguments joined by spaces, stored with the results.
 void add_run_command(CLI::App& app, int& exit_code, const std::string& command_line);
 void add_check_command(CLI::App& app, int& exit_code);
+void add_sweep_command(CLI::App& app, int& exit_code, const std::string& command_line);
 void add_view_command(CLI::App& app, int& exit_code);
 void add_gap_command(CLI::App& app, int& exit_code);
 void add_materials_command(CLI::App& app, int& exit_code);

@@ -13,7 +13,8 @@ int main(int argc, char** argv) {
       "Examples:\n"
       "  yeegap check examples/dipole_near_sphere.yaml          validate a scene, print grid and cost\n"
       "  yeegap run examples/dipole_near_sphere.yaml --threads 2 run it; results go next to the scene (.h5)\n"
-      "  yeegap run scene.yaml --set domain.step=2nm -o fine.h5  override a value for this run\n"};
+      "  yeegap run scene.yaml --set domain.step=2nm -o fine.h5  override a value for this run\n"
+      "  yeegap sweep examples/tunnelling_gap_sweep.yaml         every point of a sweep, merged into one table\n"};
   app.set_version_flag("--version", "yeegap " YEEGAP_VERSION);
   app.require_subcommand(1);
   int exit_code = yeegap::cli::exit_ok;
@@ -21,6 +22,7 @@ int main(int argc, char** argv) {
   for (int i = 1; i < argc; ++i) command_line += std::string(" ") + argv[i];
   yeegap::cli::add_run_command(app, exit_code, command_line);
   yeegap::cli::add_check_command(app, exit_code);
+  yeegap::cli::add_sweep_command(app, exit_code, command_line);
   yeegap::cli::add_view_command(app, exit_code);
   yeegap::cli::add_gap_command(app, exit_code);
   yeegap::cli::add_materials_command(app, exit_code);

@@ -19,8 +19,11 @@ std::string clock_text(double seconds) {
 
 ProgressLine::ProgressLine() : enabled_(isatty(fileno(stderr)) == 1) {}
 
-ProgressLine::~ProgressLine() {
+ProgressLine::~ProgressLine() { break_line(); }
+
+void ProgressLine::break_line() {
   if (drawn_) std::fputs("\n", stderr);
+  drawn_ = false;
 }
 
 void ProgressLine::update(const solver::Progress& p) {

@@ -11,6 +11,8 @@ class ProgressLine {
   ProgressLine();
   ~ProgressLine();
   void update(const solver::Progress& p);
+  /// Ends the drawn line (if any), so a message can follow on a line of its own.
+  void break_line();
 
  private:
   bool enabled_;

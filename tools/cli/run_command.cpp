@@ -1,22 +1,29 @@
 // `yeegap run SCENE`: reads and checks the scene, refuses what cannot run before starting, runs it
 // with progress on a terminal, writes one HDF5 results file and prints the headline figures
-// (`--json`: one object on stdout for scripts and sweeps).
+// (`--json`: one object on stdout for scripts and sweeps). Checkpoints every --checkpoint-every
+// and on SIGINT/SIGTERM (then partial results and exit code 3); --resume continues from one.
 #include <omp.h>
 
 #include <algorithm>
+#include <chrono>
 #include <cmath>
+#include <csignal>
 #include <cstdio>
 #include <ctime>
 #include <filesystem>
+#include <optional>
 
 #include <fmt/format.h>
 
 #include "base/constants.h"
 #include "commands.h"
+#include "io/checkpoint.h"
 #include "io/results_writer.h"
 #include "io/scene_reader.h"
+#include "io/sweep_table.h"
 #include "json.h"
 #include "progress.h"
+#include "run_control.h"
 #include "solver/simulation.h"
 #include "viewer_outputs.h"
 
@@ -29,13 +36,18 @@ struct RunOptions {
   std::string output;
   std::vector<std::string> overrides;
   int threads = 0;
+  std::optional<std::size_t> point;  // one point of the scene's sweep
   bool json = false;
   bool plot = false;
+  std::string checkpoint_every = "30min";
+  bool resume = false;
   std::string command_line;
 };
 
-std::string default_output(const std::string& scene) {
-  return std::filesystem::path(scene).replace_extension(".h5").string();
+std::string default_output(const std::string& scene, std::optional<std::size_t> point) {
+  std::filesystem::path p(scene);
+  if (point) return p.replace_extension().string() + fmt::format("_point_{}.h5", *point);
+  return p.replace_extension(".h5").string();
 }
 
 std::string now_iso8601() {
@@ -184,28 +196,91 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
 }
 
 int run_scene(const RunOptions& o) {
-  const solver::Scene scene = io::read_scene_file(o.scene, o.overrides);
-  const std::string output = o.output.empty() ? default_output(o.scene) : o.output;
+  io::SweepPlan sweep;
+  solver::Scene scene;
+  if (o.point) {
+    const std::string text = io::read_scene_file_text(o.scene);
+    sweep = io::read_sweep_plan(text, o.scene);
+    scene = io::read_scene_point(text, o.scene, sweep, *o.point, o.overrides);
+  } else {
+    scene = io::read_scene_file(o.scene, o.overrides);
+  }
+  const std::string output = o.output.empty() ? default_output(o.scene, o.point) : o.output;
   io::check_writable(output);  // fail now, not after hours of computing
   if (o.threads > 0) omp_set_num_threads(o.threads);
   const int threads = omp_get_max_threads();
   const std::string started = now_iso8601();
 
+  const std::string checkpoint = io::checkpoint_path(output);
+  const double checkpoint_seconds = parse_duration(o.checkpoint_every).value_or(0);  // checked by the option
+
   solver::Simulation sim(scene);
+  io::CheckpointInfo info{YEEGAP_VERSION, o.overrides};
+  if (o.point) info.overrides.push_back(fmt::format("(sweep point {})", *o.point));  // points share one text
+  std::error_code ec;
+  if (o.resume) {
+    io::read_checkpoint(checkpoint, sim, scene, info);
+    std::fprintf(stderr, "yeegap: resuming from %s at step %ld\n", checkpoint.c_str(), sim.steps_done());
+  } else if (std::filesystem::exists(checkpoint, ec)) {
+    std::fprintf(stderr, "yeegap: note: %s is from an earlier run that did not finish; this run starts over and "
+                 "replaces it (--resume continues it instead)\n", checkpoint.c_str());
+  }
   const solver::ModelSummary plan = sim.summary();
   std::fprintf(stderr, "yeegap: %s: %d x %d x %d cells, dt %.4g fs, %s%ld steps, %.1f MB, %d thread%s\n", o.scene.c_str(),
                plan.cells[0], plan.cells[1], plan.cells[2], plan.time_step * 1e15, plan.steps_estimated ? "about " : "",
                plan.steps, plan.memory_bytes / 1e6, threads, threads == 1 ? "" : "s");
   solver::RunResults results;
+  bool checkpoint_failed = false;
   {
     ProgressLine progress;
-    results = sim.run([&](const solver::Progress& p) { progress.update(p); });
+    StopSignals signals;
+    using clock = std::chrono::steady_clock;
+    auto last_checkpoint = clock::now();
+    // Between two steps: stop on a signal, or write the periodic checkpoint. A checkpoint that
+    // cannot be written (full disk) is reported and the run goes on: its results may still fit.
+    const auto between_steps = [&] {
+      if (signals.received() != 0) return true;
+      if (checkpoint_seconds > 0 &&
+          std::chrono::duration<double>(clock::now() - last_checkpoint).count() >= checkpoint_seconds) {
+        try {
+          io::write_checkpoint(checkpoint, sim, scene, info);
+          progress.break_line();
+          std::fprintf(stderr, "yeegap: checkpoint at step %ld in %s\n", sim.steps_done(), checkpoint.c_str());
+        } catch (const std::exception& e) {
+          progress.break_line();
+          std::fprintf(stderr, "yeegap: warning: %s; the run goes on\n", e.what());
+        }
+        last_checkpoint = clock::now();
+      }
+      return false;
+    };
+    results = sim.run([&](const solver::Progress& p) { progress.update(p); }, between_steps);
+    if (results.summary.stop_reason == "interrupted") {
+      progress.break_line();
+      std::fprintf(stderr, "yeegap: stopped by %s at step %ld\n", signals.received() == SIGINT ? "SIGINT" : "SIGTERM",
+                   sim.steps_done());
+      try {  // first: it is what lets the run finish later
+        io::write_checkpoint(checkpoint, sim, scene, info);
+        std::fprintf(stderr, "yeegap: checkpoint in %s\n", checkpoint.c_str());
+      } catch (const std::exception& e) {
+        checkpoint_failed = true;  // the partial results are still worth writing
+        std::fprintf(stderr, "yeegap: %s\n", e.what());
+      }
+    }
   }
+  const bool interrupted = results.summary.stop_reason == "interrupted";
   io::write_results(output, results, scene, {YEEGAP_VERSION, o.command_line, started, threads});
+  // With its /sweep record the file counts as a finished point for `yeegap sweep` (if named
+  // point_NNNN.h5 in the sweep's folder); written after the results, so a failure here loses none.
+  // Partial results of an interrupted run get none: the point is not finished.
+  if (o.point && !interrupted) io::write_point_record(output, sweep, *o.point, io::compute_figures(results, scene), o.overrides);
   write_viewer_file(output);  // a failure is reported; the results are safe either way
+  if (!interrupted) std::filesystem::remove(checkpoint, ec);  // finished: nothing left to resume
   const auto& s = results.summary;
-  std::fprintf(stderr, "yeegap: %ld steps (%s) in %.1f s, %.1f Mcells/s; results in %s\n", s.steps, s.stop_reason.c_str(),
-               s.wall_seconds, s.cell_updates_per_second / 1e6, output.c_str());
+  std::fprintf(stderr, "yeegap: %ld steps (%s) in %.1f s, %.1f Mcells/s; %sresults in %s\n", s.steps, s.stop_reason.c_str(),
+               s.wall_seconds, s.cell_updates_per_second / 1e6, interrupted ? "partial " : "", output.c_str());
+  if (interrupted && !checkpoint_failed)
+    std::fprintf(stderr, "yeegap: to finish the run: the same command with --resume\n");
   const std::string outs = headlines(results, scene);
   if (o.json) {
     JsonObject j;
@@ -219,6 +294,7 @@ int run_scene(const RunOptions& o) {
         .add("outputs", outs);
     std::printf("%s\n", j.str().c_str());
   }
+  if (interrupted) return checkpoint_failed ? exit_failure : exit_interrupted;
   if (o.plot) make_plots(output);  // a failure is reported but leaves the exit code alone
   return exit_ok;
 }
@@ -231,13 +307,27 @@ void add_run_command(CLI::App& app, int& exit_code, const std::string& command_l
   cmd->footer(
       "Examples:\n"
       "  yeegap run examples/dipole_near_sphere.yaml\n"
-      "  yeegap run scene.yaml -o out.h5 --threads 2 --set 'bodies[0].radius=45 nm' --json");
+      "  yeegap run scene.yaml -o out.h5 --threads 2 --set 'bodies[0].radius=45 nm' --json\n"
+      "  yeegap run sweep_scene.yaml --point 2             one point of a scene's sweep block\n"
+      "  yeegap run scene.yaml --checkpoint-every 10min     (then, after a kill or Ctrl-C:)\n"
+      "  yeegap run scene.yaml --resume\n"
+      "Exit codes: 0 done, 1 program or system failure, 2 input error, 3 stopped by SIGINT/SIGTERM\n"
+      "(checkpoint and partial results written; --resume finishes the run).");
   cmd->add_option("scene", opts->scene, "scene file (YAML)")->required();
   cmd->add_option("-o,--output", opts->output, "results file (default: the scene's name with .h5)");
   cmd->add_option("--set", opts->overrides, "override a scene value, e.g. --set domain.step=2nm (repeatable)");
   cmd->add_option("--threads", opts->threads, "worker threads (default: all cores)")->check(CLI::PositiveNumber);
+  cmd->add_option("--point", opts->point,
+                  "for a scene with a sweep block: run this point of it (from 0; default output SCENE_point_K.h5)");
   cmd->add_flag("--json", opts->json, "print a one-object summary on stdout at the end");
   cmd->add_flag("--plot", opts->plot, "also write PNG and SVG figures next to the results (needs python3-matplotlib)");
+  cmd->add_option("--checkpoint-every", opts->checkpoint_every,
+                  "write a checkpoint (<results>.checkpoint.h5) this often: 30min, 90s, 2h, or off (default 30min)")
+      ->check([](const std::string& v) {
+        return parse_duration(v) ? std::string() : "expected a duration like 10min, 90s or 2h, or off; got '" + v + "'";
+      });
+  cmd->add_flag("--resume", opts->resume,
+                "continue from the checkpoint next to the results file (same scene, --set values and program version)");
   opts->command_line = command_line;
   cmd->callback([opts, &exit_code] {
     exit_code = guarded([&] { return run_scene(*opts); });
