@@ -125,7 +125,7 @@ void check_inside_domain(const Node& v, const Vec3& p, const solver::DomainSpec&
 
 void read_domain(const Node& block, solver::Scene& scene) {
   block.allow({"size", "center", "step", "edges", "absorber", "background", "courant", "time_step", "refine",
-               "gap_cells", "grading"});
+               "gap_cells", "grading", "averaging"});
   solver::DomainSpec& d = scene.domain;
   d.size = read_extent(block.require("size"));
   if (auto center = block.get("center")) d.center = read_position(*center);
@@ -185,6 +185,8 @@ void read_domain(const Node& block, solver::Scene& scene) {
       grading->fail(fmt::format("must be the largest ratio of neighbouring cells, above 1 and at most 2 (1.2 is common "
                                 "practice), got '{}'", grading->text()));
   }
+  // Subcell averaging at interfaces (solver/subcell_average.h), or the plain staircase to compare.
+  if (auto averaging = block.get("averaging")) d.averaging = read_word(*averaging, {"on", "off"}) == "on";
   block.done();
 }
 

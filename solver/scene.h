@@ -67,6 +67,8 @@ struct DomainSpec {
   int gap_cells = 4;              // cells across each gap between bodies narrower than this many
                                   // base cells; 0 = no gap search
   double grading_ratio = 1.2;     // largest ratio of neighbouring cells (common practice)
+  bool averaging = false;         // subcell averaging at E locations an interface crosses
+                                  // (solver/subcell_average.h); false = plain staircase
 };
 
 struct MaterialSpec {

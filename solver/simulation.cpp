@@ -126,7 +126,14 @@ Simulation::Simulation(const Scene& scene)
   ecoef_ = e_coefficients(scene_, dt_);
   fill_material_index(scene_, grid_, fields_.layout, mindex_);
   const GapCells gap_cells(scene_, grid_, fields_.layout, mindex_);
-  dispersive_ = std::make_unique<DispersiveCurrents>(scene_, fields_.layout, mindex_, ecoef_, dt_);
+  if (scene_.domain.averaging) {
+    subcell_ = std::make_unique<SubcellAverage>(scene_, grid_, fields_.layout, mindex_, ecoef_, dt_);
+    if (subcell_->empty()) subcell_.reset();
+  }
+  // Mixed locations carry their own polarisation currents (subcell_average.h).
+  dispersive_ = std::make_unique<DispersiveCurrents>(
+      scene_, fields_.layout,
+      subcell_ ? subcell_->without_mixed(mindex_, static_cast<int>(scene_.materials.size())) : mindex_, ecoef_, dt_);
   gap_cells.set_damping(*dispersive_);
   gaps_ = gap_cells.report();
 
@@ -250,6 +257,8 @@ ModelSummary Simulation::summary() const {
   std::size_t bytes = 6 * fields_.layout.total * sizeof(real) + 3 * fields_.layout.total;
   if (cpml_) bytes += cpml_->memory_bytes();
   bytes += dispersive_->memory_bytes();
+  if (subcell_) bytes += subcell_->memory_bytes();
+  m.mixed_cells = subcell_ ? static_cast<long long>(subcell_->size()) : 0;
   for (const auto& r : maps_) bytes += r.memory_bytes();
   for (const auto& r : fluxes_) bytes += r.memory_bytes();
   for (const auto& r : cross_) bytes += r.memory_bytes();
@@ -324,10 +333,12 @@ void Simulation::step() {
 
   fill_periodic_halos(false);
   if (!dispersive_->empty()) dispersive_->advance(fields_);
+  if (subcell_) subcell_->keep(fields_);
   update_e(fields_, curls_, ecoef_, mindex_);
   if (cpml_) cpml_->apply_e(fields_, ecoef_, mindex_);
   for (const auto& d : dipoles_) d.apply_e(fields_, ecoef_, mindex_, t_h);
   for (auto& w : plane_waves_) w.apply_e(fields_, t_h);
+  if (subcell_) subcell_->apply(fields_);
   if (!dispersive_->empty()) dispersive_->correct(fields_);
   if (dft_now) {
     if (!plane_waves_.empty()) {

@@ -24,6 +24,7 @@
 #include "solver/results.h"
 #include "solver/scene.h"
 #include "solver/simulation_state.h"
+#include "solver/subcell_average.h"
 #include "solver/tfsf.h"
 #include "solver/yee_kernels.h"
 
@@ -48,6 +49,7 @@ struct ModelSummary {
   };
   std::vector<RefinedGap> gaps;      // gaps between bodies found and refined by the mesh builder
   std::vector<std::string> mesh_notes;  // what the mesh builder dropped or changed
+  long long mixed_cells = -1;      // E locations with an averaged permittivity; -1 = not counted
 };
 
 struct Progress {
@@ -111,6 +113,7 @@ class Simulation : public Checkpointable {
   MaterialIndex mindex_;
   std::unique_ptr<Cpml> cpml_;
   std::unique_ptr<DispersiveCurrents> dispersive_;
+  std::unique_ptr<SubcellAverage> subcell_;       // null with averaging off or no mixed locations
   std::vector<GapResult> gaps_;
   std::vector<DipoleSource> dipoles_;
   std::vector<PlaneWaveSource> plane_waves_;
