@@ -234,7 +234,8 @@ void BlochRun::step() {
   ++n_;
 }
 
-RunResults BlochRun::run(const std::function<void(const Progress&)>& progress) {
+RunResults BlochRun::run(const std::function<void(const Progress&)>& progress,
+                         const std::function<bool()>& between_steps) {
   using clock = std::chrono::steady_clock;
   const StopSpec& st = scene_.stop;
   const double dt = re_->dt();
@@ -245,6 +246,8 @@ RunResults BlochRun::run(const std::function<void(const Progress&)>& progress) {
   const long planned = after_steps >= 0 ? after_steps : plan(scene_).steps;
   auto energy = [&] { return re_->field_energy() + (im_ ? im_->field_energy() : 0.0); };
   const auto start = clock::now();
+  const long first_step = n_;                 // > 0 when resumed from a checkpoint
+  const double earlier_wall = wall_seconds_;  // run time of the segments before a resume
   auto last_report = start;
   stop_reason_.clear();
   while (stop_reason_.empty()) {
@@ -264,15 +267,19 @@ RunResults BlochRun::run(const std::function<void(const Progress&)>& progress) {
         p.step = n_;
         p.planned_steps = std::max(planned, n_);
         const double elapsed = std::chrono::duration<double>(now - start).count();
-        p.steps_per_second = n_ / elapsed;
+        p.steps_per_second = (n_ - first_step) / elapsed;
         p.cells_per_second = p.steps_per_second * static_cast<double>(re_->grid().cell_count());
         p.eta_seconds = (p.planned_steps - n_) / p.steps_per_second;
         progress(p);
       }
     }
+    if (stop_reason_.empty() && between_steps) {
+      wall_seconds_ = earlier_wall + std::chrono::duration<double>(clock::now() - start).count();
+      if (between_steps()) stop_reason_ = "interrupted";
+    }
   }
-  wall_seconds_ = std::chrono::duration<double>(clock::now() - start).count();
-  if (st.decayed > 0 || peak_energy_ == 0) {
+  wall_seconds_ = earlier_wall + std::chrono::duration<double>(clock::now() - start).count();
+  if (stop_reason_ != "interrupted" && (st.decayed > 0 || peak_energy_ == 0)) {
     last_energy_ = energy();
     peak_energy_ = std::max(peak_energy_, last_energy_);
   }

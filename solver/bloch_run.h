@@ -16,7 +16,7 @@
 
 namespace yeegap::solver {
 
-class BlochRun {
+class BlochRun : public Checkpointable {
  public:
   /// `scene` may hold one plane_wave (bloch_waves) without an angle list, dipoles, probes, field
   /// maps and fluxes; cross sections, far fields, decay rates and tfsf boxes are refused when the
@@ -24,7 +24,7 @@ class BlochRun {
   explicit BlochRun(const Scene& scene);
   BlochRun(const BlochRun&) = delete;
   BlochRun& operator=(const BlochRun&) = delete;
-  ~BlochRun();
+  ~BlochRun() override;
 
   /// The scene as it runs: the Bloch wavevector set from the plane wave's angle, a time step that
   /// is stable with it, the CPML shift from the wave's band, and the reflected and transmitted
@@ -34,7 +34,9 @@ class BlochRun {
   static ModelSummary plan(const Scene& scene);
 
   void step();
-  RunResults run(const std::function<void(const Progress&)>& progress = {});
+  /// As Simulation::run, `between_steps` included (a checkpoint may be taken there).
+  RunResults run(const std::function<void(const Progress&)>& progress = {},
+                 const std::function<bool()>& between_steps = {});
   RunResults results() const;
 
   Simulation& real_part() { return *re_; }
@@ -43,7 +45,14 @@ class BlochRun {
   Simulation* incident_imaginary_part() { return inc_im_.get(); }
   const BlochWavePlan* wave_plan() const { return wave_ ? &plan_ : nullptr; }
   long steps_done() const { return n_; }
-  double dt() const { return re_->dt(); }
+  double dt() const override { return re_->dt(); }
+
+  // Checkpoints (bloch_state.cpp): every part's arrays under "real", "imaginary", "incident_real",
+  // "incident_imaginary", with the run's own counters.
+  const Grid& grid() const override;
+  StateCounters state_counters() const override;
+  void restore_counters(const StateCounters& c) override;
+  StateArrays state_arrays() override;
 
  private:
   Scene scene_;
