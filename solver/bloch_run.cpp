@@ -7,7 +7,6 @@
 #include "solver/bloch_run.h"
 
 #include <algorithm>
-#include <chrono>
 #include <cmath>
 #include <set>
 
@@ -18,12 +17,12 @@
 #include "solver/bloch_halos.h"
 #include "solver/mesh_plan.h"
 #include "solver/recorders.h"
+#include "solver/time_loop.h"
 
 namespace yeegap::solver {
 
 namespace {
 
-constexpr long energy_interval = 20;  // as Simulation::run: a decay check every 20 steps
 // Widest band (half-width over the centre) a one-frequency run uses: a shorter pulse than this
 // gains little, since the run's length is then set by the structure's ring-down.
 constexpr double widest_relative_half_width = 0.1;
@@ -236,53 +235,12 @@ void BlochRun::step() {
 
 RunResults BlochRun::run(const std::function<void(const Progress&)>& progress,
                          const std::function<bool()>& between_steps) {
-  using clock = std::chrono::steady_clock;
-  const StopSpec& st = scene_.stop;
-  const double dt = re_->dt();
-  const long after_steps = st.after > 0 ? static_cast<long>(std::ceil(st.after / dt)) : -1;
   double source_end = 0;
   for (const auto& d : scene_.dipoles) source_end = std::max(source_end, SourceTime(d.waveform).end_time());
   for (const auto& w : scene_.bloch_waves) source_end = std::max(source_end, SourceTime(w.waveform).end_time());
-  const long planned = after_steps >= 0 ? after_steps : plan(scene_).steps;
-  auto energy = [&] { return re_->field_energy() + (im_ ? im_->field_energy() : 0.0); };
-  const auto start = clock::now();
-  const long first_step = n_;                 // > 0 when resumed from a checkpoint
-  const double earlier_wall = wall_seconds_;  // run time of the segments before a resume
-  auto last_report = start;
-  stop_reason_.clear();
-  while (stop_reason_.empty()) {
-    step();
-    if (after_steps >= 0 && n_ >= after_steps) stop_reason_ = "time";
-    else if (n_ >= st.max_steps) stop_reason_ = "max_steps";
-    else if (st.decayed > 0 && n_ % energy_interval == 0) {
-      last_energy_ = energy();
-      peak_energy_ = std::max(peak_energy_, last_energy_);
-      if (n_ * dt > source_end && peak_energy_ > 0 && last_energy_ < st.decayed * peak_energy_) stop_reason_ = "decayed";
-    }
-    if (progress && (n_ & 15) == 0) {
-      const auto now = clock::now();
-      if (std::chrono::duration<double>(now - last_report).count() > 0.5) {
-        last_report = now;
-        Progress p;
-        p.step = n_;
-        p.planned_steps = std::max(planned, n_);
-        const double elapsed = std::chrono::duration<double>(now - start).count();
-        p.steps_per_second = (n_ - first_step) / elapsed;
-        p.cells_per_second = p.steps_per_second * static_cast<double>(re_->grid().cell_count());
-        p.eta_seconds = (p.planned_steps - n_) / p.steps_per_second;
-        progress(p);
-      }
-    }
-    if (stop_reason_.empty() && between_steps) {
-      wall_seconds_ = earlier_wall + std::chrono::duration<double>(clock::now() - start).count();
-      if (between_steps()) stop_reason_ = "interrupted";
-    }
-  }
-  wall_seconds_ = earlier_wall + std::chrono::duration<double>(clock::now() - start).count();
-  if (stop_reason_ != "interrupted" && (st.decayed > 0 || peak_energy_ == 0)) {
-    last_energy_ = energy();
-    peak_energy_ = std::max(peak_energy_, last_energy_);
-  }
+  run_time_loop({scene_.stop, re_->dt(), source_end, plan(scene_).steps, re_->grid().cell_count()},
+                {n_, peak_energy_, last_energy_, wall_seconds_, stop_reason_}, [&] { step(); },
+                [&] { return re_->field_energy() + (im_ ? im_->field_energy() : 0.0); }, progress, between_steps);
   return results();
 }
 

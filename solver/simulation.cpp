@@ -2,7 +2,6 @@
 #include "solver/simulation.h"
 
 #include <algorithm>
-#include <chrono>
 #include <cmath>
 #include <limits>
 #include <set>
@@ -15,14 +14,11 @@
 #include "solver/dispersive_stability.h"
 #include "solver/material_map.h"
 #include "solver/mesh_plan.h"
+#include "solver/time_loop.h"
 
 namespace yeegap::solver {
 
 namespace {
-
-// How often (in steps) the field energy is measured for the decay stop rule; a full pass over
-// the fields costs about half a step, so every 20th step adds 2.5 %.
-constexpr long energy_interval = 20;
 
 double choose_time_step(const Scene& s, const Grid& g) {
   const double limit = g.courant_limit();
@@ -402,49 +398,9 @@ double Simulation::field_energy() const {
 
 RunResults Simulation::run(const std::function<void(const Progress&)>& progress,
                            const std::function<bool()>& between_steps) {
-  using clock = std::chrono::steady_clock;
-  const ModelSummary plan = summary();
-  const StopSpec& st = scene_.stop;
-  const long after_steps = st.after > 0 ? static_cast<long>(std::ceil(st.after / dt_)) : -1;
-  const double source_end = sources_end_time();
-  const auto start = clock::now();
-  const long first_step = n_;                 // > 0 when resumed from a checkpoint
-  const double earlier_wall = wall_seconds_;  // run time of the segments before a resume
-  auto last_report = start;
-  stop_reason_.clear();
-  while (stop_reason_.empty()) {
-    step();
-    if (after_steps >= 0 && n_ >= after_steps) stop_reason_ = "time";
-    else if (n_ >= st.max_steps) stop_reason_ = "max_steps";
-    else if (st.decayed > 0 && n_ % energy_interval == 0) {
-      last_energy_ = field_energy();
-      peak_energy_ = std::max(peak_energy_, last_energy_);
-      if (n_ * dt_ > source_end && peak_energy_ > 0 && last_energy_ < st.decayed * peak_energy_) stop_reason_ = "decayed";
-    }
-    if (progress && (n_ & 15) == 0) {
-      const auto now = clock::now();
-      if (std::chrono::duration<double>(now - last_report).count() > 0.5) {
-        last_report = now;
-        Progress p;
-        p.step = n_;
-        p.planned_steps = after_steps >= 0 ? after_steps : std::max(plan.steps, n_);
-        const double elapsed = std::chrono::duration<double>(now - start).count();
-        p.steps_per_second = (n_ - first_step) / elapsed;
-        p.cells_per_second = p.steps_per_second * static_cast<double>(grid_.cell_count());
-        p.eta_seconds = (p.planned_steps - n_) / p.steps_per_second;
-        progress(p);
-      }
-    }
-    if (stop_reason_.empty() && between_steps) {
-      wall_seconds_ = earlier_wall + std::chrono::duration<double>(clock::now() - start).count();
-      if (between_steps()) stop_reason_ = "interrupted";
-    }
-  }
-  wall_seconds_ = earlier_wall + std::chrono::duration<double>(clock::now() - start).count();
-  if (stop_reason_ != "interrupted" && (st.decayed > 0 || peak_energy_ == 0)) {
-    last_energy_ = field_energy();
-    peak_energy_ = std::max(peak_energy_, last_energy_);
-  }
+  run_time_loop({scene_.stop, dt_, sources_end_time(), summary().steps, grid_.cell_count()},
+                {n_, peak_energy_, last_energy_, wall_seconds_, stop_reason_}, [&] { step(); },
+                [&] { return field_energy(); }, progress, between_steps);
   return results();
 }
 
