@@ -80,7 +80,7 @@ void write_array(const h5::Group& g, const StateArray& a) {
   }
 }
 
-void write_layout(const h5::File& f, solver::Simulation& sim, const solver::Scene& scene, const CheckpointInfo& info) {
+void write_layout(const h5::File& f, solver::Checkpointable& sim, const solver::Scene& scene, const CheckpointInfo& info) {
   f.set_attribute("format", checkpoint_format);
   f.set_attribute("format_version", std::int32_t{checkpoint_format_version});
   f.set_attribute("program_version", info.program_version);
@@ -120,7 +120,7 @@ struct Refusal {
   }
 };
 
-void check_identity(const h5::File& f, const solver::Simulation& sim, const solver::Scene& scene,
+void check_identity(const h5::File& f, const solver::Checkpointable& sim, const solver::Scene& scene,
                     const CheckpointInfo& info, const Refusal& refuse) {
   if (!f.has_attribute("format") || f.string_attribute("format") != checkpoint_format)
     refuse("it is not a yeegap checkpoint (no format attribute 'yeegap-checkpoint')");
@@ -203,7 +203,7 @@ std::string checkpoint_path(const std::string& results_path) {
   return fs::path(results_path).replace_extension(".checkpoint.h5").string();
 }
 
-void write_checkpoint(const std::string& path, solver::Simulation& sim, const solver::Scene& scene,
+void write_checkpoint(const std::string& path, solver::Checkpointable& sim, const solver::Scene& scene,
                       const CheckpointInfo& info) {
   const std::string partial = partial_path(path);
   bool partial_is_ours = false;  // never remove something of that name that we did not create
@@ -225,7 +225,7 @@ void write_checkpoint(const std::string& path, solver::Simulation& sim, const so
   }
 }
 
-void read_checkpoint(const std::string& path, solver::Simulation& sim, const solver::Scene& scene,
+void read_checkpoint(const std::string& path, solver::Checkpointable& sim, const solver::Scene& scene,
                      const CheckpointInfo& info) {
   const Refusal refuse{path};
   std::error_code ec;

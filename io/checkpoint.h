@@ -9,7 +9,8 @@
 #include <vector>
 
 #include "solver/scene.h"
-#include "solver/simulation.h"
+#include "solver/grid.h"
+#include "solver/simulation_state.h"
 
 namespace yeegap::io {
 
@@ -25,10 +26,10 @@ struct CheckpointInfo {
 /// Where the checkpoint of a results file lives: "out.h5" -> "out.checkpoint.h5".
 std::string checkpoint_path(const std::string& results_path);
 
-/// Writes the state of `sim` (between two steps), built from `scene`, to `path` via `path.partial`
-/// and a rename. Throws std::runtime_error naming `path` on failure; an older checkpoint of that
-/// name then survives untouched.
-void write_checkpoint(const std::string& path, solver::Simulation& sim, const solver::Scene& scene,
+/// Writes the state of `sim` (a Simulation, or a run of several; between two steps), built from
+/// `scene`, to `path` via `path.partial` and a rename. Throws std::runtime_error naming `path` on
+/// failure; an older checkpoint of that name then survives untouched.
+void write_checkpoint(const std::string& path, solver::Checkpointable& sim, const solver::Scene& scene,
                       const CheckpointInfo& info);
 
 /// Checks the checkpoint at `path` against `sim` (freshly built from `scene`) and `info`, then
@@ -36,7 +37,7 @@ void write_checkpoint(const std::string& path, solver::Simulation& sim, const so
 /// file and what differs (program version, scene text, overrides, grid, time step, the list or
 /// sizes of the state arrays) or what is damaged (truncated file, checksum failure). After a
 /// failure `sim` may hold part of the checkpoint: build a new one.
-void read_checkpoint(const std::string& path, solver::Simulation& sim, const solver::Scene& scene,
+void read_checkpoint(const std::string& path, solver::Checkpointable& sim, const solver::Scene& scene,
                      const CheckpointInfo& info);
 
 }  // namespace yeegap::io

@@ -6,12 +6,16 @@
 #include <fmt/format.h>
 #include <unistd.h>
 
+#include <algorithm>
 #include <cerrno>
+#include <cmath>
+#include <complex>
 #include <cstdio>
 #include <cstring>
 #include <filesystem>
 #include <stdexcept>
 
+#include "base/constants.h"
 #include "base/units.h"
 #include "io/atomic_file.h"
 #include "io/h5.h"
@@ -197,7 +201,26 @@ void write_probe(const h5::Group& outputs, const solver::ProbeResult& p, double 
   }
 }
 
-void write_field_map(const h5::Group& outputs, const solver::FieldMapResult& m) {
+/// |E_inc(omega)|^2 of the run's plane wave at each of `omegas`, or empty when the run has no plane
+/// wave, more than one (the enhancement would be ambiguous), or lacks one of the frequencies. In a
+/// lossless homogeneous background a plane wave has the same |E| everywhere, so the value at the
+/// TFSF box centre normalises every node of a map.
+std::vector<double> incident_squared_at(const solver::RunResults& r, const std::vector<double>& omegas) {
+  if (r.incident_spectra.size() != 1 || r.incident_spectra[0].size() != r.source_omegas.size()) return {};
+  std::vector<double> out;
+  for (double w : omegas) {
+    const auto it = std::find_if(r.source_omegas.begin(), r.source_omegas.end(),
+                                 [&](double s) { return std::abs(s - w) <= 1e-9 * w; });
+    if (it == r.source_omegas.end()) return {};
+    const double e2 = std::norm(r.incident_spectra[0][static_cast<std::size_t>(it - r.source_omegas.begin())]);
+    if (!(e2 > 0)) return {};
+    out.push_back(e2);
+  }
+  return out;
+}
+
+void write_field_map(const h5::Group& outputs, const solver::FieldMapResult& m,
+                     const std::vector<double>& incident_squared) {
   check_output_name(outputs, m.name);
   const hsize_t nf = m.omegas.size(), nx = m.x.size(), ny = m.y.size(), nz = m.z.size();
   const std::size_t nodes = nx * ny * nz;
@@ -243,6 +266,14 @@ void write_field_map(const h5::Group& outputs, const solver::FieldMapResult& m) 
   e2.set_attribute("description", "sum of |E_c|^2 over the E components listed in components");
   e2.set_attribute("components", electric);
   for (std::size_t f = 0; f < nf; ++f) e2.write_slab(f, std::span<const double>(e_squared[f]));
+  // Near-field enhancement: only meaningful when all three E components went into the sum.
+  if (incident_squared.size() != nf || electric.size() != 3) return;
+  const h5::Dataset en = with_units(g.create_dataset<double>("E_enhancement", shape, compressed()), "1");
+  en.set_attribute("description", "|E|^2 / |E_inc|^2: E_squared over the plane wave's incident |E|^2 at each frequency");
+  for (std::size_t f = 0; f < nf; ++f) {
+    for (double& v : e_squared[f]) v /= incident_squared[f];
+    en.write_slab(f, std::span<const double>(e_squared[f]));
+  }
 }
 
 void write_flux(const h5::Group& outputs, const solver::FluxResult& x) {
@@ -258,6 +289,39 @@ void write_flux(const h5::Group& outputs, const solver::FluxResult& x) {
       .set_attribute("description",
                      "0.5 Re of the surface integral of E x conj(H) from DFT spectra; outward for a closed box, "
                      "towards +normal_axis for a plane");
+  if (!x.fraction.empty()) {
+    require(x.fraction.size() == x.omegas.size(), fmt::format("flux '{}' has {} fractions for {} frequencies", x.name,
+                                                              x.fraction.size(), x.omegas.size()));
+    with_units(g.write("fraction", x.fraction), "1")
+        .set_attribute("description", "power over the plane wave's incident power through the same area, positive "
+                                      "along the incident direction");
+  }
+}
+
+void write_reflectance(const h5::Group& outputs, const solver::ReflectanceResult& x) {
+  check_output_name(outputs, x.name);
+  const std::size_t n = x.omegas.size();
+  require(x.angles.size() == n && x.k_parallel.size() == n && x.reflectance.size() == n && x.transmittance.size() == n &&
+              x.absorptance.size() == n,
+          fmt::format("reflectance '{}' has arrays that do not match its {} rows", x.name, n));
+  const h5::Group g = outputs.create_group(x.name);
+  g.set_attribute("kind", "reflectance");
+  g.set_attribute("angle_scan", std::int32_t{x.angle_scan ? 1 : 0});
+  g.set_attribute("polarization", x.p_polarised ? "p" : "s");
+  g.set_attribute("incident_index", x.incident_index);
+  write_frequency_axes(g, x.omegas);
+  with_units(g.write("angle", x.angles), "rad")
+      .set_attribute("description", "angle of incidence of each row, from the axis, in the incident medium");
+  std::vector<double> deg;
+  for (double a : x.angles) deg.push_back(a * 180 / constants::pi);
+  with_units(g.write("angle_deg", deg), "deg").set_attribute("description", "the same in degrees");
+  with_units(g.write("k_parallel", x.k_parallel), "rad/m")
+      .set_attribute("description", "in-plane wavevector of each row's run (fixed within one run)");
+  with_units(g.write("reflectance", x.reflectance), "1")
+      .set_attribute("description", "reflected power over incident power");
+  with_units(g.write("transmittance", x.transmittance), "1")
+      .set_attribute("description", "power through the far side over incident power");
+  with_units(g.write("absorptance", x.absorptance), "1").set_attribute("description", "1 - reflectance - transmittance");
 }
 
 void write_cross_sections(const h5::Group& outputs, const solver::CrossSectionResult& x) {
@@ -394,12 +458,13 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   if (!r.gaps.empty()) write_gaps(file, r.gaps);
   const h5::Group outputs = file.create_group("outputs");
   for (const auto& p : r.probes) write_probe(outputs, p, r.summary.time_step);
-  for (const auto& m : r.field_maps) write_field_map(outputs, m);
+  for (const auto& m : r.field_maps) write_field_map(outputs, m, incident_squared_at(r, m.omegas));
   for (const auto& x : r.fluxes) write_flux(outputs, x);
   for (const auto& x : r.cross_sections) write_cross_sections(outputs, x);
   for (const auto& x : r.far_fields) write_far_field(outputs, x);
   for (const auto& x : r.decay_rates) write_decay_rate(outputs, x);
   for (const auto& x : r.sensors) write_sensor(outputs, x);
+  for (const auto& x : r.reflectance) write_reflectance(outputs, x);
 }
 
 }  // namespace

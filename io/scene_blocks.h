@@ -40,6 +40,8 @@ void read_bodies(const Node& list, solver::Scene& scene);
 void read_tunnelling(const Node& block, solver::Scene& scene);
 /// `excitation: [...]`, after the domain (sources must lie inside it).
 void read_excitation(const Node& list, solver::Scene& scene);
+/// `plane_wave: {...}` in the excitation list (scene_plane_wave.cpp): a plane wave in a Bloch cell.
+solver::BlochWaveSpec read_plane_wave(const Node& block, const solver::Scene& scene);
 /// After the excitation: a warning through `notes` for each library material that a body or the
 /// background uses whose fitted wavelength range the sources' band leaves (scene_library_range.cpp).
 void warn_outside_library_ranges(const solver::Scene& scene, const NoteSink& notes);

@@ -15,24 +15,30 @@ namespace {
 
 using solver::EdgeKind;
 
-// In the order of solver::EdgeKind.
-const std::vector<std::string> edge_words = {"absorber", "periodic", "metal", "mirror_even", "mirror_odd"};
-const std::vector<std::string> planned_edge_words = {"bloch"};
+// In the order of solver::EdgeKind, then 'bloch': a periodic edge whose copies carry the phase of
+// the in-plane wavevector (set by a plane_wave's angle).
+const std::vector<std::string> edge_words = {"absorber", "periodic", "metal", "mirror_even", "mirror_odd", "bloch"};
+constexpr std::size_t bloch_word = 5;
+
+struct Edge {
+  EdgeKind kind = EdgeKind::absorber;
+  bool bloch = false;
+};
 const char* const axis_names[] = {"x", "y", "z"};
 const char* const face_names[] = {"x_low", "x_high", "y_low", "y_high", "z_low", "z_high"};
 
-EdgeKind read_edge(const Node& v) {
-  const std::string w = read_word(v, edge_words, planned_edge_words);
-  for (std::size_t i = 0; i < edge_words.size(); ++i)
-    if (w == edge_words[i]) return static_cast<EdgeKind>(i);
-  return EdgeKind::absorber;  // unreachable: read_word accepted one of edge_words
+Edge read_edge(const Node& v) {
+  const std::string w = read_word(v, edge_words);
+  if (w == edge_words[bloch_word]) return {EdgeKind::periodic, true};
+  for (std::size_t i = 0; i < bloch_word; ++i)
+    if (w == edge_words[i]) return {static_cast<EdgeKind>(i), false};
+  return {};  // unreachable: read_word accepted one of edge_words
 }
 
 /// One word for all faces, or a block with per-axis (x) or per-face (x_low) words; faces not named
 /// are absorbers.
-std::array<EdgeKind, 6> read_edges(const Node& v) {
-  std::array<EdgeKind, 6> edges;
-  edges.fill(EdgeKind::absorber);
+std::array<Edge, 6> read_edges(const Node& v) {
+  std::array<Edge, 6> edges;
   if (v.is_scalar()) {
     edges.fill(read_edge(v));
     return edges;
@@ -125,7 +131,7 @@ void check_inside_domain(const Node& v, const Vec3& p, const solver::DomainSpec&
 
 void read_domain(const Node& block, solver::Scene& scene) {
   block.allow({"size", "center", "step", "edges", "absorber", "background", "courant", "time_step", "refine",
-               "gap_cells", "grading"});
+               "gap_cells", "grading", "averaging"});
   solver::DomainSpec& d = scene.domain;
   d.size = read_extent(block.require("size"));
   if (auto center = block.get("center")) d.center = read_position(*center);
@@ -137,7 +143,15 @@ void read_domain(const Node& block, solver::Scene& scene) {
                             axis_names[a], format_length(d.size[a])));
 
   if (auto edges = block.get("edges")) {
-    d.edges = read_edges(*edges);
+    const std::array<Edge, 6> read = read_edges(*edges);
+    for (int f = 0; f < 6; ++f) d.edges[f] = read[f].kind;
+    for (int a = 0; a < 3; ++a) {
+      if (read[2 * a].bloch != read[2 * a + 1].bloch)
+        edges->fail(fmt::format("{} is bloch but {} is not: bloch applies to both faces of an axis",
+                                face_names[read[2 * a].bloch ? 2 * a : 2 * a + 1],
+                                face_names[read[2 * a].bloch ? 2 * a + 1 : 2 * a]));
+      d.bloch[a] = read[2 * a].bloch;
+    }
     for (int a = 0; a < 3; ++a) {
       const bool lo = d.edges[2 * a] == EdgeKind::periodic, hi = d.edges[2 * a + 1] == EdgeKind::periodic;
       if (solver::is_mirror(d.edges[2 * a + 1]))
@@ -185,6 +199,8 @@ void read_domain(const Node& block, solver::Scene& scene) {
       grading->fail(fmt::format("must be the largest ratio of neighbouring cells, above 1 and at most 2 (1.2 is common "
                                 "practice), got '{}'", grading->text()));
   }
+  // Subcell averaging at interfaces (solver/subcell_average.h), or the plain staircase to compare.
+  if (auto averaging = block.get("averaging")) d.averaging = read_word(*averaging, {"on", "off"}) == "on";
   block.done();
 }
 

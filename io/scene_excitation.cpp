@@ -1,5 +1,6 @@
 // The `excitation` list: the sources of a run. Each item holds one source; this version knows the
-// point dipole, driven by a pulse over a band or by a continuous wave with a smooth turn-on.
+// point dipole, driven by a pulse over a band or by a continuous wave with a smooth turn-on, the
+// tfsf box, and the plane wave of a Bloch cell (scene_plane_wave.cpp).
 #include <cmath>
 #include <tuple>
 
@@ -92,11 +93,16 @@ void read_excitation(const Node& list, solver::Scene& scene) {
   const std::vector<Node> items = list.items_or_single();
   if (items.empty()) list.fail("needs at least one source, e.g. '- dipole: {position: ..., direction: z, band: ...}'");
   for (const Node& item : items) {
-    item.allow({"dipole", "tfsf"}, /*planned=*/{"plane_wave", "beam"});
+    item.allow({"dipole", "tfsf", "plane_wave"}, /*planned=*/{"beam"});
     if (!item.is_map() || item.entries().size() != 1)
       item.fail(fmt::format("each item holds exactly one source, e.g. '- dipole: {{...}}', got {}", item.found()));
     if (item.has("dipole")) scene.dipoles.push_back(read_dipole(item.require("dipole"), scene.domain));
-    else scene.plane_waves.push_back(read_tfsf(item.require("tfsf"), scene.domain));
+    else if (item.has("tfsf")) scene.plane_waves.push_back(read_tfsf(item.require("tfsf"), scene.domain));
+    else {
+      if (!scene.bloch_waves.empty())
+        item.fail_key("plane_wave", "a run takes one plane_wave; for several angles use 'angles' in one block");
+      scene.bloch_waves.push_back(read_plane_wave(item.require("plane_wave"), scene));
+    }
     item.done();
   }
 }

@@ -30,6 +30,7 @@ void warn_outside_library_ranges(const solver::Scene& scene, const NoteSink& not
   };
   for (const solver::DipoleSpec& d : scene.dipoles) cover(d.waveform);
   for (const solver::PlaneWaveSpec& p : scene.plane_waves) cover(p.waveform);
+  for (const solver::BlochWaveSpec& p : scene.bloch_waves) cover(p.waveform);
   if (!(omega_hi > 0) || !(omega_lo > 0)) return;  // no source, or a band reaching zero frequency
   const double band_min = units::omega_to_wavelength(omega_hi), band_max = units::omega_to_wavelength(omega_lo);
 

@@ -30,8 +30,12 @@ YAML::Node parse_yaml(const std::string& text, const SceneSource& source) {
     // e.msg is yaml-cpp's text without its own "error at line..." prefix; marks are 0-based.
     int column = e.mark.column;
     source.to_file_column(e.mark.line, column);
-    throw SceneError(Where{source.file, e.mark.line + 1, column + 1, ""},
-                     fmt::format("YAML syntax error: {}{}", e.msg, source.substitution_note(e.mark.line, e.mark.column)));
+    std::string note = source.substitution_note(e.mark.line, e.mark.column);
+    // The parser often notices a bad value only at a later token: name the values on that line.
+    for (const SceneSource::Substitution& s : source.substitutions)
+      if (note.empty() && s.line == e.mark.line)
+        note = fmt::format(" (this line has ${{{}}} = '{}', {})", s.name, s.value, source.point_label);
+    throw SceneError(Where{source.file, e.mark.line + 1, column + 1, ""}, fmt::format("YAML syntax error: {}{}", e.msg, note));
   } catch (const YAML::Exception& e) {
     throw SceneError(Where{source.file, 0, 0, ""}, fmt::format("cannot read the YAML: {}", e.what()));
   }

@@ -228,7 +228,8 @@ void describe_field_map(XdmfBuilder& x, hid_t root, const std::string& file, con
   std::vector<std::string> arrays;  // dataset names inside the group, each (nfreq, nz, ny, nx)
   for (const std::string& c : string_attribute(root, group, "components"))
     for (const char* part : {"_re", "_im"}) arrays.push_back(c + part);
-  if (has_link(root, group + "/E_squared")) arrays.emplace_back("E_squared");
+  for (const char* derived : {"E_squared", "E_enhancement"})
+    if (has_link(root, group + "/" + derived)) arrays.emplace_back(derived);
   for (const std::string& a : arrays)
     if (extents(root, file, group + "/" + a) != full)
       unreadable(file, fmt::format("{}/{} is not {} (frequencies, z, y, x nodes)", group, a, dims_text(full)));

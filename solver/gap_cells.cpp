@@ -94,8 +94,11 @@ GapCells::GapCells(const Scene& scene, const Grid& g, const BlockLayout& L, Mate
 }
 
 void GapCells::set_damping(DispersiveCurrents& d) const {
-  if (material_ < 0) return;
+  // A gap wider than the cut-off everywhere has no gap cells: the run is classical there, as the
+  // model says (a sweep of widths crosses the cut-off), and the gap material has no pool to set.
+  if (material_ < 0 || width_.empty()) return;
   const std::vector<DispersiveCell> cells = d.cells(material_);
+  if (cells.empty()) return;
   std::vector<double> gamma;
   gamma.reserve(cells.size());
   for (const DispersiveCell& cell : cells) {

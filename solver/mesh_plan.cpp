@@ -28,6 +28,8 @@ double absorber_thickness(const Grid& g, int face, int cells) {
 
 MeshPlan plan_mesh(const Scene& s) {
   const DomainSpec& d = s.domain;
+  // Given nodes (an auxiliary problem that must share another run's cells) are the grid as they are.
+  if (!d.nodes[0].empty() && !d.nodes[1].empty() && !d.nodes[2].empty()) return {Grid::from_nodes(d.nodes, d), {}, {}};
   geometry::MeshRequest q;
   q.domain = {d.center - 0.5 * d.size, d.center + 0.5 * d.size};
   q.base_step = d.step;

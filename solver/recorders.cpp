@@ -105,6 +105,18 @@ FieldMapRecorder::FieldMapRecorder(const FieldMapSpec& spec, const Grid& g, cons
     for (int a = 0; a < 3; ++a)
       idx[a] = g.invariant(a) ? std::vector<int>{0}
                               : sample_indices(g, a, nodes_[a][0], nodes_[a][1], staggered(c, a));
+    // Periods each list entry was wrapped by (periodic axes): a Bloch field takes their phase.
+    std::array<std::vector<int>, 3> wraps;
+    for (int a = 0; a < 3; ++a) {
+      if (g.invariant(a) || !g.periodic[a]) {
+        wraps[a].assign(idx[a].size(), 0);
+        continue;
+      }
+      const bool half = staggered(c, a);
+      for (int i = half ? nodes_[a][0] - 1 : nodes_[a][0]; i <= nodes_[a][1]; ++i)
+        wraps[a].push_back(i >= 0 ? i / g.n[a] : -((-i + g.n[a] - 1) / g.n[a]));
+    }
+    wraps_.push_back(std::move(wraps));
     boxes_.emplace_back(c, L, std::move(idx), 0, spec.omegas.size());
   }
 }
@@ -114,7 +126,7 @@ void FieldMapRecorder::record(const Fields& f, bool electric, const std::vector<
     if (is_electric(b.component()) == electric) b.accumulate(f, phase);
 }
 
-FieldMapResult FieldMapRecorder::result() const {
+FieldMapResult FieldMapRecorder::result(const FieldMapRecorder* imaginary, const std::array<double, 3>& bloch_phase) const {
   FieldMapResult r;
   r.name = spec_.name;
   r.x = x_, r.y = y_, r.z = z_;
@@ -123,7 +135,15 @@ FieldMapResult FieldMapRecorder::result() const {
   const std::size_t nx = x_.size(), ny = y_.size(), nz = z_.size();
   r.values.assign(spec_.omegas.size(), {});
   for (std::size_t fq = 0; fq < spec_.omegas.size(); ++fq) {
-    for (const DftBox& b : boxes_) {
+    for (std::size_t bi = 0; bi < boxes_.size(); ++bi) {
+      const DftBox& b = boxes_[bi];
+      const DftBox* bim = imaginary ? &imaginary->boxes_[bi] : nullptr;
+      const auto& wr = wraps_[bi];
+      auto value = [&](std::size_t i, std::size_t j, std::size_t k) {
+        const Complex v = bim ? b.at(i, j, k, fq) + Complex(0, 1) * bim->at(i, j, k, fq) : b.at(i, j, k, fq);
+        const double phase = wr[0][i] * bloch_phase[0] + wr[1][j] * bloch_phase[1] + wr[2][k] * bloch_phase[2];
+        return phase == 0 ? v : v * std::polar(1.0, phase);
+      };
       std::vector<Complex> v(nx * ny * nz);
       // A staggered axis's list starts one position below the first node: node p is the mean of
       // list entries p and p+1. An invariant axis has a single entry.
@@ -136,8 +156,8 @@ FieldMapResult FieldMapRecorder::result() const {
             for (int dk = 0; dk < sz; ++dk)
               for (int dj = 0; dj < sy; ++dj)
                 for (int di = 0; di < sx; ++di)
-                  s += b.at(std::min(i + di, b.indices()[0].size() - 1), std::min(j + dj, b.indices()[1].size() - 1),
-                            std::min(k + dk, b.indices()[2].size() - 1), fq);
+                  s += value(std::min(i + di, b.indices()[0].size() - 1), std::min(j + dj, b.indices()[1].size() - 1),
+                             std::min(k + dk, b.indices()[2].size() - 1));
             v[(k * ny + j) * nx + i] = s / double(sx * sy * sz);
           }
       r.values[fq].push_back(std::move(v));
@@ -209,20 +229,24 @@ void FluxRecorder::record(const Fields& f, bool electric, const std::vector<Comp
       if (is_electric(d.component()) == electric) d.accumulate(f, phase);
 }
 
-FluxResult FluxRecorder::result() const {
+FluxResult FluxRecorder::result(const FluxRecorder* imaginary) const {
   FluxResult out;
   out.name = spec_.name;
   out.closed = closed_;
   out.normal_axis = normal_;
   out.omegas = spec_.omegas;
   out.power.assign(spec_.omegas.size(), 0.0);
-  for (const Face& face : faces_) {
+  for (std::size_t fi = 0; fi < faces_.size(); ++fi) {
+    const Face& face = faces_[fi];
+    const Face* im_face = imaginary ? &imaginary->faces_[fi] : nullptr;
     const int b = (face.axis + 1) % 3, c = (face.axis + 2) % 3;
     for (std::size_t fq = 0; fq < out.omegas.size(); ++fq) {
       double p = 0;
       for (int term = 0; term < 2; ++term) {
-        const DftBox& e = face.dft[2 * term];
-        const DftBox& h = face.dft[2 * term + 1];
+        auto complex_at = [&](int which, const std::array<std::size_t, 3>& q) {
+          const Complex re = face.dft[which].at(q[0], q[1], q[2], fq);
+          return im_face ? re + Complex(0, 1) * im_face->dft[which].at(q[0], q[1], q[2], fq) : re;
+        };
         const auto& wb = face.weight_b[term];
         const auto& wc = face.weight_c[term];
         // The face's lists are ordered x, y, z; find which list is b and which is c.
@@ -236,7 +260,7 @@ FluxResult FluxRecorder::result() const {
         for (std::size_t ic = 0; ic < wc.size(); ++ic)
           for (std::size_t ib = 0; ib < wb.size(); ++ib) {
             const auto q = list_pos(ib, ic, b, c);
-            s += wb[ib] * wc[ic] * std::real(e.at(q[0], q[1], q[2], fq) * std::conj(h.at(q[0], q[1], q[2], fq)));
+            s += wb[ib] * wc[ic] * std::real(complex_at(2 * term, q) * std::conj(complex_at(2 * term + 1, q)));
           }
         p += term == 0 ? s : -s;
       }

@@ -36,7 +36,11 @@ class FieldMapRecorder {
  public:
   FieldMapRecorder(const FieldMapSpec& spec, const Grid& g, const BlockLayout& L);
   void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
-  FieldMapResult result() const;
+  /// With `imaginary` (the same map in the imaginary part of a Bloch run) the values are
+  /// re + i im: the complex field's spectrum. A sample taken across a periodic edge (node n, or
+  /// the half-cell below node 0 that interpolation reads) is the stored value times
+  /// exp(i m bloch_phase[a]), m the periods it was wrapped by (bloch_halos.h).
+  FieldMapResult result(const FieldMapRecorder* imaginary = nullptr, const std::array<double, 3>& bloch_phase = {}) const;
   std::size_t memory_bytes() const;
   const std::vector<double>& result_omegas() const { return spec_.omegas; }
   void add_state(StateArrays& s, const std::string& prefix);
@@ -46,6 +50,7 @@ class FieldMapRecorder {
   std::array<std::array<int, 2>, 3> nodes_;  // node range per axis
   std::array<bool, 3> periodic_{};
   std::vector<DftBox> boxes_;                // one per component
+  std::vector<std::array<std::vector<int>, 3>> wraps_;  // per component, axis, list entry: periods wrapped
   std::vector<double> x_, y_, z_;
 };
 
@@ -53,7 +58,9 @@ class FluxRecorder {
  public:
   FluxRecorder(const FluxSpec& spec, const Grid& g, const BlockLayout& L);
   void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
-  FluxResult result() const;
+  /// With `imaginary` (the same surface in the imaginary part of a Bloch run) the power is that of
+  /// the complex field E = E_re + i E_im, H likewise.
+  FluxResult result(const FluxRecorder* imaginary = nullptr) const;
   std::size_t memory_bytes() const;
   const std::vector<double>& result_omegas() const { return spec_.omegas; }
   void add_state(StateArrays& s, const std::string& prefix);

@@ -42,6 +42,10 @@ struct FluxResult {
   /// 0.5 Re of the integral of E(omega) x H(omega)* over the surface, from DFT spectra: J/Hz^2-like
   /// units (W s^2); divide by |source spectrum|^2 terms to normalise.
   std::vector<double> power;
+  /// With a plane wave in a Bloch cell: power / incident power through the same area, counted
+  /// positive along the incident direction (so a plane behind the stack gives T, one on the
+  /// entry side, in the reflected-only region, gives -R). Empty otherwise.
+  std::vector<double> fraction;
 };
 
 struct CrossSectionResult {
@@ -86,6 +90,20 @@ struct DecayRateResult {
   std::vector<double> alone_power;         // W s^2, n eta0 k0^2 |I l(omega)|^2 / (12 pi)
 };
 
+/// Reflectance, transmittance and absorptance of a plane wave in a Bloch cell, one row per
+/// frequency (a run at fixed in-plane wavevector: each row has its own angle, physics.md 3.7) or
+/// per angle (an angle scan: every row at the same frequency).
+struct ReflectanceResult {
+  std::string name;                        // "plane_wave"
+  bool angle_scan = false;
+  bool p_polarised = true;
+  double incident_index = 1;               // refractive index of the incident medium
+  std::vector<double> omegas;              // rad/s, per row
+  std::vector<double> angles;              // rad, per row, in the incident medium
+  std::vector<double> k_parallel;          // rad/m, per row
+  std::vector<double> reflectance, transmittance, absorptance;  // A = 1 - R - T
+};
+
 /// Sensor figures of an angle scan (SensorSpec; definitions in docs/sensor.md): the run's own R(theta)
 /// and the repeat with the sensing medium's index raised by delta_n. Angles and widths in rad;
 /// sensitivity in rad per refractive-index unit.
@@ -117,7 +135,7 @@ struct RunSummary {
   double simulated_time = 0;               // s
   double wall_seconds = 0;
   double cell_updates_per_second = 0;
-  std::string stop_reason;                 // "time", "decayed", "max_steps"
+  std::string stop_reason;                 // "time", "decayed", "max_steps"; "interrupted" (run's hook)
   double final_energy_fraction = 0;        // field energy at the end / its peak
 };
 
@@ -141,6 +159,7 @@ struct RunResults {
   std::vector<DecayRateResult> decay_rates;
   std::vector<GapResult> gaps;
   std::vector<SensorResult> sensors;
+  std::vector<ReflectanceResult> reflectance;    // plane waves in Bloch cells
 };
 
 }  // namespace yeegap::solver

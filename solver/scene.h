@@ -67,6 +67,14 @@ struct DomainSpec {
   int gap_cells = 4;              // cells across each gap between bodies narrower than this many
                                   // base cells; 0 = no gap search
   double grading_ratio = 1.2;     // largest ratio of neighbouring cells (common practice)
+  bool averaging = false;         // subcell averaging at E locations an interface crosses
+                                  // (solver/subcell_average.h); false = plain staircase
+  // Bloch-periodic axes (physics.md 3.7): periodic edges whose copies carry the phase of the
+  // in-plane wavevector, F(x + L) = F(x) exp(i k L). With k = 0 they are plain periodic edges.
+  std::array<bool, 3> bloch{};
+  Vec3 bloch_wavevector;          // rad/m, on the Bloch axes; a plane_wave sets it from its angle
+  std::array<std::vector<double>, 3> nodes;  // m; when every axis is given, these nodes are the
+                                             // grid and the mesh builder is skipped
 };
 
 struct MaterialSpec {
@@ -111,6 +119,30 @@ struct PlaneWaveSpec {
   Vec3 polarization{1, 0, 0};     // E direction, unit, perpendicular to the axis
   double amplitude = 1.0;         // V/m, scale of the incident pulse
   Waveform waveform;
+  Where where;
+};
+
+/// A plane wave in a Bloch-periodic cell (films, stacks, gratings): it enters through a plane
+/// normal to `axis`, travelling one way only, at `angle` from the axis in the incident medium
+/// (whatever lossless material fills that plane, e.g. a glass prism). Its in-plane wavevector
+/// k_par = n_inc (omega_ref / c) sin(angle) is fixed for the whole run, so each other frequency of
+/// a pulse meets the structure at its own angle, sin theta(omega) = c k_par / (n_inc omega)
+/// (physics.md 3.7). With `scan_angles` the run is one short problem per angle at omega_ref.
+struct BlochWaveSpec {
+  int axis = 2;                   // the normal of the film stack: 0, 1, 2
+  int sign = +1;                  // +1: enters at the low side, travels towards +axis
+  double angle = 0;               // rad, from the axis, in the incident medium
+  double azimuth = 0;             // rad, plane of incidence measured from the next axis (x for z)
+                                  // towards the one after (y)
+  bool p_polarised = true;        // p: E in the plane of incidence (TM); s: E normal to it (TE)
+  Waveform waveform;
+  double reference_omega = 0;     // rad/s where the angle holds exactly; 0 = centre of the band
+  double position = 0;            // m, the entry plane along `axis`
+  bool position_given = false;    // false: a few cells inside the absorber on the entry side
+  std::vector<double> omegas;     // rad/s, frequencies of the R, T, A table
+  std::vector<double> scan_angles;  // rad; non-empty: one run per angle at reference_omega
+  bool single_frequency = false;  // one output frequency: the run picks the pulse's band itself,
+                                  // narrow enough to keep grazing frequencies out (bloch_run.cpp)
   Where where;
 };
 
@@ -219,6 +251,7 @@ struct Scene {
   std::vector<BodySpec> bodies;   // later bodies overwrite earlier ones
   std::vector<DipoleSpec> dipoles;
   std::vector<PlaneWaveSpec> plane_waves;
+  std::vector<BlochWaveSpec> bloch_waves;  // at most one
   std::vector<ProbeSpec> probes;
   std::vector<FieldMapSpec> field_maps;
   std::vector<FluxSpec> fluxes;

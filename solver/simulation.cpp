@@ -2,7 +2,6 @@
 #include "solver/simulation.h"
 
 #include <algorithm>
-#include <chrono>
 #include <cmath>
 #include <limits>
 #include <set>
@@ -11,17 +10,15 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
+#include "solver/bloch_halos.h"
 #include "solver/dispersive_stability.h"
 #include "solver/material_map.h"
 #include "solver/mesh_plan.h"
+#include "solver/time_loop.h"
 
 namespace yeegap::solver {
 
 namespace {
-
-// How often (in steps) the field energy is measured for the decay stop rule; a full pass over
-// the fields costs about half a step, so every 20th step adds 2.5 %.
-constexpr long energy_interval = 20;
 
 double choose_time_step(const Scene& s, const Grid& g) {
   const double limit = g.courant_limit();
@@ -126,7 +123,14 @@ Simulation::Simulation(const Scene& scene)
   ecoef_ = e_coefficients(scene_, dt_);
   fill_material_index(scene_, grid_, fields_.layout, mindex_);
   const GapCells gap_cells(scene_, grid_, fields_.layout, mindex_);
-  dispersive_ = std::make_unique<DispersiveCurrents>(scene_, fields_.layout, mindex_, ecoef_, dt_);
+  if (scene_.domain.averaging) {
+    subcell_ = std::make_unique<SubcellAverage>(scene_, grid_, fields_.layout, mindex_, ecoef_, dt_);
+    if (subcell_->empty()) subcell_.reset();
+  }
+  // Mixed locations carry their own polarisation currents (subcell_average.h).
+  dispersive_ = std::make_unique<DispersiveCurrents>(
+      scene_, fields_.layout,
+      subcell_ ? subcell_->without_mixed(mindex_, static_cast<int>(scene_.materials.size())) : mindex_, ecoef_, dt_);
   gap_cells.set_damping(*dispersive_);
   gaps_ = gap_cells.report();
 
@@ -250,6 +254,8 @@ ModelSummary Simulation::summary() const {
   std::size_t bytes = 6 * fields_.layout.total * sizeof(real) + 3 * fields_.layout.total;
   if (cpml_) bytes += cpml_->memory_bytes();
   bytes += dispersive_->memory_bytes();
+  if (subcell_) bytes += subcell_->memory_bytes();
+  m.mixed_cells = subcell_ ? static_cast<long long>(subcell_->size()) : 0;
   for (const auto& r : maps_) bytes += r.memory_bytes();
   for (const auto& r : fluxes_) bytes += r.memory_bytes();
   for (const auto& r : cross_) bytes += r.memory_bytes();
@@ -269,6 +275,7 @@ void Simulation::fill_periodic_halos(bool electric) {
     // tangential E on the plane. Normal H and the other fields need no image.
     const bool even_mirror = !electric && scene_.domain.edges[2 * a] == EdgeKind::mirror_even;
     if (!grid_.periodic[a] && !even_mirror) continue;
+    if (carries_bloch_phase(scene_.domain, a)) continue;  // copied with its phase by fill_bloch_halos
     const int n = L.n[a];
     const int from = electric ? 0 : (even_mirror ? 0 : n - 1), to = electric ? n : -1;
     const real sign = even_mirror ? real(-1) : real(1);
@@ -299,7 +306,12 @@ void Simulation::fill_periodic_halos(bool electric) {
 }
 
 void Simulation::step() {
-  const double t_h = (n_ + 0.5) * dt_, t_e = (n_ + 1.0) * dt_;
+  step_h();
+  step_e();
+}
+
+void Simulation::step_h() {
+  const double t_h = (n_ + 0.5) * dt_;
   // Running DFTs are summed every dft_stride_ steps with weight dft_stride_ dt (see dft_stride()).
   const bool dft_now = n_ % dft_stride_ == 0;
   const double dft_dt = dft_stride_ * dt_;
@@ -308,6 +320,7 @@ void Simulation::step() {
   update_h(fields_, curls_);
   if (cpml_) cpml_->apply_h(fields_, dt_);
   for (auto& w : plane_waves_) w.apply_h(fields_);
+  for (auto& s : stages_) s->after_h(fields_);
   if (dft_now) {
     const auto phase = dft_phases(all_omegas_, t_h, dft_dt);
     for (std::size_t d = 0; d < dipoles_.size(); ++d) {
@@ -321,13 +334,22 @@ void Simulation::step() {
     for (auto& d : decay_) d.record(fields_, false, dft_phases(d.result_omegas(), t_h, dft_dt));
   }
   for (auto& p : probes_) p.record(fields_, false, t_h);
+}
+
+void Simulation::step_e() {
+  const double t_h = (n_ + 0.5) * dt_, t_e = (n_ + 1.0) * dt_;
+  const bool dft_now = n_ % dft_stride_ == 0;
+  const double dft_dt = dft_stride_ * dt_;
 
   fill_periodic_halos(false);
   if (!dispersive_->empty()) dispersive_->advance(fields_);
+  if (subcell_) subcell_->keep(fields_);
   update_e(fields_, curls_, ecoef_, mindex_);
   if (cpml_) cpml_->apply_e(fields_, ecoef_, mindex_);
   for (const auto& d : dipoles_) d.apply_e(fields_, ecoef_, mindex_, t_h);
   for (auto& w : plane_waves_) w.apply_e(fields_, t_h);
+  for (auto& s : stages_) s->after_e(fields_, t_h);
+  if (subcell_) subcell_->apply(fields_);
   if (!dispersive_->empty()) dispersive_->correct(fields_);
   if (dft_now) {
     if (!plane_waves_.empty()) {
@@ -376,53 +398,15 @@ double Simulation::field_energy() const {
 
 RunResults Simulation::run(const std::function<void(const Progress&)>& progress,
                            const std::function<bool()>& between_steps) {
-  using clock = std::chrono::steady_clock;
-  const ModelSummary plan = summary();
-  const StopSpec& st = scene_.stop;
-  const long after_steps = st.after > 0 ? static_cast<long>(std::ceil(st.after / dt_)) : -1;
-  const double source_end = sources_end_time();
-  const auto start = clock::now();
-  const long first_step = n_;                 // > 0 when resumed from a checkpoint
-  const double earlier_wall = wall_seconds_;  // run time of the segments before a resume
-  auto last_report = start;
-  stop_reason_.clear();
-  while (stop_reason_.empty()) {
-    step();
-    if (after_steps >= 0 && n_ >= after_steps) stop_reason_ = "time";
-    else if (n_ >= st.max_steps) stop_reason_ = "max_steps";
-    else if (st.decayed > 0 && n_ % energy_interval == 0) {
-      last_energy_ = field_energy();
-      peak_energy_ = std::max(peak_energy_, last_energy_);
-      if (n_ * dt_ > source_end && peak_energy_ > 0 && last_energy_ < st.decayed * peak_energy_) stop_reason_ = "decayed";
-    }
-    if (progress && (n_ & 15) == 0) {
-      const auto now = clock::now();
-      if (std::chrono::duration<double>(now - last_report).count() > 0.5) {
-        last_report = now;
-        Progress p;
-        p.step = n_;
-        p.planned_steps = after_steps >= 0 ? after_steps : std::max(plan.steps, n_);
-        const double elapsed = std::chrono::duration<double>(now - start).count();
-        p.steps_per_second = (n_ - first_step) / elapsed;
-        p.cells_per_second = p.steps_per_second * static_cast<double>(grid_.cell_count());
-        p.eta_seconds = (p.planned_steps - n_) / p.steps_per_second;
-        progress(p);
-      }
-    }
-    if (stop_reason_.empty() && between_steps) {
-      wall_seconds_ = earlier_wall + std::chrono::duration<double>(clock::now() - start).count();
-      if (between_steps()) stop_reason_ = "interrupted";
-    }
-  }
-  wall_seconds_ = earlier_wall + std::chrono::duration<double>(clock::now() - start).count();
-  if (stop_reason_ != "interrupted" && (st.decayed > 0 || peak_energy_ == 0)) {
-    last_energy_ = field_energy();
-    peak_energy_ = std::max(peak_energy_, last_energy_);
-  }
+  run_time_loop({scene_.stop, dt_, sources_end_time(), summary().steps, grid_.cell_count()},
+                {n_, peak_energy_, last_energy_, wall_seconds_, stop_reason_}, [&] { step(); },
+                [&] { return field_energy(); }, progress, between_steps);
   return results();
 }
 
-RunResults Simulation::results() const {
+RunResults Simulation::results() const { return results(nullptr); }
+
+RunResults Simulation::results(const Simulation* imaginary) const {
   RunResults r;
   r.summary.steps = n_;
   r.summary.time_step = dt_;
@@ -441,8 +425,11 @@ RunResults Simulation::results() const {
   r.incident_spectra = incident_dft_;
   r.gaps = gaps_;
   for (const auto& p : probes_) r.probes.push_back(p.result());
-  for (const auto& m : maps_) r.field_maps.push_back(m.result());
-  for (const auto& f : fluxes_) r.fluxes.push_back(f.result());
+  std::array<double, 3> phases{};
+  for (int a = 0; a < 3; ++a) phases[a] = imaginary ? bloch_phase(grid_, scene_.domain, a) : 0.0;
+  for (std::size_t i = 0; i < maps_.size(); ++i)
+    r.field_maps.push_back(maps_[i].result(imaginary ? &imaginary->maps_[i] : nullptr, phases));
+  for (std::size_t i = 0; i < fluxes_.size(); ++i) r.fluxes.push_back(fluxes_[i].result(imaginary ? &imaginary->fluxes_[i] : nullptr));
   for (const auto& c : cross_) {
     std::vector<Complex> incident;
     for (double w : c.result_omegas()) {

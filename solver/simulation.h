@@ -24,6 +24,8 @@
 #include "solver/results.h"
 #include "solver/scene.h"
 #include "solver/simulation_state.h"
+#include "solver/stage.h"
+#include "solver/subcell_average.h"
 #include "solver/tfsf.h"
 #include "solver/yee_kernels.h"
 
@@ -48,6 +50,7 @@ struct ModelSummary {
   };
   std::vector<RefinedGap> gaps;      // gaps between bodies found and refined by the mesh builder
   std::vector<std::string> mesh_notes;  // what the mesh builder dropped or changed
+  long long mixed_cells = -1;      // E locations with an averaged permittivity; -1 = not counted
 };
 
 struct Progress {
@@ -58,13 +61,13 @@ struct Progress {
   double eta_seconds = 0;          // < 0 when unknown
 };
 
-class Simulation {
+class Simulation : public Checkpointable {
  public:
   /// Builds everything; throws RunError for settings that cannot run (unstable time step, ...).
   explicit Simulation(const Scene& scene);
   Simulation(const Simulation&) = delete;
   Simulation& operator=(const Simulation&) = delete;
-  ~Simulation();
+  ~Simulation() override;
 
   ModelSummary summary() const;
   /// The same figures without allocating the fields (for `yeegap check` on scenes too big to
@@ -72,6 +75,12 @@ class Simulation {
   static ModelSummary plan(const Scene& scene);
   /// Advances one full step (H then E).
   void step();
+  /// The two halves of step(), for runs that fill halos between them (Bloch cells: the real and
+  /// imaginary parts exchange their periodic copies, bloch_halos.h). step() = step_h(); step_e().
+  void step_h();
+  void step_e();
+  /// Adds work done after each half step's sources (see stage.h); the run shares ownership.
+  void add_stage(std::shared_ptr<Stage> s) { stages_.push_back(std::move(s)); }
   /// Runs until the stop rule holds; `progress` is called about twice a second. `between_steps`,
   /// if given, is called after every step that the stop rule lets pass (a checkpoint may be taken
   /// there); returning true ends the run at once with stop reason "interrupted", leaving the
@@ -80,11 +89,18 @@ class Simulation {
                  const std::function<bool()>& between_steps = {});
   /// Collects the results at the current time (also usable after step()).
   RunResults results() const;
+  /// The same with the flux and field-map spectra of a complex (Bloch) field whose imaginary part
+  /// ran in `imaginary` (the same scene): E(omega) = E_re(omega) + i E_im(omega).
+  RunResults results(const Simulation* imaginary) const;
 
   // Access for tests and tools.
-  const Grid& grid() const { return grid_; }
+  const Grid& grid() const override { return grid_; }
   Fields& fields() { return fields_; }
-  double dt() const { return dt_; }
+  double dt() const override { return dt_; }
+  const Scene& scene() const { return scene_; }
+  const CurlCoefficients& curls() const { return curls_; }
+  const ECoefficients& e_update_coefficients() const { return ecoef_; }
+  const MaterialIndex& material_index() const { return mindex_; }
   long steps_done() const { return n_; }
   /// Field energy 1/2 sum (eps E^2 + mu0 H^2) dV over the interior, J (per unit length along
   /// invariant axes scaled by their cell size).
@@ -93,14 +109,10 @@ class Simulation {
   /// Polarisation currents of the dispersive materials (per-cell damping of gap cells goes here).
   DispersiveCurrents& dispersive() { return *dispersive_; }
 
-  // Checkpoints (simulation_state.cpp). A Simulation built from the same scene and given the
-  // counters and arrays of another between two steps continues bit for bit as the other would.
-  StateCounters state_counters() const;
-  /// Sets the counters and sizes the arrays that grow with the step count (probe series), so
-  /// state_arrays() can then be filled from a checkpoint.
-  void restore_counters(const StateCounters& c);
-  /// Views of every array of the state in a fixed order, sized for the current step count.
-  StateArrays state_arrays();
+  // Checkpoints (simulation_state.h; defined in simulation_state.cpp).
+  StateCounters state_counters() const override;
+  void restore_counters(const StateCounters& c) override;
+  StateArrays state_arrays() override;
 
  private:
   void fill_periodic_halos(bool electric);
@@ -115,6 +127,7 @@ class Simulation {
   MaterialIndex mindex_;
   std::unique_ptr<Cpml> cpml_;
   std::unique_ptr<DispersiveCurrents> dispersive_;
+  std::unique_ptr<SubcellAverage> subcell_;       // null with averaging off or no mixed locations
   std::vector<GapResult> gaps_;
   std::vector<DipoleSource> dipoles_;
   std::vector<PlaneWaveSource> plane_waves_;
@@ -124,6 +137,7 @@ class Simulation {
   std::vector<CrossSectionRecorder> cross_;
   std::vector<FarFieldRecorder> far_;
   std::vector<DecayRateRecorder> decay_;
+  std::vector<std::shared_ptr<Stage>> stages_;
   std::vector<double> all_omegas_;                 // union of output frequencies, for source spectra
   std::vector<std::vector<Complex>> source_dft_;   // per dipole
   std::vector<std::vector<Complex>> incident_dft_; // per plane wave

@@ -53,6 +53,7 @@ StateArrays Simulation::state_arrays() {
   for (int c = 0; c < 6; ++c) s.add_vector(fmt::format("fields/{}", component_names[c]), fields_.c[c]);
   if (cpml_) cpml_->add_state(s, "cpml");
   dispersive_->add_state(s, "dispersive");
+  if (subcell_) subcell_->add_state(s, "subcell");
   for (std::size_t i = 0; i < plane_waves_.size(); ++i) plane_waves_[i].add_state(s, fmt::format("plane_wave{}", i));
   for (std::size_t i = 0; i < source_dft_.size(); ++i) s.add_vector(fmt::format("spectra/dipole{}", i), source_dft_[i]);
   for (std::size_t i = 0; i < incident_dft_.size(); ++i)

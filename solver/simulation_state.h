@@ -38,6 +38,11 @@ class StateArrays {
   void add_vector(std::string name, Vector& v) {
     add(std::move(name), std::span(v.data(), v.size()));
   }
+  /// Adds every array of `other` with `prefix` + "/" before its name: the parts of a run made of
+  /// several Simulations ("real/fields/Ex", "imaginary/fields/Ex").
+  void add_all(const std::string& prefix, StateArrays&& other) {
+    for (StateArray& a : other.list_) add(prefix + "/" + a.name, a.type, a.data, a.count);
+  }
   const std::vector<StateArray>& list() const& { return list_; }
   std::vector<StateArray> list() && { return std::move(list_); }  // safe on a temporary
   std::size_t bytes() const;
@@ -53,6 +58,25 @@ struct StateCounters {
   double peak_energy = 0;      // J, the decay stop rule's memory: largest field energy measured
   double last_energy = 0;      // J, the last one measured
   double wall_seconds = 0;     // s, run time so far (reports only; never changes a result)
+};
+
+class Grid;
+
+/// What a checkpoint needs of a run (style.md: an optional ability gets its own small interface).
+/// A run made of several Simulations (the real and imaginary parts of Bloch fields) lists all of
+/// their arrays under one prefix each. A run built from the same scene and given the counters and
+/// arrays of another between two steps continues bit for bit as the other would.
+class Checkpointable {
+ public:
+  virtual ~Checkpointable() = default;
+  virtual const Grid& grid() const = 0;
+  virtual double dt() const = 0;                 // s
+  virtual StateCounters state_counters() const = 0;
+  /// Sets the counters and sizes the arrays that grow with the step count (probe series), so that
+  /// state_arrays() can then be filled from a checkpoint.
+  virtual void restore_counters(const StateCounters& c) = 0;
+  /// Views of every array of the state in a fixed order, sized for the current step count.
+  virtual StateArrays state_arrays() = 0;
 };
 
 }  // namespace yeegap::solver

@@ -1,11 +1,12 @@
 #!/usr/bin/python3
 """The plot script (tools/plot/yeegap_plot.py) and the commands that run it, headless:
 - on a small results file made here with h5py (io/README.md layout; graded grid, one dipole in a
-  background of index 1.33, two flux outputs, a probe, a plane and a volume field map) it writes
+  background of index 1.33, two flux outputs, a probe, a plane and a volume field map, cross sections and a far field) it writes
   every expected PNG and SVG; each PNG has the fixed size and is not blank (many distinct colours,
   and coloured pixels, which axes and text alone do not have);
 - the flux figure's 'relative to the dipole alone' curve is P / P0 with P0 = n eta0 k0^2 |I l|^2 /
   (12 pi) (Jackson, Classical Electrodynamics, 3rd ed., 1999, eq. 9.24), n read from the scene;
+- the far-field figure's planes join the phi and phi + 180 degree halves of the direction grid;
 - the field-map figure is drawn on the graded node coordinates and the material outline runs along
   cell edges of the graded grid;
 - a Python without numpy/h5py/matplotlib gives the install hint and no traceback, from the script
@@ -33,6 +34,7 @@ matplotlib.use("Agg")
 import matplotlib.image  # noqa: E402
 import plot_common  # noqa: E402
 import plot_field_maps  # noqa: E402
+import plot_particles  # noqa: E402
 import plot_sensor  # noqa: E402
 import plot_spectra  # noqa: E402
 
@@ -127,6 +129,19 @@ def write_results(path):
             g["Ex_re"], g["Ex_im"] = np.sqrt(e2), np.zeros(shape)
             g["Ez_re"], g["Ez_im"] = np.zeros(shape), np.zeros(shape)
             g["E_squared"] = e2
+        # A lit particle: cross sections over the three wavelengths and a far field on a
+        # 19 x 4 grid of directions (phi = 0, 90, 180, 270 degrees), a dipole-like sin^2 pattern.
+        g = f.create_group("outputs/particle")
+        g.attrs["kind"], g.attrs["per_unit_length"] = np.bytes_("cross_sections"), np.int32(0)
+        g["omega"], g["wavelength_nm"] = OMEGA, WAVELENGTHS_NM
+        g["scattering"], g["absorption"] = np.array([1.0, 3.0, 2.0]) * 1e-15, np.array([2.0, 4.0, 1.0]) * 1e-15
+        g["extinction"] = g["scattering"][...] + g["absorption"][...]
+        g = f.create_group("outputs/pattern")
+        g.attrs["kind"], g.attrs["theta_count"], g.attrs["phi_count"] = np.bytes_("far_field"), np.int32(19), np.int32(4)
+        theta, phi = np.meshgrid(np.linspace(0, np.pi, 19), np.radians([0, 90, 180, 270]), indexing="ij")
+        g["theta"], g["phi"] = theta.reshape(-1), phi.reshape(-1)
+        g["omega"], g["wavelength_nm"] = OMEGA[:1], WAVELENGTHS_NM[:1]
+        g["directivity"] = 1.5 * np.sin(theta.reshape(1, -1)) ** 2
         g = f.create_group("outputs/chip")                  # a sensor: two Lorentzian dips (invented)
         g.attrs["kind"], g.attrs["medium"] = np.bytes_("sensor"), np.bytes_("water")
         g.attrs["index"], g.attrs["delta_n"], g.attrs["wavelength_nm"] = 1.3317, 1e-3, 632.8
@@ -170,7 +185,7 @@ with tempfile.TemporaryDirectory() as work:
     done = subprocess.run([sys.executable, script, results], capture_output=True, text=True, env=headless)
     check(done.returncode == 0, f"plot script exit code {done.returncode}: {done.stderr}")
     check(done.stdout == "", f"the plot script wrote to stdout: {done.stdout!r}")
-    stems = ["flux", "probe_at_dipole", "sensor_chip"] + [f"{m}_{w}nm" for m in ("volume", "xz_plane") for w in (500, 600, 700)]
+    stems = ["flux", "probe_at_dipole", "particle", "pattern", "sensor_chip"] + [f"{m}_{w}nm" for m in ("volume", "xz_plane") for w in (500, 600, 700)]
     for stem in stems:
         for ext in ("png", "svg"):
             path = os.path.join(work, f"synthetic_{stem}.{ext}")
@@ -218,6 +233,16 @@ with tempfile.TemporaryDirectory() as work:
             xs, zs = set(np.round(points[:, 0], 6)), set(np.round(points[:, 1], 6))
             check(xs == set(np.round(X[3:7] * 1e9, 6)), f"outline x positions {sorted(xs)}")
             check(zs == set(np.round(Z[2:5] * 1e9, 6)), f"outline z positions {sorted(zs)}")
+
+        # 3b. The far-field cuts join phi with phi + 180 degrees into one plane through z: two planes
+        # of 38 directions, polar angle +theta then -theta, the directivity read at the right rows.
+        g = f["outputs/pattern"]
+        cuts = plot_particles.principal_cuts(g["theta"][...], g["phi"][...], 19, 4)
+        check([c[0] for c in cuts] == ["φ = 0°", "φ = 90°"], f"cuts {[c[0] for c in cuts]}")
+        for label, angles, rows in cuts:
+            d = g["directivity"][0][rows]
+            check(len(rows) == 38 and np.allclose(d, 1.5 * np.sin(angles) ** 2, atol=1e-12),
+                  f"{label}: the pattern read along the cut is not 1.5 sin^2(theta)")
 
     # 4. No numpy/h5py/matplotlib: a hint, no traceback, from the script and from `yeegap view`.
     bare = without_python_packages(work)

@@ -12,6 +12,8 @@
 #include <omp.h>
 #include <unistd.h>
 
+#include <cmath>
+#include <cstdio>
 #include <complex>
 #include <cstring>
 #include <filesystem>
@@ -28,8 +30,8 @@ using namespace yeegap;
 
 namespace {
 
-// Invented numbers, chosen only to be small: 36^3 cells of 3 nm, about 1400 steps. The pulses
-// (400-1000 nm) peak at 9 fs, so at the half-way stop (4 fs) every array holds rising fields.
+// Invented numbers, chosen only to be small: 36^3 cells of 3 nm, about 1050 steps. The pulses
+// (300-1200 nm) peak at 5.5 fs, so at the half-way stop (3 fs) every array holds rising fields.
 const char* scene_text = R"(scene: {version: 1, title: checkpoint test}
 materials:
   vacuum: {index: 1}
@@ -46,8 +48,8 @@ excitation:
       box: {from: [-18 nm, -18 nm, -18 nm], to: [18 nm, 18 nm, 18 nm]}
       direction: z
       polarization: x
-      band: {from: 400 nm, to: 1000 nm}
-  - dipole: {position: [0, 0, 10.5 nm], direction: z, band: {from: 400 nm, to: 1000 nm}}
+      band: {from: 300 nm, to: 1200 nm}
+  - dipole: {position: [0, 0, 10.5 nm], direction: z, band: {from: 300 nm, to: 1200 nm}}
 outputs:
   - probe: {name: near, position: [0, 0, 7 nm], components: [Ex, Hy]}
   - field_map: {name: xz, plane: {axis: y, at: 0 nm}, frequencies: [550 nm, 700 nm], components: [Ex, Ez, Hy]}
@@ -56,7 +58,7 @@ outputs:
   - far_field: {name: far, frequencies: [550 nm, 700 nm], angles: {theta_count: 5, phi_count: 4}}
   - decay_rate: {name: rate, radiated: far}
 stop:
-  after: 8 fs
+  after: 6 fs
 )";
 
 solver::Scene scene_with(const std::string& text) { return io::read_scene_text(text, "checkpoint_test.yaml", {}); }
@@ -137,6 +139,10 @@ class Checkpoint : public ::testing::Test {
 };
 
 TEST_F(Checkpoint, ResumedRunEqualsUninterruptedRunBitForBit) {
+  // The uninterrupted run and the first half on one thread, the second half on two: the results
+  // depend on neither the interruption nor the thread count. (One thread where it can: on a
+  // machine busier than its cores, waiting threads cost more than the work of this small grid.)
+  omp_set_num_threads(1);
   solver::Simulation whole_sim(scene_);
   const solver::RunResults whole = whole_sim.run();
   ASSERT_EQ(whole.summary.stop_reason, "time");
@@ -146,8 +152,7 @@ TEST_F(Checkpoint, ResumedRunEqualsUninterruptedRunBitForBit) {
   const solver::RunResults partial = run_and_checkpoint(scene_, half, file);
   EXPECT_FALSE(fs::exists(file + ".partial"));
 
-  // Resumed on one thread: the results depend on neither the interruption nor the thread count.
-  omp_set_num_threads(1);
+  omp_set_num_threads(2);
   solver::Simulation resumed(scene_);
   io::read_checkpoint(file, resumed, scene_, info);
   EXPECT_EQ(resumed.steps_done(), half);
@@ -224,6 +229,44 @@ TEST_F(Checkpoint, MissingStateChangesTheResult) {
     EXPECT_EQ(same_bits(rest.probes[0].values, whole.probes[0].values), !drop_currents)
         << (drop_currents ? "zeroed pole currents went unnoticed" : "resume differs");
   }
+}
+
+TEST_F(Checkpoint, DecayStopRuleResumesWithItsMemory) {
+  // The `decayed` rule compares the energy with its peak so far: a resume that forgot the peak
+  // would stop at another step. Stopped half-way between the end of the source (the 400-1000 nm
+  // pulse lasts 18.3 fs: waveform.cpp) and the end of the run.
+  std::string text = small_text;
+  text.replace(text.find("stop: {after: 6 fs}"), 19, "stop: {decayed: 1e-6}");
+  const solver::Scene decaying = scene_with(text);
+  solver::Simulation whole_sim(decaying);
+  const solver::RunResults whole = whole_sim.run();
+  ASSERT_EQ(whole.summary.stop_reason, "decayed");
+  const long source_end = static_cast<long>(std::ceil(18.3e-15 / whole.summary.time_step));
+  const long at = (source_end + whole.summary.steps) / 2;
+  ASSERT_GT(whole.summary.steps - source_end, 2 * 20) << "the decay should span a few energy checks (every 20 steps) after the source";
+  const std::string file = (dir_.path / "decay.checkpoint.h5").string();
+  run_and_checkpoint(decaying, at, file);
+  solver::Simulation resumed(decaying);
+  io::read_checkpoint(file, resumed, decaying, info);
+  const solver::RunResults rest = resumed.run();
+  EXPECT_EQ(rest.summary.steps, whole.summary.steps);
+  EXPECT_EQ(rest.summary.stop_reason, "decayed");
+  EXPECT_TRUE(same_bits(rest.probes[0].values, whole.probes[0].values));
+  EXPECT_EQ(rest.summary.final_energy_fraction, whole.summary.final_energy_fraction);
+  // Without the peak the rule would judge the decay against later, smaller energies only and stop
+  // later (capped here at twice the steps, so the check stays short).
+  solver::Scene capped = decaying;
+  capped.stop.max_steps = 2 * whole.summary.steps;
+  solver::Simulation forgetful(capped);
+  io::read_checkpoint(file, forgetful, capped, info);
+  solver::StateCounters c = forgetful.state_counters();
+  ASSERT_LT(c.last_energy, c.peak_energy);
+  c.peak_energy = c.last_energy;
+  forgetful.restore_counters(c);  // same step count: the probe series keep their samples
+  const solver::RunResults wrong = forgetful.run();
+  EXPECT_GT(wrong.summary.steps, whole.summary.steps);
+  std::printf("decayed rule: whole run %ld steps, checkpoint at %ld, resumed %ld, resumed without the peak %ld (%s)\n",
+              whole.summary.steps, at, rest.summary.steps, wrong.summary.steps, wrong.summary.stop_reason.c_str());
 }
 
 TEST_F(Checkpoint, RefusesMismatchedCheckpointsNamingWhatDiffers) {

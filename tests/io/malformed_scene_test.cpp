@@ -363,10 +363,10 @@ TEST(MalformedScene, PlannedSourceIsNotAvailableYet) {
   const auto f = failure_of(R"(scene: {version: 1}
 domain: {size: 400 nm, step: 5 nm}
 excitation:
-  - plane_wave: {direction: z}
+  - beam: {direction: z}
 stop: {after: 100 fs}
 )");
-  EXPECT_THAT(f.what, HasSubstr("'plane_wave' in excitation[0] is not available in this version; available: dipole"));
+  EXPECT_THAT(f.what, HasSubstr("'beam' in excitation[0] is not available in this version; available: dipole"));
   expect_at(f, 4, 5);
 }
 

@@ -300,6 +300,45 @@ TEST_F(ResultsWriter, ESquaredSumsOnlyTheElectricComponents) {
       EXPECT_DOUBLE_EQ(e2[fr * 12 + i], std::norm(map_value(fr, 0, i)) + std::norm(map_value(fr, 1, i)));
 }
 
+// A run lit by one plane wave, with a map of all three E components: the map also carries
+// |E|^2 / |E_inc|^2 (the near-field enhancement), frequency by frequency.
+solver::RunResults lit_results() {
+  solver::RunResults r = make_results();
+  r.incident_spectra = {{{2.0, 0.0}, {0.0, -0.5}}};  // |E_inc|^2 = 4 at 500 nm, 0.25 at 600 nm
+  solver::FieldMapResult& m = r.field_maps[0];
+  m.components = {Component::Ex, Component::Ey, Component::Ez};
+  return r;
+}
+
+TEST_F(ResultsWriter, EnhancementIsESquaredOverTheIncidentIntensityPerFrequency) {
+  const fs::path path = dir_ / "lit.h5";
+  io::write_results(path.string(), lit_results(), make_scene(), make_info());
+  Opened f(path);
+  const std::string d = "/outputs/map_a/E_enhancement";
+  ASSERT_EQ(dataset_shape(f.id(), d), (std::vector<hsize_t>{2, 1, 4, 3}));
+  EXPECT_EQ(read_string_attribute(f.id(), d, "units"), "1");
+  const auto en = read_doubles(f.id(), d);
+  const double incident[2] = {4.0, 0.25};
+  for (std::size_t fr = 0; fr < 2; ++fr)
+    for (std::size_t i = 0; i < 12; ++i) {
+      double sum = 0;
+      for (std::size_t c = 0; c < 3; ++c) sum += std::norm(map_value(fr, c, i));
+      EXPECT_DOUBLE_EQ(en[fr * 12 + i], sum / incident[fr]);
+    }
+}
+
+TEST_F(ResultsWriter, NoEnhancementWithoutAPlaneWaveOrWithoutAllThreeEComponents) {
+  Opened plain(write_standard());  // no plane wave
+  EXPECT_LE(H5Lexists(plain.id(), "/outputs/map_a/E_enhancement", H5P_DEFAULT), 0);
+  solver::RunResults two_components = lit_results();
+  two_components.field_maps[0].components = {Component::Ex, Component::Ez, Component::Hy};
+  const fs::path path = dir_ / "partial_e.h5";
+  io::write_results(path.string(), two_components, make_scene(), make_info());
+  Opened f(path);
+  EXPECT_GT(H5Lexists(f.id(), "/outputs/map_a/E_squared", H5P_DEFAULT), 0);
+  EXPECT_LE(H5Lexists(f.id(), "/outputs/map_a/E_enhancement", H5P_DEFAULT), 0);
+}
+
 TEST_F(ResultsWriter, SpectraCarryWavelengthAndPhotonEnergy) {
   Opened f(write_standard());
   for (const std::string g : {"/outputs/map_a", "/outputs/box_a", "/sources"}) {

@@ -275,5 +275,30 @@ TEST(SweepSubstitution, ScenesWithoutSweepReadAsBefore) {
   EXPECT_FALSE(read_scene_text(text, "d.yaml").tunnelling.at(0).quantum);
 }
 
+TEST(SweepSubstitution, SyntaxErrorMadeByAValueIsReportedOnItsLineInFileColumns) {
+  // A value that breaks the YAML (an unclosed list) is reported on the line of the ${name} that
+  // brought it in, at a column of the file's line (the parsed line is longer).
+  std::string text = with(dimer, "COMBINE", "");
+  text = with(text, "{from: 20 nm, to: 24 nm, count: 3}", "['[20 nm']");
+  const SweepPlan plan = read_sweep_plan(text, "d.yaml");
+  const SceneError e = error_of([&] { read_scene_point(text, "d.yaml", plan, 0); });
+  const auto [line, column] = position_of(text, "${width}");
+  EXPECT_EQ(e.where().line, line) << e.what();
+  const std::size_t start = text.find("${width}") - static_cast<std::size_t>(column - 1);
+  const int file_line_length = static_cast<int>(text.find('\n', start) - start);
+  EXPECT_GE(e.where().column, column) << e.what();
+  EXPECT_LE(e.where().column, file_line_length + 1) << e.what();
+  EXPECT_NE(e.message().find("YAML syntax error"), std::string::npos) << e.what();
+  EXPECT_NE(e.message().find("${width} = '[20 nm'"), std::string::npos) << e.what();
+}
+
+TEST(SweepSubstitution, PointOfASceneWithoutSweepIsRefused) {
+  const std::string text = with(with(with(with(dimer.substr(0, dimer.find("sweep:")), "${gap}", "1 nm"), "${model}", "x"),
+                                     "${width}", "20 nm"),
+                                "model: ${model}", "model: classical");
+  const SceneError e = error_of([&] { read_scene_point(text, "d.yaml", read_sweep_plan(text, "d.yaml"), 0); });
+  EXPECT_NE(e.message().find("no 'sweep' block"), std::string::npos) << e.what();
+}
+
 }  // namespace
 }  // namespace yeegap::io

@@ -20,14 +20,14 @@ constexpr double d = 0.1e-9;       // cells
 constexpr double radius = 2e-9;
 constexpr double gap = 0.35e-9;    // surface to surface, on the x axis
 
-Scene dimer(bool quantum) {
+Scene dimer(bool quantum, double gap_width = gap) {
   Scene s = testing::vacuum_box({80, 40, 40}, d, testing::all_edges(EdgeKind::metal));
   MaterialSpec metal;
   metal.name = "metal";
   const materials::TunnelMetal au = *materials::find_tunnel_metal("Au");
   metal.poles.drude.push_back({au.plasma_frequency, au.damping});
   s.materials.push_back(metal);
-  const double cx = radius + gap / 2;
+  const double cx = radius + gap_width / 2;
   s.bodies.push_back({geometry::make_sphere({-cx, 0, 0}, radius), 1, {}});
   s.bodies.push_back({geometry::make_sphere({cx, 0, 0}, radius), 1, {}});
   TunnellingSpec t;
@@ -79,6 +79,18 @@ TEST(GapCells, ClassicalRunFindsTheSameGapButLeavesItEmpty) {
   EXPECT_EQ(c.gaps[0].cells, q.gaps[0].cells);
   EXPECT_DOUBLE_EQ(c.gaps[0].smallest_width, q.gaps[0].smallest_width);
   EXPECT_EQ(c.material_names.size(), 2u) << "no gap material in a classical run";
+}
+
+TEST(GapCells, QuantumCorrectedGapWiderThanTheCutoffBuildsWithNoGapCells) {
+  // A sweep of gap widths crosses the cut-off: beyond it the quantum-corrected run has no gap
+  // cells at all and must build and run like the classical one.
+  const Scene s = dimer(true, 0.8e-9);
+  ASSERT_GT(0.8e-9, s.tunnelling[0].model.cutoff_width);
+  Simulation sim(s);
+  const RunResults r = sim.run();
+  ASSERT_EQ(r.gaps.size(), 1u);
+  EXPECT_EQ(r.gaps[0].cells, 0);
+  EXPECT_TRUE(sim.dispersive().cells(2).empty());
 }
 
 }  // namespace

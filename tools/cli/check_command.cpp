@@ -10,7 +10,7 @@
 #include "commands.h"
 #include "io/scene_reader.h"
 #include "json.h"
-#include "solver/simulation.h"
+#include "solver/run_scene.h"
 
 namespace yeegap::cli {
 
@@ -74,7 +74,7 @@ SweepCost sweep_cost(const std::string& text, const CheckOptions& o, const io::S
   for (std::size_t k = 0; k < c.points; ++k) {
     const solver::Scene s = io::read_scene_point(text, o.scene, plan, k, o.overrides, k == 0 ? io::NoteSink(io::notes_to_stderr)
                                                                                               : io::NoteSink([](const std::string&) {}));
-    const solver::ModelSummary m = solver::Simulation::plan(s);
+    const solver::ModelSummary m = solver::plan_scene(s);
     c.cell_updates += cell_updates(m);
     c.fewest_cells = k == 0 ? m.cell_count : std::min(c.fewest_cells, m.cell_count);
     c.most_cells = std::max(c.most_cells, m.cell_count);
@@ -99,7 +99,7 @@ int run_check(const CheckOptions& o) {
   const solver::Scene scene = plan.empty() ? io::read_scene_text(text, o.scene, o.overrides)
                                            : io::read_scene_point(text, o.scene, plan, 0, o.overrides,
                                                                   [](const std::string&) {});
-  const solver::ModelSummary m = solver::Simulation::plan(scene);
+  const solver::ModelSummary m = solver::plan_scene(scene);
   const double cost_seconds = cell_updates(m) / assumed_cell_updates_per_second;
   const double uniform = uniform_cells_at(scene, m);
   if (o.json) {

@@ -5,9 +5,7 @@
 #include <omp.h>
 
 #include <algorithm>
-#include <chrono>
 #include <cmath>
-#include <csignal>
 #include <cstdio>
 #include <ctime>
 #include <filesystem>
@@ -16,15 +14,17 @@
 #include <fmt/format.h>
 
 #include "base/constants.h"
+#include "base/errors.h"
 #include "commands.h"
-#include "io/checkpoint.h"
 #include "io/results_writer.h"
 #include "io/scene_reader.h"
 #include "io/sweep_table.h"
 #include "json.h"
 #include "progress.h"
+#include "checkpointed_run.h"
 #include "run_control.h"
 #include "sensor_report.h"
+#include "solver/run_scene.h"
 #include "solver/simulation.h"
 #include "viewer_outputs.h"
 
@@ -86,10 +86,30 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
         row.number("relative_to_dipole_alone", rel_power);
         rel = fmt::format("  ({:.4f} x the dipole alone)", rel_power);
       }
+      if (!f.fraction.empty()) {
+        row.number("fraction_of_incident", f.fraction[q]);
+        rel += fmt::format("  ({:.5f} of the incident power)", f.fraction[q]);
+      }
       std::fprintf(stderr, "    %8.2f nm  %.5g%s\n", lambda_nm, f.power[q], rel.c_str());
       rows.push_back(row.str());
     }
     outs.add(f.name, json_array(rows));
+  }
+  for (const auto& t : r.reflectance) {
+    std::vector<std::string> rows;
+    std::fprintf(stderr, "  %s (%s, incident index %.4g)%s: wavelength, angle, R, T, A\n", t.name.c_str(),
+                 t.p_polarised ? "p" : "s", t.incident_index, t.angle_scan ? ", angle scan" : ", each frequency at its own angle");
+    for (std::size_t q = 0; q < t.omegas.size(); ++q) {
+      const double lambda_nm = 2 * constants::pi * constants::c0 / t.omegas[q] * 1e9;
+      const double angle_deg = t.angles[q] * 180 / constants::pi;
+      JsonObject row;
+      row.number("wavelength_nm", lambda_nm).number("angle_deg", angle_deg).number("R", t.reflectance[q])
+          .number("T", t.transmittance[q]).number("A", t.absorptance[q]);
+      rows.push_back(row.str());
+      std::fprintf(stderr, "    %8.2f nm  %7.3f deg  %.5f  %.5f  %.5f\n", lambda_nm, angle_deg, t.reflectance[q],
+                   t.transmittance[q], t.absorptance[q]);
+    }
+    outs.add(t.name, json_array(rows));
   }
   for (const auto& g : r.gaps) {
     const auto body_name = [&](int i) {
@@ -213,71 +233,47 @@ int run_scene(const RunOptions& o) {
   const int threads = omp_get_max_threads();
   const std::string started = now_iso8601();
 
-  const std::string checkpoint = io::checkpoint_path(output);
-  const double checkpoint_seconds = parse_duration(o.checkpoint_every).value_or(0);  // checked by the option
+  CheckpointSettings checkpoint{io::checkpoint_path(output), parse_duration(o.checkpoint_every).value_or(0),
+                                {YEEGAP_VERSION, o.overrides}};  // the duration was checked by the option
+  if (o.point) checkpoint.info.overrides.push_back(fmt::format("(sweep point {})", *o.point));  // points share one text
 
-  solver::Simulation sim(scene);
-  io::CheckpointInfo info{YEEGAP_VERSION, o.overrides};
-  if (o.point) info.overrides.push_back(fmt::format("(sweep point {})", *o.point));  // points share one text
-  std::error_code ec;
-  if (o.resume) {
-    io::read_checkpoint(checkpoint, sim, scene, info);
-    std::fprintf(stderr, "yeegap: resuming from %s at step %ld\n", checkpoint.c_str(), sim.steps_done());
-  } else if (std::filesystem::exists(checkpoint, ec)) {
-    std::fprintf(stderr, "yeegap: note: %s is from an earlier run that did not finish; this run starts over and "
-                 "replaces it (--resume continues it instead)\n", checkpoint.c_str());
+  // A Bloch run (plane_wave, complex fields) holds several Simulations and writes no checkpoint yet.
+  const bool bloch = solver::is_bloch_scene(scene);
+  if (bloch && o.resume)
+    throw RunError(fmt::format("{}: --resume: runs with a plane_wave or a Bloch wavevector write no checkpoint yet",
+                               o.scene));
+  std::optional<solver::Simulation> sim;
+  if (!bloch) {
+    sim.emplace(scene);
+    resume_or_start(*sim, scene, checkpoint, o.resume);
   }
-  const solver::ModelSummary plan = sim.summary();
+  const solver::ModelSummary plan = bloch ? solver::plan_scene(scene) : sim->summary();
   std::fprintf(stderr, "yeegap: %s: %d x %d x %d cells, dt %.4g fs, %s%ld steps, %.1f MB, %d thread%s\n", o.scene.c_str(),
                plan.cells[0], plan.cells[1], plan.cells[2], plan.time_step * 1e15, plan.steps_estimated ? "about " : "",
                plan.steps, plan.memory_bytes / 1e6, threads, threads == 1 ? "" : "s");
-  solver::RunResults results;
-  bool checkpoint_failed = false;
+  if (plan.mixed_cells > 0)
+    std::fprintf(stderr, "yeegap: %lld E locations on body surfaces averaged (domain.averaging)\n", plan.mixed_cells);
+  CheckpointedResults run;
   {
     ProgressLine progress;
-    StopSignals signals;
-    using clock = std::chrono::steady_clock;
-    auto last_checkpoint = clock::now();
-    // Between two steps: stop on a signal, or write the periodic checkpoint. A checkpoint that
-    // cannot be written (full disk) is reported and the run goes on: its results may still fit.
-    const auto between_steps = [&] {
-      if (signals.received() != 0) return true;
-      if (checkpoint_seconds > 0 &&
-          std::chrono::duration<double>(clock::now() - last_checkpoint).count() >= checkpoint_seconds) {
-        try {
-          io::write_checkpoint(checkpoint, sim, scene, info);
-          progress.break_line();
-          std::fprintf(stderr, "yeegap: checkpoint at step %ld in %s\n", sim.steps_done(), checkpoint.c_str());
-        } catch (const std::exception& e) {
-          progress.break_line();
-          std::fprintf(stderr, "yeegap: warning: %s; the run goes on\n", e.what());
-        }
-        last_checkpoint = clock::now();
-      }
-      return false;
-    };
-    results = sim.run([&](const solver::Progress& p) { progress.update(p); }, between_steps);
-    if (results.summary.stop_reason == "interrupted") {
-      progress.break_line();
-      std::fprintf(stderr, "yeegap: stopped by %s at step %ld\n", signals.received() == SIGINT ? "SIGINT" : "SIGTERM",
-                   sim.steps_done());
-      try {  // first: it is what lets the run finish later
-        io::write_checkpoint(checkpoint, sim, scene, info);
-        std::fprintf(stderr, "yeegap: checkpoint in %s\n", checkpoint.c_str());
-      } catch (const std::exception& e) {
-        checkpoint_failed = true;  // the partial results are still worth writing
-        std::fprintf(stderr, "yeegap: %s\n", e.what());
-      }
+    if (bloch) {
+      run.results = solver::run_scene(scene, [&](const solver::Progress& p) { progress.update(p); });
+    } else {
+      run = run_with_checkpoints(
+          *sim, [&](const auto& report, const auto& between_steps) { return sim->run(report, between_steps); }, scene,
+          checkpoint, progress);
     }
   }
-  const bool interrupted = results.summary.stop_reason == "interrupted";
+  const solver::RunResults& results = run.results;
+  const bool interrupted = run.interrupted, checkpoint_failed = run.checkpoint_failed;
+  std::error_code ec;
   io::write_results(output, results, scene, {YEEGAP_VERSION, o.command_line, started, threads});
   // With its /sweep record the file counts as a finished point for `yeegap sweep` (if named
   // point_NNNN.h5 in the sweep's folder); written after the results, so a failure here loses none.
   // Partial results of an interrupted run get none: the point is not finished.
   if (o.point && !interrupted) io::write_point_record(output, sweep, *o.point, io::compute_figures(results, scene), o.overrides);
   write_viewer_file(output);  // a failure is reported; the results are safe either way
-  if (!interrupted) std::filesystem::remove(checkpoint, ec);  // finished: nothing left to resume
+  if (!interrupted) std::filesystem::remove(checkpoint.path, ec);  // finished: nothing left to resume
   const auto& s = results.summary;
   std::fprintf(stderr, "yeegap: %ld steps (%s) in %.1f s, %.1f Mcells/s; %sresults in %s\n", s.steps, s.stop_reason.c_str(),
                s.wall_seconds, s.cell_updates_per_second / 1e6, interrupted ? "partial " : "", output.c_str());

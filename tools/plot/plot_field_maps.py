@@ -1,4 +1,5 @@
-"""Field maps of a results file: |E|^2 (the `E_squared` dataset) on the map's plane, one figure per
+"""Field maps of a results file: |E|^2 (the `E_squared` dataset, or |E|^2/|E_inc|^2 from
+`E_enhancement` when the run has a plane wave) on the map's plane, one figure per
 frequency, on a logarithmic colour scale, drawn at the true node coordinates (pcolormesh with
 Gouraud shading over the node positions, so graded grids come out right). The material
 boundaries are drawn on top along the cell edges where the material changes, as the solver sees
@@ -15,6 +16,10 @@ IN_PLANE = {0: (1, 2), 1: (0, 2), 2: (0, 1)}  # normal axis -> (horizontal, vert
 DECADES = 5                                  # colour range below the top of the scale
 TOP_PERCENTILE = 99.5                        # top of the colour scale: a source's own node is singular
 
+
+# (title word, colour-bar label) of what a figure shows.
+E_SQUARED = ("|E|²", "|E|² (V² s²/m²)")
+ENHANCEMENT = ("|E|²/|E₀|²", "|E|²/|E₀|² (enhancement over the incident wave)")
 
 def choose_plane(coords, e2):
     """(normal axis, node index along it, description) of the plane to show."""
@@ -60,7 +65,7 @@ def dipoles_in_plane(f, normal, position, u, v):
     return p[near][:, [u, v]]
 
 
-def plane_figure(f, name, e2, coords, wavelength_nm):
+def plane_figure(f, name, e2, coords, wavelength_nm, quantity=E_SQUARED):
     normal, index, how = choose_plane(coords, e2)
     u, v = IN_PLANE[normal]
     position = coords[normal][index]
@@ -73,7 +78,7 @@ def plane_figure(f, name, e2, coords, wavelength_nm):
     shown = np.clip(values, top * 10.0**-DECADES, top) if top > 0 else values
     mesh = ax.pcolormesh(coords[u] * 1e9, coords[v] * 1e9, shown, shading="gouraud", cmap="inferno", norm=norm,
                          rasterized=True)
-    fig.colorbar(mesh, ax=ax, extend="both", label="|E|² (V² s²/m²), log scale")
+    fig.colorbar(mesh, ax=ax, extend="both", label=f"{quantity[1]}, log scale")
     gu, gv, materials = material_slice(f, normal, position)
     segments = boundary_segments(gu * 1e9, gv * 1e9, materials)
     if len(segments):
@@ -86,19 +91,19 @@ def plane_figure(f, name, e2, coords, wavelength_nm):
     ax.set_xlabel(f"{AXES[u]} (nm)")
     ax.set_ylabel(f"{AXES[v]} (nm)")
     at = round(position * 1e9, 3) + 0.0  # + 0.0: no "-0"
-    ax.set_title(f"{name}: |E|² at {wavelength_nm:.1f} nm, {how} {AXES[normal]} = {at:g} nm")
+    ax.set_title(f"{name}: {quantity[0]} at {wavelength_nm:.1f} nm, {how} {AXES[normal]} = {at:g} nm")
     if len(segments) or ax.get_legend_handles_labels()[0]:
         ax.legend(fontsize="small", loc="upper right", framealpha=0.6)
     return fig
 
 
-def line_figure(name, e2, coords, wavelength_nm):
+def line_figure(name, e2, coords, wavelength_nm, quantity=E_SQUARED):
     along = int(np.argmax([len(c) for c in coords]))
     fig, (ax,) = new_figure(1)
     ax.semilogy(coords[along] * 1e9, e2.reshape(-1), marker=".")
     ax.set_xlabel(f"{AXES[along]} (nm)")
-    ax.set_ylabel("|E|² (V² s²/m²)")
-    ax.set_title(f"{name}: |E|² at {wavelength_nm:.1f} nm")
+    ax.set_ylabel(quantity[1])
+    ax.set_title(f"{name}: {quantity[0]} at {wavelength_nm:.1f} nm")
     ax.grid(True, alpha=0.3)
     return fig
 
@@ -108,14 +113,19 @@ def field_map_figures(f, name, g):
     no E component (then it has no E_squared) or is a single point."""
     if "E_squared" not in g:
         return
+    # Under a plane wave the map also holds |E|²/|E_inc|², the near-field enhancement: plot that.
+    if "E_enhancement" in g:
+        data, quantity = g["E_enhancement"], ENHANCEMENT
+    else:
+        data, quantity = g["E_squared"], E_SQUARED
     coords = [g["x"][...], g["y"][...], g["z"][...]]
     long_axes = sum(len(c) > 1 for c in coords)
     if long_axes == 0:
         return
     wavelengths = g["wavelength_nm"][...]
     for q, wl in enumerate(wavelengths):
-        e2 = g["E_squared"][q]
+        e2 = data[q]
         if long_axes == 1:
-            yield wl, line_figure(name, e2, coords, wl)
+            yield wl, line_figure(name, e2, coords, wl, quantity)
         else:
-            yield wl, plane_figure(f, name, e2, coords, wl)
+            yield wl, plane_figure(f, name, e2, coords, wl, quantity)

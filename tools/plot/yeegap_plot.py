@@ -4,6 +4,8 @@
                          alone when the scene has one dipole)
   <stem>_probe_<name>    each probe's time series
   <stem>_<map>_<wl>nm    |E|^2 of each field map at each wavelength, with the material boundaries
+                         (|E|^2/|E_inc|^2 when the run has a plane wave)
+  <stem>_<name>          cross sections against wavelength; far-field directivity, polar
   <stem>_sensor_<name>   each sensor output's R(theta), before and after the index raise, dips marked
 Headless (matplotlib's Agg backend). `yeegap view` and `yeegap run --plot` run this script.
 
@@ -46,6 +48,7 @@ def write_figures(results, out_dir, formats):
     """Makes every figure of the results file; returns the written paths and notes for the user."""
     from plot_common import open_results, output_stem, outputs_of_kind, save, wavelength_label
     from plot_field_maps import field_map_figures
+    from plot_particles import cross_sections_figure, far_field_figure
     from plot_probes import probe_figure
     from plot_sensor import sensor_figure
     from plot_spectra import flux_figure
@@ -59,6 +62,11 @@ def write_figures(results, out_dir, formats):
             fig = probe_figure(name, g)
             if fig is not None:
                 written += save(fig, output_stem(results, out_dir, "probe", name), formats)
+        for kind, figure in (("cross_sections", cross_sections_figure), ("far_field", far_field_figure)):
+            for name, g in outputs_of_kind(f, kind):
+                fig = figure(name, g)
+                if fig is not None:
+                    written += save(fig, output_stem(results, out_dir, name), formats)
         for name, g in outputs_of_kind(f, "field_map"):
             for wl, fig in field_map_figures(f, name, g):
                 written += save(fig, output_stem(results, out_dir, name, wavelength_label(wl) + "nm"), formats)
@@ -88,7 +96,7 @@ def main(argv):
     for note in notes:
         say(note)
     if not written:
-        say(f"{args.results} has no flux, probe or field-map output to plot")
+        say(f"{args.results} has no flux, probe, cross-section, far-field or field-map output to plot")
     else:
         say(f"{len(written)} figures in {out_dir}: " + ", ".join(os.path.basename(p) for p in written))
     return 0

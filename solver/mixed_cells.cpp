@@ -1,0 +1,102 @@
+// Mixed E locations for subcell averaging (see mixed_cells.h).
+#include "solver/mixed_cells.h"
+
+#include <algorithm>
+#include <cmath>
+
+#include "base/errors.h"
+#include "geometry/fill_fraction.h"
+#include "geometry/surface_normal.h"
+
+namespace yeegap::solver {
+
+namespace {
+
+// A fill fraction this close to 0 or 1 is a box the surface only grazes (round-off of a face that
+// lies on the box edge): the location stays staircased.
+constexpr double fill_tolerance = 1e-6;
+
+// Material under body `top` at p: the last earlier body containing p, else the background.
+int material_below(const Scene& s, std::size_t top, const Vec3& p) {
+  for (std::size_t b = top; b-- > 0;) {
+    const geometry::Aabb box = s.bodies[b].shape->bounds();
+    if (p.x < box.lo.x || p.y < box.lo.y || p.z < box.lo.z || p.x > box.hi.x || p.y > box.hi.y || p.z > box.hi.z) continue;
+    if (s.bodies[b].shape->contains(p)) return s.bodies[b].material;
+  }
+  return s.domain.background;
+}
+
+bool overlaps(const geometry::Aabb& a, const geometry::Aabb& b) {
+  for (int ax = 0; ax < 3; ++ax)
+    if (a.hi[ax] < b.lo[ax] || b.hi[ax] < a.lo[ax]) return false;
+  return true;
+}
+
+}  // namespace
+
+geometry::Aabb averaging_box(const Grid& g, Component c, int i, int j, int k) {
+  const std::array<int, 3> idx{i, j, k};
+  geometry::Aabb box;
+  for (int a = 0; a < 3; ++a) {
+    const int n = g.n[a];
+    if (staggered(c, a)) {
+      box.lo[a] = g.nodes[a][idx[a]];
+      box.hi[a] = g.nodes[a][idx[a] + 1];
+    } else {
+      const double x = g.nodes[a][idx[a]];
+      const int before = idx[a] > 0 ? idx[a] - 1 : (g.periodic[a] ? n - 1 : 0);
+      box.lo[a] = x - 0.5 * g.primal(a, before);
+      box.hi[a] = x + 0.5 * g.primal(a, std::min(idx[a], n - 1));
+    }
+  }
+  return box;
+}
+
+std::vector<MixedCell> find_mixed_cells(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi) {
+  const int wall = static_cast<int>(s.materials.size());
+  // The tunnelling-gap medium is the last material when it exists (gap_cells.h).
+  const int gap = (!s.tunnelling.empty() && s.tunnelling[0].quantum) ? wall - 1 : -1;
+  auto averageable = [&](int m) { return m != gap && m < wall && !s.materials[m].perfect_conductor; };
+  std::vector<geometry::Aabb> bounds;
+  for (const BodySpec& b : s.bodies) bounds.push_back(b.shape->bounds());
+
+  std::vector<MixedCell> out;
+  for (int c = 0; c < 3; ++c) {
+    const auto comp = static_cast<Component>(c);
+    std::vector<std::vector<MixedCell>> per_plane(L.n[2]);  // joined in order: same list for any thread count
+#pragma omp parallel for schedule(dynamic)
+    for (int k = 0; k < L.n[2]; ++k)
+      for (int j = 0; j < L.n[1]; ++j)
+        for (int i = 0; i < L.n[0]; ++i) {
+          const std::ptrdiff_t o = L.at(i, j, k);
+          const int here = mi.e[c][o];
+          if (!averageable(here)) continue;
+          const geometry::Aabb box = averaging_box(g, comp, i, j, k);
+          const Vec3 p = yee_position(g, comp, i, j, k);
+          const double half_diagonal = 0.5 * norm(box.hi - box.lo);
+          for (std::size_t b = s.bodies.size(); b-- > 0;) {
+            if (!overlaps(bounds[b], box)) continue;
+            const geometry::Shape& shape = *s.bodies[b].shape;
+            const double d = shape.signed_distance(p);
+            if (d <= -half_diagonal) break;   // the box lies wholly in this body: it covers all below
+            if (d >= half_diagonal) continue; // the surface cannot reach the box
+            const double f = geometry::fill_fraction(shape, box);
+            if (f >= 1 - fill_tolerance) break;
+            if (f <= fill_tolerance) continue;
+            const int inside = s.bodies[b].material, outside = material_below(s, b, p);
+            if (inside == outside || !averageable(inside) || !averageable(outside)) break;
+            if (here != inside && here != outside) break;  // a third body meets here: keep the staircase
+            const double smallest = std::min({box.hi.x - box.lo.x, box.hi.y - box.lo.y, box.hi.z - box.lo.z});
+            const Vec3 n = geometry::surface_normal(shape, p, 1e-3 * smallest);
+            // Without a normal (p where surface directions cancel) the three components share it equally.
+            const double share = norm(n) > 0 ? n[c] * n[c] : 1.0 / 3.0;
+            per_plane[k].push_back({comp, o, inside, outside, f, share});
+            break;
+          }
+        }
+    for (auto& v : per_plane) out.insert(out.end(), v.begin(), v.end());
+  }
+  return out;
+}
+
+}  // namespace yeegap::solver

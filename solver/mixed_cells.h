@@ -1,0 +1,35 @@
+// The E locations a body's surface crosses, for subcell averaging: around every Yee E location the
+// box of its own update (primal along its component, dual across), the topmost body whose surface
+// cuts that box, the fraction of the box inside it (geometry/fill_fraction.h) and the surface normal
+// there (geometry/surface_normal.h). Later bodies win, as in the staircase (material_map.h).
+#pragma once
+
+#include <array>
+#include <cstddef>
+#include <vector>
+
+#include "solver/grid.h"
+#include "solver/scene.h"
+#include "solver/yee_kernels.h"
+
+namespace yeegap::solver {
+
+/// One E location shared by two materials.
+struct MixedCell {
+  Component component = Component::Ex;
+  std::ptrdiff_t offset = 0;   // flat index in the block layout
+  int inside = 0, outside = 0; // materials: the crossing body's, and what lies under it there
+  double fill = 0;             // fraction of the box inside the body, in (0, 1)
+  double normal_share = 0;     // n_c^2: squared normal component along the E component, in [0, 1]
+};
+
+/// Mixed E locations of the block in layout order, component by component. Locations held at zero
+/// (wall index in `mi`), perfect conductors and the tunnelling-gap medium stay staircased: a wall
+/// has no permittivity to average, and gap cells get their damping from their own position.
+std::vector<MixedCell> find_mixed_cells(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi);
+
+/// The averaging box of E component c at cell (i, j, k): primal cell along c, from half the
+/// previous to half the next cell across (on a bounded low face the first cell is mirrored).
+geometry::Aabb averaging_box(const Grid& g, Component c, int i, int j, int k);
+
+}  // namespace yeegap::solver

@@ -1,0 +1,20 @@
+// How a scene runs: an ordinary Simulation, a Bloch run (complex fields and/or a plane wave in a
+// Bloch cell, bloch_run.h) or an angle scan of Bloch runs (angle_scan.h). A laterally uniform stack
+// lit by a plane wave runs as a 1D problem (layered_stack.h). The command-line program calls these
+// two and never needs to know which kind of run it got.
+#pragma once
+
+#include <functional>
+
+#include "solver/simulation.h"
+
+namespace yeegap::solver {
+
+/// Whether the scene runs as a Bloch run (a plane_wave, or a non-zero Bloch wavevector).
+bool is_bloch_scene(const Scene& scene);
+/// Figures for `yeegap check`; the mesh notes say which kind of run it is.
+ModelSummary plan_scene(const Scene& scene);
+/// Builds and runs the scene to its stop rule.
+RunResults run_scene(const Scene& scene, const std::function<void(const Progress&)>& progress = {});
+
+}  // namespace yeegap::solver

@@ -1,0 +1,211 @@
+// Averaged update of mixed E locations (see subcell_average.h). In the units of dispersive.h
+// (Dt = D/eps0, Q = dt J/eps0, both V/m), a branch of relative eps_inf, loss s = sigma dt/eps0
+// and poles with weights w steps as
+//   eps_inf (E^{n+1} - E^n) = dDt - s (E^{n+1} + E^n)/2 - sum w Q^{n+1/2},
+// which is eps0 eps_inf dE/dt = dD/dt - sigma E - J of physics.md 3.4 with the same pole updates as
+// dispersive.cpp; the critical points' E^{n+1} share moves to the left side. The increment dDt is
+// recovered from the bulk kernel's result: E_k = ca E^n + cb C, so dDt = (dt/eps0) C
+// = (dt/eps0)/cb (E_k - ca E^n), exact for whatever the CPML and sources added with that cb.
+// Passivity: each branch is a passive medium and 1/eps_eff a positive combination of their inverse
+// permittivities, so the cell stays passive; the instantaneous permittivity lies between the two
+// eps_inf, so the Courant bound of the bulk media holds (dispersive_stability.h).
+#include "solver/subcell_average.h"
+
+#include <map>
+
+#include <fmt/format.h>
+#include <utility>
+
+#include "base/constants.h"
+#include "base/errors.h"
+#include "materials/discrete_permittivity.h"
+#include "solver/simulation_state.h"
+
+namespace yeegap::solver {
+
+SubcellAverage::Response SubcellAverage::response(const materials::PoleSet& p, double dt) {
+  Response r;
+  r.eps_inf = p.eps_inf;
+  r.loss = p.conductivity * dt / constants::eps0;
+  for (const materials::DrudePole& d : p.drude) {
+    const double half = 0.5 * d.gamma * dt, wdt = d.omega_p * dt;
+    PoleStep s;
+    s.cq = static_cast<real>((1 - half) / (1 + half));
+    s.ce = static_cast<real>(wdt * wdt / (1 + half));
+    r.poles.push_back(s);
+  }
+  for (const materials::LorentzPole& l : p.lorentz) {
+    const double den = 1 + 0.5 * l.gamma * dt, w0dt2 = l.omega_0 * dt * l.omega_0 * dt;
+    PoleStep s;
+    s.cq = static_cast<real>((1 - 0.5 * l.gamma * dt) / den);
+    s.cp = static_cast<real>(-w0dt2 / den);
+    s.ce = static_cast<real>(l.delta_eps * w0dt2 / den);
+    s.keeps_p = true;
+    r.poles.push_back(s);
+  }
+  for (const materials::CriticalPoint& cp : p.critical_points) {
+    const materials::CriticalPointAde a = materials::critical_point_ade(cp);
+    const double half = 0.5 * a.damping * dt, den = 1 + half;
+    PoleStep s;
+    s.cq = static_cast<real>((1 - half) / den);
+    s.cp = static_cast<real>(-a.omega0_sq * dt * dt / den);
+    s.ce = static_cast<real>(a.a0 * dt * dt / den);
+    s.cm = static_cast<real>(-0.5 * a.a1 * dt / den);
+    s.implicit = static_cast<real>(0.5 * a.a1 * dt / den);
+    s.keeps_p = true;
+    r.poles.push_back(s);
+  }
+  return r;
+}
+
+SubcellAverage::SubcellAverage(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi,
+                               const ECoefficients& ec, double dt)
+    : cells_(find_mixed_cells(s, g, L, mi)) {
+  for (const MaterialSpec& m : s.materials) responses_.push_back(response(m.poles, dt));
+  // Group the cells by material pair, keeping each group's cells in layout order per component.
+  std::map<std::pair<int, int>, std::vector<const MixedCell*>> pairs;
+  for (const MixedCell& c : cells_) pairs[{c.inside, c.outside}].push_back(&c);
+  for (const auto& [pair, list] : pairs) {
+    Group gr;
+    gr.inside = pair.first;
+    gr.outside = pair.second;
+    std::size_t q = 0;
+    for (int c = 0; c < 3; ++c) {
+      gr.start[c] = q;
+      for (const MixedCell* m : list) {
+        if (static_cast<int>(m->component) != c) continue;
+        const int here = mi.e[c][m->offset];
+        YG_CHECK(ec.cb[here] > 0, "a mixed location needs a material with cb > 0 under it");
+        gr.offset.push_back(m->offset);
+        gr.ca.push_back(ec.ca[here]);
+        gr.recover.push_back(static_cast<real>(dt / constants::eps0 / ec.cb[here]));
+        gr.fill.push_back(static_cast<real>(m->fill));
+        gr.share.push_back(static_cast<real>(m->normal_share));
+        ++q;
+      }
+    }
+    gr.start[3] = q;
+    gr.e_old.assign(q, real(0));
+    for (int b = 0; b < 3; ++b) {
+      gr.e[b].assign(q, real(0));
+      gr.e_previous[b].assign(q, real(0));
+    }
+    auto add = [&](int branch, bool from_inside) {
+      for (const PoleStep& st : responses_[from_inside ? gr.inside : gr.outside].poles) {
+        BranchPole bp;
+        bp.branch = branch;
+        bp.from_inside = from_inside;
+        bp.step = st;
+        bp.q.assign(q, real(0));
+        if (st.keeps_p) bp.p.assign(q, real(0));
+        gr.poles.push_back(std::move(bp));
+      }
+    };
+    add(0, true);
+    add(1, false);
+    add(2, true);
+    add(2, false);
+    groups_.push_back(std::move(gr));
+  }
+}
+
+MaterialIndex SubcellAverage::without_mixed(const MaterialIndex& mi, int wall) const {
+  MaterialIndex out = mi;
+  for (const MixedCell& c : cells_) out.e[static_cast<int>(c.component)][c.offset] = static_cast<std::uint8_t>(wall);
+  return out;
+}
+
+void SubcellAverage::keep(const Fields& f) {
+  for (Group& g : groups_)
+    for (int c = 0; c < 3; ++c) {
+      const real* e = f.c[c].data();
+      for (std::size_t i = g.start[c]; i < g.start[c + 1]; ++i) g.e_old[i] = e[g.offset[i]];
+    }
+  if (started_[0] != 0) return;
+  // Fields given before the first step (a test's initial condition) start every branch there.
+  for (Group& g : groups_)
+    for (int b = 0; b < 3; ++b) g.e[b].assign(g.e_old.begin(), g.e_old.end());
+  started_[0] = 1;
+}
+
+void SubcellAverage::apply(Fields& f) {
+  for (Group& g : groups_) apply_group(g, f);
+}
+
+void SubcellAverage::apply_group(Group& g, Fields& f) {
+  const Response& in = responses_[g.inside];
+  const Response& out = responses_[g.outside];
+  const std::size_t np = g.poles.size();
+  for (int c = 0; c < 3; ++c) {
+    real* field = f.c[c].data();
+    const std::size_t lo = g.start[c], hi = g.start[c + 1];
+#pragma omp parallel for schedule(static) if (parallel_worth(static_cast<long long>(hi - lo) * 8))
+    for (std::size_t i = lo; i < hi; ++i) {
+      const double fill = g.fill[i], rest = 1 - fill;
+      const double dD = g.recover[i] * (field[g.offset[i]] - g.ca[i] * g.e_old[i]);
+      double sum_q[3] = {0, 0, 0}, implicit[3] = {0, 0, 0};
+      for (std::size_t k = 0; k < np; ++k) {
+        BranchPole& bp = g.poles[k];
+        const PoleStep& st = bp.step;
+        real* q = bp.q.data();
+        real* p = bp.p.data();
+        const real en = g.e[bp.branch][i], ep = g.e_previous[bp.branch][i];
+        real qn = st.cq * q[i] + st.ce * en + st.cm * ep;
+        if (st.keeps_p) qn += st.cp * p[i];
+        q[i] = qn;
+        if (st.keeps_p && st.implicit == 0) p[i] += qn;  // Lorentz: P^{n+1} now; critical points after E
+        const double w = bp.branch < 2 ? 1.0 : (bp.from_inside ? fill : rest);
+        sum_q[bp.branch] += w * qn;
+        implicit[bp.branch] += w * st.implicit;
+      }
+      const double eps[3] = {in.eps_inf, out.eps_inf, fill * in.eps_inf + rest * out.eps_inf};
+      const double loss[3] = {in.loss, out.loss, fill * in.loss + rest * out.loss};
+      double e_new[3];
+      for (int b = 0; b < 3; ++b) {
+        const double en = g.e[b][i];
+        e_new[b] = ((eps[b] - 0.5 * loss[b]) * en + dD - sum_q[b]) / (eps[b] + 0.5 * loss[b] + implicit[b]);
+      }
+      for (std::size_t k = 0; k < np; ++k) {
+        BranchPole& bp = g.poles[k];
+        if (bp.step.implicit == 0) continue;
+        real* q = bp.q.data();
+        real* p = bp.p.data();
+        q[i] += bp.step.implicit * static_cast<real>(e_new[bp.branch]);
+        p[i] += q[i];
+      }
+      for (int b = 0; b < 3; ++b) {
+        g.e_previous[b][i] = g.e[b][i];
+        g.e[b][i] = static_cast<real>(e_new[b]);
+      }
+      const double share = g.share[i];
+      field[g.offset[i]] =
+          static_cast<real>(share * (fill * e_new[0] + rest * e_new[1]) + (1 - share) * e_new[2]);
+    }
+  }
+}
+
+std::size_t SubcellAverage::memory_bytes() const {
+  std::size_t bytes = cells_.size() * sizeof(MixedCell);
+  for (const Group& g : groups_) {
+    bytes += g.offset.size() * (sizeof(std::ptrdiff_t) + 11 * sizeof(real));
+    for (const BranchPole& bp : g.poles) bytes += (bp.q.size() + bp.p.size()) * sizeof(real);
+  }
+  return bytes;
+}
+
+void SubcellAverage::add_state(StateArrays& s, const std::string& prefix) {
+  s.add_vector(prefix + "/started", started_);
+  for (Group& g : groups_) {
+    const std::string base = fmt::format("{}/pair{}_{}", prefix, g.inside, g.outside);
+    for (int b = 0; b < 3; ++b) {
+      s.add_vector(fmt::format("{}/branch{}/e", base, b), g.e[b]);
+      s.add_vector(fmt::format("{}/branch{}/e_previous", base, b), g.e_previous[b]);
+    }
+    for (std::size_t k = 0; k < g.poles.size(); ++k) {
+      s.add_vector(fmt::format("{}/pole{}/q", base, k), g.poles[k].q);
+      if (!g.poles[k].p.empty()) s.add_vector(fmt::format("{}/pole{}/p", base, k), g.poles[k].p);
+    }
+  }
+}
+
+}  // namespace yeegap::solver

@@ -1,0 +1,95 @@
+// Subcell averaging at the E locations a material interface crosses (mixed_cells.h). The averaged
+// permittivity is the anisotropic one of Farjadpour et al., Opt. Lett. 31, 2972 (2006), for every
+// pair of materials, dispersive or not, taken along the E component (diagonal only):
+//   1/eps_eff = n_c^2 <1/eps> + (1 - n_c^2) / <eps>,   <.> = fill-weighted mean over the box.
+// For metals eps(omega) is averaged as a response, never as a number: the cell holds three
+// branches driven by the same D, E_in = D/eps_in, E_out = D/eps_out (series, for the normal part)
+// and E_mix = D/<eps> (parallel: eps_inf and every pole's susceptibility weighted by its fill
+// fraction, the fill-weighted polarisation currents), and E = n_c^2 (f E_in + (1-f) E_out)
+// + (1 - n_c^2) E_mix. Each branch is the scheme of dispersive.h in D form, so no pole of an averaged
+// 1/eps is ever built (physics.md 3.8 warns against that), and a cell with f = 1 is the bulk update.
+// The off-diagonal terms n_c n_d (<1/eps> - 1/<eps>) D_d are dropped: they need D_d interpolated to
+// the E_c location, which makes the update non-symmetric and able to grow at high contrast (from
+// memory: Werner & Cary, J. Comput. Phys. 226, 1085 (2007)). The price is a first-order error where
+// the surface is oblique to the grid (tests/solver/*_convergence_slow_test.cpp, docs/scene.md).
+#pragma once
+
+#include <array>
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "solver/fields.h"
+#include "solver/mixed_cells.h"
+#include "solver/scene.h"
+#include "solver/yee_kernels.h"
+
+namespace yeegap::solver {
+
+class StateArrays;  // simulation_state.h
+
+/// The averaged update of the mixed E locations, around the bulk update:
+///   before update_e:  keep(f)   saves E^n of the mixed locations
+///   after update_e, the CPML's E terms and the sources (which all scale with the location's cb):
+///                     apply(f)  recovers the curl from the bulk result, advances D and the three
+///                               branches, and writes the averaged E^{n+1}
+/// The bulk E kernel keeps the staircase material index at mixed locations, so its fast path over
+/// single-material blocks is untouched; DispersiveCurrents must get without_mixed(mi) so it leaves
+/// the mixed locations to this class.
+class SubcellAverage {
+ public:
+  /// `mi` is the staircase index (with gap cells marked); `ec` from e_coefficients.
+  SubcellAverage(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi, const ECoefficients& ec,
+                 double dt);
+
+  bool empty() const { return cells_.empty(); }
+  std::size_t size() const { return cells_.size(); }
+  const std::vector<MixedCell>& cells() const { return cells_; }
+  /// A copy of mi with the mixed locations set to the wall index (no bulk polarisation currents).
+  MaterialIndex without_mixed(const MaterialIndex& mi, int wall) const;
+
+  void keep(const Fields& f);
+  void apply(Fields& f);
+  std::size_t memory_bytes() const;
+  /// The branch fields and pole currents, for checkpoints (simulation_state.h).
+  void add_state(StateArrays& s, const std::string& prefix);
+
+ private:
+  // One pole's update in the units of dispersive.h (Q = dt J / eps0, P / eps0, both V/m):
+  //   Q^{n+1/2} = cq Q + cp P + ce E^n + cm E^{n-1} (+ implicit E^{n+1});  P += Q
+  struct PoleStep {
+    real cq = 0, cp = 0, ce = 0, cm = 0, implicit = 0;
+    bool keeps_p = false;  // Lorentz and critical points
+  };
+  struct Response {
+    double eps_inf = 1, loss = 0;  // loss = sigma dt / eps0
+    std::vector<PoleStep> poles;
+  };
+  struct BranchPole {
+    int branch = 0;                // 0: inside, 1: outside, 2: mixture
+    bool from_inside = true;       // in the mixture, weighted by f (inside) or 1 - f (outside)
+    PoleStep step;
+    AlignedVector<real> q, p;
+  };
+  struct Group {                   // the mixed cells of one (inside, outside) pair
+    int inside = 0, outside = 0;
+    std::array<std::size_t, 4> start{};  // cells of component c: [start[c], start[c+1])
+    std::vector<std::ptrdiff_t> offset;
+    std::vector<real> ca, recover;       // bulk ca of the staircase material, (dt/eps0)/cb
+    std::vector<real> fill, share;
+    AlignedVector<real> e_old;
+    std::array<AlignedVector<real>, 3> e, e_previous;  // per branch
+    std::vector<BranchPole> poles;
+  };
+  static Response response(const materials::PoleSet& p, double dt);
+  void apply_group(Group& g, Fields& f);
+
+  std::vector<MixedCell> cells_;
+  std::vector<Response> responses_;  // per material
+  std::vector<Group> groups_;
+  // 1 once the branches hold a state (the first keep() starts them at the fields then present);
+  // an array so a checkpoint carries it.
+  std::vector<double> started_{0.0};
+};
+
+}  // namespace yeegap::solver

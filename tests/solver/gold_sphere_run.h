@@ -1,0 +1,99 @@
+// One TFSF run of a gold sphere (radius 30 nm, Lorentz-Drude gold of Rakic et al., Appl. Opt. 37,
+// 5271 (1998)) in water (index 1.333, dispersion-free) at a chosen number of cells per radius, with
+// or without subcell averaging, and its extinction peak beside Mie theory for the same permittivity
+// model (Bohren & Huffman 1983, ch. 4; materials/mie_sphere.h). A quarter of the domain: the scene
+// is odd under x -> -x (E along x) and even under y -> -y (mirror_symmetry_validation_test).
+#pragma once
+
+#include <cmath>
+#include <cstdio>
+#include <vector>
+
+#include "base/constants.h"
+#include "geometry/shapes.h"
+#include "materials/library.h"
+#include "materials/mie_sphere.h"
+#include "solver/simulation.h"
+#include "test_scenes.h"
+
+namespace yeegap::solver::testing {
+
+struct SpherePeak {
+  double fdtd_wavelength = 0, mie_wavelength = 0;  // m
+  double fdtd_extinction = 0, mie_extinction = 0;  // m^2, at the peaks
+  long steps = 0;
+  long long mixed_cells = 0;
+  double wavelength_error() const { return fdtd_wavelength / mie_wavelength - 1; }
+  double extinction_ratio() const { return fdtd_extinction / mie_extinction; }
+};
+
+// Peak of a sampled curve refined by a parabola through the top three points.
+inline std::pair<double, double> parabolic_peak(const std::vector<double>& x, const std::vector<double>& y) {
+  std::size_t m = 1;
+  for (std::size_t i = 1; i + 1 < y.size(); ++i)
+    if (y[i] > y[m]) m = i;
+  const double y0 = y[m - 1], y1 = y[m], y2 = y[m + 1], h = x[m + 1] - x[m];
+  const double shift = 0.5 * (y0 - y2) / (y0 - 2 * y1 + y2);
+  return {x[m] + shift * h, y1 - 0.25 * (y0 - y2) * shift};
+}
+
+/// Runs the sphere at `cells_per_radius` (R / cell); the centre sits on the mirror planes and
+/// `z_offset` cells above a node along z.
+inline SpherePeak gold_sphere_peak(double cells_per_radius, bool averaging, double z_offset = 0.5) {
+  using constants::c0;
+  using constants::pi;
+  constexpr double n_water = 1.333, radius = 30e-9;
+  const double d = radius / cells_per_radius;
+  // TFSF box 10 nm (at least 4 cells) beyond the sphere; 4 cells to the absorber of 8 cells.
+  const double margin = std::max(10e-9, 4 * d);
+  const int box_cells = static_cast<int>(std::ceil((radius + margin) / d));
+  const int absorber = 8, half = box_cells + 4 + absorber;
+  Scene s = vacuum_box({half, half, 2 * half}, d, all_edges(EdgeKind::absorber));
+  s.domain.center = {half * d / 2, half * d / 2, 0};
+  s.domain.edges[0] = EdgeKind::mirror_odd;
+  s.domain.edges[2] = EdgeKind::mirror_even;
+  s.domain.absorber.cells = absorber;
+  s.domain.averaging = averaging;
+  s.materials[0].name = "water";
+  s.materials[0].poles.eps_inf = n_water * n_water;
+  const materials::PoleSet gold = materials::find_material("Au")->poles;
+  MaterialSpec au;
+  au.name = "Au";
+  au.poles = gold;
+  s.materials.push_back(au);
+  s.bodies.push_back({geometry::make_sphere({0, 0, z_offset * d}, radius), 1, {}});
+  PlaneWaveSpec w;
+  const double b = box_cells * d;
+  w.box = {{0, 0, -b}, {b, b, b}};
+  w.axis = 2;
+  w.sign = +1;
+  w.polarization = {1, 0, 0};
+  w.waveform.omega_min = 2 * pi * c0 / 750e-9;
+  w.waveform.omega_max = 2 * pi * c0 / 420e-9;
+  s.plane_waves.push_back(w);
+  CrossSectionSpec cs;
+  cs.name = "sphere";
+  std::vector<double> lambdas;
+  for (double l = 490e-9; l <= 580.1e-9; l += 2e-9) lambdas.push_back(l), cs.omegas.push_back(2 * pi * c0 / l);
+  s.cross_sections.push_back(cs);
+  s.stop.decayed = 1e-5;
+  Simulation sim(s);
+  const RunResults r = sim.run();
+  std::vector<double> mie;
+  for (double l : lambdas)
+    mie.push_back(
+        materials::mie_sphere_cross_sections(radius, l, materials::permittivity(gold, 2 * pi * c0 / l), n_water).extinction);
+  SpherePeak p;
+  std::tie(p.fdtd_wavelength, p.fdtd_extinction) = parabolic_peak(lambdas, r.cross_sections.at(0).extinction);
+  std::tie(p.mie_wavelength, p.mie_extinction) = parabolic_peak(lambdas, mie);
+  p.steps = r.summary.steps;
+  p.mixed_cells = sim.summary().mixed_cells;
+  std::printf("R/cell %5.2f, averaging %-3s: peak %.2f nm (Mie %.2f nm), error %+.3f %%, extinction %.4f of Mie, "
+              "%lld mixed locations, %ld steps\n",
+              cells_per_radius, averaging ? "on" : "off", p.fdtd_wavelength * 1e9, p.mie_wavelength * 1e9,
+              100 * p.wavelength_error(), p.extinction_ratio(), p.mixed_cells, p.steps);
+  std::fflush(stdout);
+  return p;
+}
+
+}  // namespace yeegap::solver::testing
