@@ -262,6 +262,11 @@ solver::SensorSpec read_sensor(const Node& block, solver::Scene& scene, std::map
   s.where = block.where();
   s.name = read_name(block, used);
   if (!scene.sensors.empty()) block.fail("only one sensor output per scene (it repeats the whole scan)");
+  // The excitation block is read before the outputs, so the plane wave is known here.
+  if (scene.bloch_waves.empty() || scene.bloch_waves.front().scan_angles.empty())
+    block.fail(fmt::format("a sensor output repeats an angle scan: it needs a plane_wave excitation with 'angles' "
+                           "(e.g. 'angles: {{from: 60 deg, to: 85 deg, count: 126}}') and a 'wavelength', got {}",
+                           scene.bloch_waves.empty() ? "no plane_wave" : "a plane_wave with one 'angle'"));
   const Node medium = block.require("medium");
   s.medium = material_index(medium, scene);
   const solver::MaterialSpec& m = scene.materials[static_cast<std::size_t>(s.medium)];

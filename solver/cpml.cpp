@@ -96,16 +96,22 @@ template <class Body>
 void for_each_slab_cell(const BlockLayout& L, const std::array<int, 3>& lo, const std::array<int, 3>& hi, int axis,
                         Body body) {
   const int wx = hi[0] - lo[0], wy = hi[1] - lo[1];
-#pragma omp parallel for collapse(2) schedule(static) if (parallel_worth(wx, wy, hi[2] - lo[2]))
-  for (int k = lo[2]; k < hi[2]; ++k)
-    for (int j = lo[1]; j < hi[1]; ++j) {
-      const std::size_t q0 = (static_cast<std::size_t>(k - lo[2]) * wy + (j - lo[1])) * wx;
-      const std::ptrdiff_t o0 = L.at(lo[0], j, k);
-      for (int i = 0; i < wx; ++i) {
-        const int p = axis == 0 ? lo[0] + i : (axis == 1 ? j : k);
-        body(o0 + i, p, q0 + i);
-      }
+  auto row = [&](int j, int k) {
+    const std::size_t q0 = (static_cast<std::size_t>(k - lo[2]) * wy + (j - lo[1])) * wx;
+    const std::ptrdiff_t o0 = L.at(lo[0], j, k);
+    for (int i = 0; i < wx; ++i) {
+      const int p = axis == 0 ? lo[0] + i : (axis == 1 ? j : k);
+      body(o0 + i, p, q0 + i);
     }
+  };
+  if (!parallel_worth(wx, wy, hi[2] - lo[2])) {  // no OpenMP region at all (field.h, for_each_index)
+    for (int k = lo[2]; k < hi[2]; ++k)
+      for (int j = lo[1]; j < hi[1]; ++j) row(j, k);
+    return;
+  }
+#pragma omp parallel for collapse(2) schedule(static)
+  for (int k = lo[2]; k < hi[2]; ++k)
+    for (int j = lo[1]; j < hi[1]; ++j) row(j, k);
 }
 
 }  // namespace

@@ -23,15 +23,14 @@ void DftBox::accumulate(const Fields& f, const std::vector<Complex>& phase) {
   const std::ptrdiff_t avg = average_offset_;
   Complex* acc = acc_.data();
   const Complex* ph = phase.data();
-#pragma omp parallel for schedule(static) if (parallel_worth(static_cast<long long>(nrows * ncols * nf)))
-  for (std::size_t r = 0; r < nrows; ++r) {
+  for_each_index(parallel_worth(static_cast<long long>(nrows * ncols * nf)), std::size_t{0}, nrows, [&](std::size_t r) {
     for (std::size_t c = 0; c < ncols; ++c) {
       const std::ptrdiff_t o = row_offsets_[r] + col_offsets_[c];
       const double v = avg ? 0.5 * (double(data[o]) + double(data[o + avg])) : double(data[o]);
       Complex* a = acc + (r * ncols + c) * nf;
       for (std::size_t q = 0; q < nf; ++q) a[q] += v * ph[q];
     }
-  }
+  });
 }
 
 std::vector<Complex> dft_phases(const std::vector<double>& omegas, double t, double dt) {

@@ -119,18 +119,16 @@ void DispersiveCurrents::advance(const Fields& f) {
       for (Pole& p : g.drude) {
         real* __restrict q = p.q.data();
         const Coefficient &cq = p.cq, &ce = p.ce;
-#pragma omp parallel for schedule(static) if (par)
-        for (std::size_t i = lo; i < hi; ++i) q[i] = cq.at(i) * q[i] + ce.at(i) * e[off[i]];
+        for_each_index(par, lo, hi, [&](std::size_t i) { q[i] = cq.at(i) * q[i] + ce.at(i) * e[off[i]]; });
       }
       for (Pole& p : g.lorentz) {
         real* __restrict q = p.q.data();
         real* __restrict pp = p.p.data();
         const real cq = p.cq.at(0), cp = p.cp.at(0), ce = p.ce.at(0);
-#pragma omp parallel for schedule(static) if (par)
-        for (std::size_t i = lo; i < hi; ++i) {
+        for_each_index(par, lo, hi, [&](std::size_t i) {
           q[i] = cq * q[i] + cp * pp[i] + ce * e[off[i]];
           pp[i] += q[i];
-        }
+        });
       }
       if (g.critical.empty()) continue;
       real* __restrict prev = g.e_previous.data();
@@ -139,11 +137,10 @@ void DispersiveCurrents::advance(const Fields& f) {
         real* __restrict q = p.q.data();
         const real* __restrict pp = p.p.data();
         const real cq = p.cq.at(0), cp = p.cp.at(0), ce = p.ce.at(0), cm = p.cm.at(0);
-#pragma omp parallel for schedule(static) if (par)
-        for (std::size_t i = lo; i < hi; ++i) q[i] = cq * q[i] + cp * pp[i] + ce * e[off[i]] + cm * prev[i];
+        for_each_index(par, lo, hi,
+                       [&](std::size_t i) { q[i] = cq * q[i] + cp * pp[i] + ce * e[off[i]] + cm * prev[i]; });
       }
-#pragma omp parallel for schedule(static) if (par)
-      for (std::size_t i = lo; i < hi; ++i) prev[i] = e[off[i]];  // E^n becomes next step's E^{n-1}
+      for_each_index(par, lo, hi, [&](std::size_t i) { prev[i] = e[off[i]]; });  // E^n becomes next step's E^{n-1}
     }
   }
 }
@@ -161,21 +158,19 @@ void DispersiveCurrents::correct(Fields& f) {
       const std::ptrdiff_t* __restrict off = g.offset.data();
       const std::size_t lo = g.start[c], hi = g.start[c + 1];
       const bool par = parallel_worth(static_cast<long long>(hi - lo));
-#pragma omp parallel for schedule(static) if (par)
-      for (std::size_t i = lo; i < hi; ++i) {
+      for_each_index(par, lo, hi, [&](std::size_t i) {
         real sum = 0;
         for (std::size_t k = 0; k < np; ++k) sum += cur[k][i];
         e[off[i]] -= corr * sum;
-      }
+      });
       for (Pole& p : g.critical) {
         real* __restrict q = p.q.data();
         real* __restrict pp = p.p.data();
         const real implicit = p.implicit;
-#pragma omp parallel for schedule(static) if (par)
-        for (std::size_t i = lo; i < hi; ++i) {
+        for_each_index(par, lo, hi, [&](std::size_t i) {
           q[i] += implicit * e[off[i]];
           pp[i] += q[i];
-        }
+        });
       }
     }
   }

@@ -1,10 +1,14 @@
 // Dispatch between the kinds of run (see run_scene.h).
 #include "solver/run_scene.h"
 
+#include <fmt/format.h>
+
+#include "base/errors.h"
 #include "solver/angle_scan.h"
 #include "solver/bloch_halos.h"
 #include "solver/bloch_run.h"
 #include "solver/layered_stack.h"
+#include "solver/sensor_scan.h"
 
 namespace yeegap::solver {
 
@@ -17,7 +21,57 @@ Scene reduced(const Scene& s, std::string* note) {
   return laterally_uniform(s, axis) ? as_one_dimensional(s, axis, note) : s;
 }
 
+bool is_angle_scan(const Scene& s) { return !s.bloch_waves.empty() && !s.bloch_waves.front().scan_angles.empty(); }
+
+// A sensor output needs an angle scan to repeat; the scene reader refuses it earlier with the
+// place in the file, this guards scenes built in code.
+void require_scan_for_sensors(const Scene& s) {
+  if (!s.sensors.empty() && !is_angle_scan(s))
+    throw RunError(fmt::format("{}: the sensor output '{}' needs a plane_wave with 'angles' (an angle scan)",
+                               s.sensors.front().where.file.empty() ? s.file : s.sensors.front().where.location(),
+                               s.sensors.front().name));
+}
+
+// Progress of the sensor's second scan continues the count of the first: 2 x angles in all.
+std::function<void(const Progress&)> scan_progress(const std::function<void(const Progress&)>& progress,
+                                                   const Scene& s, int scan_index) {
+  if (!progress || s.sensors.empty()) return progress;
+  const long n = static_cast<long>(s.bloch_waves.front().scan_angles.size());
+  return [progress, n, scan_index](const Progress& p) {
+    Progress q = p;
+    q.step = p.step + scan_index * n;
+    q.planned_steps = 2 * n;
+    q.eta_seconds = p.steps_per_second > 0 ? (q.planned_steps - q.step) / p.steps_per_second : -1;
+    progress(q);
+  };
+}
+
+AngleScanCurve curve_of(const RunResults& r) {
+  const ReflectanceResult& t = r.reflectance.at(0);
+  return {t.omegas.at(0), t.angles, t.reflectance};
+}
+
 }  // namespace
+
+void add_sensor_results(const Scene& scene, RunResults& results,
+                        const std::function<void(const Progress&)>& progress) {
+  if (scene.sensors.empty()) return;
+  require_scan_for_sensors(scene);
+  const AngleScanCurve reference = curve_of(results);
+  for (const SensorSpec& spec : scene.sensors) {
+    RunResults second;
+    results.sensors.push_back(run_sensor(scene, spec, reference, [&](const Scene& raised) {
+      second = run_angle_scan(raised, scan_progress(progress, scene, 1));
+      return curve_of(second);
+    }));
+    // The summary counts both scans: the run's cost is theirs together.
+    results.summary.steps += second.summary.steps;
+    results.summary.simulated_time += second.summary.simulated_time;
+    results.summary.wall_seconds += second.summary.wall_seconds;
+    results.summary.stop_reason = fmt::format("{} and its repeat with {} raised by {:g} (sensor)",
+                                              results.summary.stop_reason, results.sensors.back().medium, spec.delta_n);
+  }
+}
 
 bool is_bloch_scene(const Scene& s) { return !s.bloch_waves.empty() || needs_imaginary_part(s.domain); }
 
@@ -25,17 +79,28 @@ ModelSummary plan_scene(const Scene& scene) {
   if (!is_bloch_scene(scene)) return Simulation::plan(scene);
   std::string note;
   const Scene s = reduced(scene, &note);
-  const bool scan = !s.bloch_waves.empty() && !s.bloch_waves.front().scan_angles.empty();
-  ModelSummary m = scan ? plan_angle_scan(s) : BlochRun::plan(s);
+  require_scan_for_sensors(s);
+  ModelSummary m = is_angle_scan(s) ? plan_angle_scan(s) : BlochRun::plan(s);
   if (!note.empty()) m.mesh_notes.insert(m.mesh_notes.begin(), note);
+  if (!s.sensors.empty()) {
+    m.steps *= 2;
+    m.mesh_notes.push_back(fmt::format("sensor '{}': the scan runs twice, the second time with '{}' raised by {:g} in "
+                                       "index; steps above are for both",
+                                       s.sensors.front().name,
+                                       s.materials[static_cast<std::size_t>(s.sensors.front().medium)].name,
+                                       s.sensors.front().delta_n));
+  }
   return m;
 }
 
 RunResults run_scene(const Scene& scene, const std::function<void(const Progress&)>& progress) {
+  require_scan_for_sensors(scene);
   if (!is_bloch_scene(scene)) return Simulation(scene).run(progress);
   const Scene s = reduced(scene, nullptr);
-  if (!s.bloch_waves.empty() && !s.bloch_waves.front().scan_angles.empty()) return run_angle_scan(s, progress);
-  return BlochRun(s).run(progress);
+  if (!is_angle_scan(s)) return BlochRun(s).run(progress);
+  RunResults r = run_angle_scan(s, scan_progress(progress, s, 0));
+  add_sensor_results(s, r, progress);
+  return r;
 }
 
 }  // namespace yeegap::solver

@@ -14,7 +14,12 @@ namespace yeegap::solver {
 bool is_bloch_scene(const Scene& scene);
 /// Figures for `yeegap check`; the mesh notes say which kind of run it is.
 ModelSummary plan_scene(const Scene& scene);
-/// Builds and runs the scene to its stop rule.
+/// The figures of the scene's sensor output (if any) added to `results`, the run's own angle scan:
+/// the scan again with the sensing medium's index raised by delta_n (sensor_scan.h), its steps and
+/// time added to the summary. RunError if the scene has a sensor but no angle scan.
+void add_sensor_results(const Scene& scene, RunResults& results,
+                        const std::function<void(const Progress&)>& progress = {});
+/// Builds and runs the scene to its stop rule (an angle scan with a sensor output runs twice).
 RunResults run_scene(const Scene& scene, const std::function<void(const Progress&)>& progress = {});
 
 }  // namespace yeegap::solver

@@ -289,8 +289,7 @@ void Simulation::fill_periodic_halos(bool electric) {
       // whole grid, and index arithmetic per element made the copy cost more than the update.
       const std::ptrdiff_t sa = L.stride(a), sb = L.stride(b), sc = L.stride(c);
       const std::ptrdiff_t shift = static_cast<std::ptrdiff_t>(to - from) * sa;
-#pragma omp parallel for schedule(static) if (parallel_worth(L.n[b], L.n[c], 1))
-      for (int q = -1; q <= L.n[c]; ++q) {
+      for_each_index(parallel_worth(L.n[b], L.n[c], 1), -1, L.n[c] + 1, [&](int q) {
         const std::ptrdiff_t row = L.at(0, 0, 0) + from * sa + q * sc - sb;
         const real* src = d + row;
         real* dst = d + row + shift;
@@ -300,7 +299,7 @@ void Simulation::fill_periodic_halos(bool electric) {
         } else {
           for (int p = 0; p < len; ++p) dst[p * sb] = sign * src[p * sb];
         }
-      }
+      });
     }
   }
 }
@@ -374,8 +373,7 @@ double Simulation::field_energy() const {
   std::vector<double> eps(ecoef_.ca.size(), 0.0);
   for (std::size_t m = 0; m < scene_.materials.size(); ++m) eps[m] = constants::eps0 * scene_.materials[m].poles.eps_inf;
   std::vector<double> per_plane(L.n[2], 0.0);
-#pragma omp parallel for schedule(static) if (parallel_worth(L.n[0], L.n[1], L.n[2]))
-  for (int k = 0; k < L.n[2]; ++k) {
+  for_each_index(parallel_worth(L.n[0], L.n[1], L.n[2]), 0, L.n[2], [&](int k) {
     double s = 0;
     for (int j = 0; j < L.n[1]; ++j)
       for (int i = 0; i < L.n[0]; ++i) {
@@ -390,7 +388,7 @@ double Simulation::field_energy() const {
         s += 0.5 * v * (e + constants::mu0 * h);
       }
     per_plane[k] = s;
-  }
+  });
   double total = 0;
   for (double s : per_plane) total += s;  // fixed order: the same sum for any thread count
   return total;

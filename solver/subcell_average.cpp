@@ -139,8 +139,7 @@ void SubcellAverage::apply_group(Group& g, Fields& f) {
   for (int c = 0; c < 3; ++c) {
     real* field = f.c[c].data();
     const std::size_t lo = g.start[c], hi = g.start[c + 1];
-#pragma omp parallel for schedule(static) if (parallel_worth(static_cast<long long>(hi - lo) * 8))
-    for (std::size_t i = lo; i < hi; ++i) {
+    for_each_index(parallel_worth(static_cast<long long>(hi - lo) * 8), lo, hi, [&](std::size_t i) {
       const double fill = g.fill[i], rest = 1 - fill;
       const double dD = g.recover[i] * (field[g.offset[i]] - g.ca[i] * g.e_old[i]);
       double sum_q[3] = {0, 0, 0}, implicit[3] = {0, 0, 0};
@@ -180,7 +179,7 @@ void SubcellAverage::apply_group(Group& g, Fields& f) {
       const double share = g.share[i];
       field[g.offset[i]] =
           static_cast<real>(share * (fill * e_new[0] + rest * e_new[1]) + (1 - share) * e_new[2]);
-    }
+    });
   }
 }
 

@@ -132,14 +132,24 @@ template <class Coefficients>
 // carries over to the OpenMP body and to the inlined rows, which is where the vector width is chosen.
 void h_sweep_baseline(const HSweep& s) {
   const int ny = s.layout.n[1], nz = s.layout.n[2];
-#pragma omp parallel for collapse(2) schedule(static) if (parallel_worth(s.layout.n[0], ny, nz))
+  if (!parallel_worth(s.layout.n[0], ny, nz)) {  // no OpenMP region at all (field.h, for_each_index)
+    for (int k = 0; k < nz; ++k)
+      for (int j = 0; j < ny; ++j) h_row(s, j, k);
+    return;
+  }
+#pragma omp parallel for collapse(2) schedule(static)
   for (int k = 0; k < nz; ++k)
     for (int j = 0; j < ny; ++j) h_row(s, j, k);
 }
 
 void e_sweep_baseline(const ESweep& s) {
   const int ny = s.layout.n[1], nz = s.layout.n[2];
-#pragma omp parallel for collapse(2) schedule(static) if (parallel_worth(s.layout.n[0], ny, nz))
+  if (!parallel_worth(s.layout.n[0], ny, nz)) {  // no OpenMP region at all (field.h, for_each_index)
+    for (int k = 0; k < nz; ++k)
+      for (int j = 0; j < ny; ++j) e_row(s, j, k);
+    return;
+  }
+#pragma omp parallel for collapse(2) schedule(static)
   for (int k = 0; k < nz; ++k)
     for (int j = 0; j < ny; ++j) e_row(s, j, k);
 }
@@ -147,14 +157,24 @@ void e_sweep_baseline(const ESweep& s) {
 #if YEEGAP_AVX2_DRIVER
 YEEGAP_TARGET_AVX2 void h_sweep_avx2(const HSweep& s) {
   const int ny = s.layout.n[1], nz = s.layout.n[2];
-#pragma omp parallel for collapse(2) schedule(static) if (parallel_worth(s.layout.n[0], ny, nz))
+  if (!parallel_worth(s.layout.n[0], ny, nz)) {  // no OpenMP region at all (field.h, for_each_index)
+    for (int k = 0; k < nz; ++k)
+      for (int j = 0; j < ny; ++j) h_row(s, j, k);
+    return;
+  }
+#pragma omp parallel for collapse(2) schedule(static)
   for (int k = 0; k < nz; ++k)
     for (int j = 0; j < ny; ++j) h_row(s, j, k);
 }
 
 YEEGAP_TARGET_AVX2 void e_sweep_avx2(const ESweep& s) {
   const int ny = s.layout.n[1], nz = s.layout.n[2];
-#pragma omp parallel for collapse(2) schedule(static) if (parallel_worth(s.layout.n[0], ny, nz))
+  if (!parallel_worth(s.layout.n[0], ny, nz)) {  // no OpenMP region at all (field.h, for_each_index)
+    for (int k = 0; k < nz; ++k)
+      for (int j = 0; j < ny; ++j) e_row(s, j, k);
+    return;
+  }
+#pragma omp parallel for collapse(2) schedule(static)
   for (int k = 0; k < nz; ++k)
     for (int j = 0; j < ny; ++j) e_row(s, j, k);
 }

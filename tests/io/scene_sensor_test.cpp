@@ -20,20 +20,20 @@ materials:
   water: {index: 1.3317}
   metal: {perfect_conductor: true}
   spare: {index: 1.45}
-domain: {size: [2 nm, 2 nm, 600 nm], step: 2 nm, background: water, edges: {x: periodic, y: periodic}}
+domain: {size: [2 nm, 2 nm, 600 nm], step: 2 nm, background: water, edges: {x: bloch, y: bloch, z: absorber}}
 bodies:
   - {shape: slab, axis: z, from: -300 nm, to: 0 nm, material: glass}
   - {shape: slab, axis: z, from: 0 nm, to: 50 nm, material: gold}
   - {shape: slab, axis: z, from: 250 nm, to: 300 nm, material: metal}
 excitation:
-  - dipole: {position: [0, 0, 100 nm], direction: z, band: {from: 600 nm, to: 700 nm}}
+  - plane_wave: {from: low, polarization: p, wavelength: 633 nm, angles: {from: 60 deg, to: 85 deg, count: 26}}
 stop: {decayed: 1e-5}
 outputs:
 )";
 
-std::string failure_of(const std::string& outputs) {
+std::string failure_of(const std::string& outputs, const std::string& start = head) {
   try {
-    read_scene_text(head + outputs, "bad.yaml");
+    read_scene_text(start + outputs, "bad.yaml");
   } catch (const yeegap::SceneError& e) {
     return e.what();
   }
@@ -63,6 +63,23 @@ TEST(SceneSensor, RefusesUnknownUnusedAndConductingMediaAndBadDeltaN) {
   EXPECT_THAT(failure_of("  - sensor: {name: a, medium: water}\n  - sensor: {name: b, medium: water}\n"),
               HasSubstr("only one sensor output"));
   EXPECT_THAT(failure_of("  - sensor: {medium: water}\n"), HasSubstr("missing key 'name'"));
+}
+
+TEST(SceneSensor, RefusesASceneWithoutAnAngleScan) {
+  // The sensor repeats the plane wave's angle scan: a dipole, or a plane wave at one angle, has none.
+  std::string dipole = head, one_angle = head;
+  const std::string wave =
+      "  - plane_wave: {from: low, polarization: p, wavelength: 633 nm, angles: {from: 60 deg, to: 85 deg, count: 26}}\n";
+  dipole.replace(dipole.find(wave), wave.size(),
+                 "  - dipole: {position: [0, 0, 100 nm], direction: z, band: {from: 600 nm, to: 700 nm}}\n");
+  one_angle.replace(one_angle.find(wave), wave.size(),
+                    "  - plane_wave: {from: low, polarization: p, wavelength: 633 nm, angle: 70 deg}\n");
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: water}\n", dipole),
+              HasSubstr("bad.yaml:17:5: outputs[0].sensor: a sensor output repeats an angle scan: it needs a "
+                        "plane_wave excitation with 'angles'"));
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: water}\n", dipole), HasSubstr("got no plane_wave"));
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: water}\n", one_angle),
+              HasSubstr("got a plane_wave with one 'angle'"));
 }
 
 }  // namespace
