@@ -7,6 +7,7 @@
 #include <fmt/ranges.h>
 
 #include <algorithm>
+#include <cstring>
 #include <functional>
 #include <numeric>
 #include <stdexcept>
@@ -247,6 +248,22 @@ std::string Dataset::read_string() const {
   return buffer.substr(0, buffer.find('\0'));
 }
 
+std::vector<std::string> Dataset::read_strings() const {
+  Handle type(check_id(H5Dget_type(id()), "get the type of", path_, file_), H5Tclose);
+  if (H5Tget_class(type.get()) != H5T_STRING || H5Tis_variable_str(type.get()) > 0 || shape_.size() > 1)
+    throw std::runtime_error(fmt::format("dataset '{}' in file '{}' is not a list of fixed-length strings", path_, file_));
+  const std::size_t width = H5Tget_size(type.get()), n = size();
+  std::vector<char> buffer(n * width + 1, '\0');
+  if (n > 0)
+    check_status(H5Dread(id(), type.get(), H5S_ALL, H5S_ALL, H5P_DEFAULT, buffer.data()), "read dataset", path_, file_);
+  std::vector<std::string> out;
+  for (std::size_t i = 0; i < n; ++i) {
+    const char* text = buffer.data() + i * width;
+    out.emplace_back(text, strnlen(text, width));
+  }
+  return out;
+}
+
 std::size_t Dataset::size() const { return static_cast<std::size_t>(product(shape_)); }
 
 void Dataset::write_selection(hid_t memory_type, const void* data, std::size_t count,
@@ -340,6 +357,12 @@ bool Group::contains(const std::string& name) const {
   const htri_t exists = H5Lexists(id(), name.c_str(), H5P_DEFAULT);
   check_status(exists < 0 ? -1 : 0, "look up", child_path(name), file_);
   return exists > 0;
+}
+
+bool Group::exists(const std::string& path) const {
+  for (std::size_t slash = path.find('/', 1); slash != std::string::npos; slash = path.find('/', slash + 1))
+    if (!contains(path.substr(0, slash))) return false;
+  return contains(path);
 }
 
 Dataset Group::create(const std::string& name, hid_t file_type, std::size_t element_size, const Shape& shape,
