@@ -114,6 +114,8 @@ class Object {
   // Reading attributes back; a missing attribute or one of another kind throws, naming both.
   bool has_attribute(std::string_view name) const;
   std::string string_attribute(std::string_view name) const;
+  /// A string attribute that is scalar (a list of one) or 1-d (as written from a vector of strings).
+  std::vector<std::string> string_attributes(std::string_view name) const;
   std::int64_t int_attribute(std::string_view name) const;   // any integer attribute, scalar
   double double_attribute(std::string_view name) const;      // a floating-point attribute, scalar
 
@@ -194,6 +196,8 @@ class Group : public Object {
   /// Opens an existing dataset (its shape is read from the file).
   Dataset open_dataset(const std::string& name) const;
   bool contains(const std::string& name) const;
+  /// Names of the links in this group, in name order.
+  std::vector<std::string> members() const;
   /// Whether `path` ("a/b/c", below this group) names an object; each link on the way is checked,
   /// since HDF5 fails rather than answers when a middle one is missing.
   bool exists(const std::string& path) const;

@@ -120,6 +120,8 @@ TEST_F(H5, WhatIsWrittenReadsBackAsVectorsAndStringLists) {
       g.write("grid", std::vector<double>{1, 2, 3, 4, 5, 6}, h5::Shape{2, 3});
       g.write_strings("names", {"x", "longer name", ""});
       g.write_string("text", "one line\nand another");
+      g.set_attribute("components", std::vector<std::string>{"Ex", "Hy"});
+      g.set_attribute("kind", "field_map");
     }
     f.close();
   }
@@ -132,6 +134,10 @@ TEST_F(H5, WhatIsWrittenReadsBackAsVectorsAndStringLists) {
   EXPECT_EQ(f.open_dataset("a/b/names").read_strings(), (std::vector<std::string>{"x", "longer name", ""}));
   EXPECT_EQ(f.open_dataset("a/b/text").read_strings(), (std::vector<std::string>{"one line\nand another"}));
   EXPECT_EQ(f.open_dataset("a/b/text").read_string(), "one line\nand another");
+  const h5::Group b = f.open_group("a/b");
+  EXPECT_EQ(b.members(), (std::vector<std::string>{"grid", "names", "numbers", "text"})) << "name order";
+  EXPECT_EQ(b.string_attributes("components"), (std::vector<std::string>{"Ex", "Hy"}));
+  EXPECT_EQ(b.string_attributes("kind"), (std::vector<std::string>{"field_map"})) << "a scalar is a list of one";
   const std::string e = message_of([&] { (void)f.open_dataset("a/b/numbers").read_strings(); });
   EXPECT_NE(e.find("'/a/b/numbers'"), std::string::npos) << e;
   EXPECT_NE(e.find("not a list of fixed-length strings"), std::string::npos) << e;
