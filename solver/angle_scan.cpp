@@ -26,6 +26,32 @@ Scene one_angle(const Scene& scene, double angle) {
   return s;
 }
 
+// One table of the orders of every angle's run, row i the i-th angle (each run has one row).
+DiffractionOrdersResult merge_orders(const std::vector<DiffractionOrdersResult>& runs) {
+  DiffractionOrdersResult out = runs.front();
+  out.angle_scan = true;
+  out.omegas.clear(), out.incidence_angles.clear(), out.reflected_sum.clear(), out.transmitted_sum.clear();
+  out.row.clear(), out.side.clear(), out.order_b.clear(), out.order_c.clear();
+  out.direction.clear(), out.angle.clear(), out.efficiency.clear();
+  for (std::size_t i = 0; i < runs.size(); ++i) {
+    const DiffractionOrdersResult& r = runs[i];
+    out.omegas.push_back(r.omegas.at(0));
+    out.incidence_angles.push_back(r.incidence_angles.at(0));
+    out.reflected_sum.push_back(r.reflected_sum.at(0));
+    out.transmitted_sum.push_back(r.transmitted_sum.at(0));
+    for (std::size_t e = 0; e < r.row.size(); ++e) {
+      out.row.push_back(static_cast<int>(i));
+      out.side.push_back(r.side[e]);
+      out.order_b.push_back(r.order_b[e]);
+      out.order_c.push_back(r.order_c[e]);
+      out.direction.push_back(r.direction[e]);
+      out.angle.push_back(r.angle[e]);
+      out.efficiency.push_back(r.efficiency[e]);
+    }
+  }
+  return out;
+}
+
 }  // namespace
 
 RunResults run_angle_scan(const Scene& scene, const std::function<void(const Progress&)>& progress) {
@@ -39,6 +65,7 @@ RunResults run_angle_scan(const Scene& scene, const std::function<void(const Pro
   using clock = std::chrono::steady_clock;
   const auto start = clock::now();
   std::vector<ReflectanceResult> rows(n);
+  std::vector<DiffractionOrdersResult> orders(n);
   std::vector<long> steps(n, 0);
   RunResults first;
   std::exception_ptr failure;
@@ -49,6 +76,7 @@ RunResults run_angle_scan(const Scene& scene, const std::function<void(const Pro
       BlochRun run(one_angle(scene, angles[i]));
       RunResults r = run.run();
       rows[i] = r.reflectance.at(0);
+      if (!r.orders.empty()) orders[i] = r.orders.front();
       steps[i] = r.summary.steps;
       if (i == 0) first = std::move(r);
     } catch (...) {
@@ -90,6 +118,7 @@ RunResults run_angle_scan(const Scene& scene, const std::function<void(const Pro
     total_steps += steps[i];
   }
   out.reflectance = {table};
+  if (!scene.orders.empty()) out.orders = {merge_orders(orders)};
   out.summary.steps = total_steps;
   out.summary.wall_seconds = std::chrono::duration<double>(clock::now() - start).count();
   out.summary.simulated_time = total_steps * out.summary.time_step;
