@@ -287,6 +287,9 @@ solver::OrdersSpec read_orders(const Node& block, const solver::Scene& scene, st
     block.fail("diffraction orders need a plane wave in a Bloch cell: add an excitation '- plane_wave: {from: low, "
                "polarization: p, band: ...}'");
   if (!scene.orders.empty()) block.fail("the scene already has an orders output; one is enough (it lists every order)");
+  if (!scene.bloch_waves.front().scan_angles.empty())
+    block.fail("diffraction orders are reported for a run at one angle (a band, or one wavelength), not for an angle "
+               "scan ('angles'): run one angle per scene, or a band at a fixed angle");
   block.done();
   return o;
 }

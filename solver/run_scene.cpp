@@ -21,6 +21,10 @@ Scene reduced(const Scene& s, std::string* note) {
 
 bool is_bloch_scene(const Scene& s) { return !s.bloch_waves.empty() || needs_imaginary_part(s.domain); }
 
+Scene bloch_scene_as_run(const Scene& scene) { return reduced(scene, nullptr); }
+
+bool is_angle_scan(const Scene& s) { return !s.bloch_waves.empty() && !s.bloch_waves.front().scan_angles.empty(); }
+
 ModelSummary plan_scene(const Scene& scene) {
   if (!is_bloch_scene(scene)) return Simulation::plan(scene);
   std::string note;

@@ -14,6 +14,11 @@ namespace yeegap::solver {
 bool is_bloch_scene(const Scene& scene);
 /// Figures for `yeegap check`; the mesh notes say which kind of run it is.
 ModelSummary plan_scene(const Scene& scene);
+/// The scene as a Bloch run or angle scan runs it (a plane-wave stack reduced to one lateral cell),
+/// for a caller that builds the run itself to checkpoint it (BlochRun, AngleScan).
+Scene bloch_scene_as_run(const Scene& scene);
+/// Whether the scene is an angle scan (a plane_wave with `angles`).
+bool is_angle_scan(const Scene& scene);
 /// Builds and runs the scene to its stop rule.
 RunResults run_scene(const Scene& scene, const std::function<void(const Progress&)>& progress = {});
 

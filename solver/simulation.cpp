@@ -53,6 +53,7 @@ void check_scene(const Scene& s, const Grid& g) {
                                    "xyz"[a], g.n[a], s.domain.absorber.cells));
   }
   if (s.materials.empty()) throw RunError(s.file + ": no materials");
+  for (const PlaneWaveSpec& p : s.plane_waves) check_plane_wave_box(p, s, g);
   // Poles resolved by the time step and the Courant bound tightened by the explicit poles.
   check_dispersive_stability(s, choose_time_step(s, g), g.courant_limit());
 }

@@ -54,6 +54,8 @@ TEST(SceneOrders, RefusesOrdersWithoutAPlaneWaveOtherKeysAndASecondOne) {
   EXPECT_THAT(failure_of(head + wave + "outputs:\n  - orders: {}\n"), HasSubstr("missing key 'name'"));
   EXPECT_THAT(failure_of(head + wave + "outputs:\n  - orders: {name: a}\n  - orders: {name: b}\n"),
               HasSubstr("already has an orders output"));
+  const std::string scan = "excitation:\n  - plane_wave: {polarization: p, wavelength: 633 nm, angles: [10 deg, 20 deg]}\n";
+  EXPECT_THAT(failure_of(head + scan + "outputs:\n  - orders: {name: grating}\n"), HasSubstr("not for an angle scan"));
 }
 
 }  // namespace
