@@ -217,6 +217,15 @@ void write_csv_table(const std::string& path, const SweepPlan& plan, const std::
 
 }  // namespace
 
+bool is_sweep_table(const std::string& path) {
+  try {
+    const h5::File f = h5::File::open(path);
+    return f.has_attribute("format") && f.string_attribute("format") == sweep_table_format;
+  } catch (const std::exception&) {
+    return false;
+  }
+}
+
 void write_sweep_table(const std::string& h5_path, const std::string& csv_path, const SweepPlan& plan,
                        const std::vector<PointRecord>& records, const std::vector<std::string>& point_files,
                        const std::string& scene_file, const std::string& scene_text) {

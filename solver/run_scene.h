@@ -12,7 +12,8 @@ namespace yeegap::solver {
 
 /// Whether the scene runs as a Bloch run (a plane_wave, or a non-zero Bloch wavevector).
 bool is_bloch_scene(const Scene& scene);
-/// Figures for `yeegap check`; the mesh notes say which kind of run it is.
+/// Figures for `yeegap check`; the mesh notes say which kind of run it is. Throws RunError for
+/// anything the run would refuse at its start (placements included, up to 1e8 cells).
 ModelSummary plan_scene(const Scene& scene);
 /// The scene as a Bloch run or angle scan runs it (a plane-wave stack reduced to one lateral cell),
 /// for a caller that builds the run itself to checkpoint it (BlochRun, AngleScan).

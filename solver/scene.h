@@ -239,6 +239,14 @@ struct StopSpec {
   long max_steps = 10'000'000;    // hard cap
 };
 
+/// A file the scene reads besides itself (an n,k table, an STL mesh) and a hash of its bytes as they
+/// were read, so that a checkpoint can refuse to resume once the file has changed.
+struct InputFile {
+  std::string path;               // as opened: relative to the working directory, or absolute
+  std::string key_path;           // the scene key that names it, e.g. "materials.gold.table"
+  std::uint64_t content_hash = 0; // FNV-1a 64 of the bytes (io/file_hash.h)
+};
+
 struct Scene {
   int version = 1;
   std::string title;
@@ -259,6 +267,7 @@ struct Scene {
   std::vector<DecayRateSpec> decay_rates;
   std::vector<OrdersSpec> orders;  // at most one; needs a plane_wave
   StopSpec stop;
+  std::vector<InputFile> input_files;  // in reading order
 };
 
 }  // namespace yeegap::solver

@@ -119,6 +119,14 @@ rm "$work/cyl_sweep/point_0001.h5"
 expect rerun_missing_point 0 "2 already finished, 1 to run" -- "$yeegap" sweep "$work/cyl.yaml"
 cmp -s "$work/first.csv" "$work/cyl_sweep/sweep.csv" && ok || fail "table changed after rerunning point 1"
 
+# --merge-only --plot runs nothing and draws the heat map of the extinction over radius and wavelength.
+expect merge_only_plot 0 "sweep_cyl_extinction.png" -- "$yeegap" sweep "$work/cyl.yaml" --merge-only --plot
+py heat_map_written '
+import matplotlib.image
+image = matplotlib.image.imread("cyl_sweep/sweep_cyl_extinction.png")
+assert image.shape[:2] == (560, 700), image.shape
+'
+
 # Two points at a time, one thread each: the same numbers (results never depend on threads).
 expect jobs_two 0 "2 at a time" -- "$yeegap" sweep "$work/cyl.yaml" --jobs 2 -o "$work/two"
 cmp -s "$work/first.csv" "$work/two/sweep.csv" && ok || fail "--jobs 2 gave another table"
