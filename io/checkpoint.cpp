@@ -18,7 +18,6 @@
 #include "io/atomic_file.h"
 #include "io/file_hash.h"
 #include "io/h5.h"
-#include "io/h5_read.h"
 
 namespace yeegap::io {
 
@@ -149,8 +148,8 @@ void check_inputs(const h5::File& f, const solver::Scene& scene, const Refusal& 
     refuse(fmt::format("the scene read {} other files (tables, meshes) when the run started, {} now", count,
                        here.size()));
   if (count == 0) return;
-  const std::vector<std::string> hashes = h5::read_strings(f, "/inputs/content_hashes");
-  const std::vector<std::string> paths = h5::read_strings(f, "/inputs/paths");
+  const std::vector<std::string> hashes = f.open_dataset("inputs/content_hashes").read_strings();
+  const std::vector<std::string> paths = f.open_dataset("inputs/paths").read_strings();
   if (hashes.size() != here.size() || paths.size() != here.size())
     refuse("its list of the files the scene reads is damaged");
   for (std::size_t i = 0; i < here.size(); ++i)
@@ -215,15 +214,8 @@ solver::StateCounters read_counters(const h5::File& f, const Refusal& refuse) {
   return {.step = static_cast<long>(step[0]), .peak_energy = energy[0], .last_energy = energy[1], .wall_seconds = wall[0]};
 }
 
-/// Whether `path` ("a/b/c") exists below `g`, each level checked (HDF5 fails on a missing middle).
-bool exists(const h5::Group& g, const std::string& path) {
-  for (std::size_t slash = path.find('/'); slash != std::string::npos; slash = path.find('/', slash + 1))
-    if (!g.contains(path.substr(0, slash))) return false;
-  return g.contains(path);
-}
-
 void read_array(const h5::Group& state, const StateArray& a, const Refusal& refuse) {
-  if (!exists(state, a.name)) refuse(fmt::format("it has no state array '{}', which this run needs", a.name));
+  if (!state.exists(a.name)) refuse(fmt::format("it has no state array '{}', which this run needs", a.name));
   const h5::Dataset d = state.open_dataset(a.name);
   const bool complex = a.type == StateArray::Type::c128;
   const bool type_ok = a.type == StateArray::Type::f32 ? d.stores<float>() : d.stores<double>();

@@ -38,13 +38,13 @@ excitation:
 outputs:
   - flux: {name: behind, plane: {axis: z, at: 100 nm}, frequencies: [550 nm, 700 nm]}
   - probe: {name: film, position: [0, 0, -30 nm], components: [Ex, Ez]}
-stop: {after: 600 fs}
+stop: {after: 400 fs}
 EOF2
 cat > scan.yaml <<EOF2
 $stack
 excitation:
   - plane_wave: {from: low, polarization: p, wavelength: 633 nm, angles: {from: 30 deg, to: 60 deg, count: 8}}
-stop: {after: 150 fs}
+stop: {after: 120 fs}
 EOF2
 
 cpu_ticks() { awk '{print $14 + $15}' "/proc/$1/stat" 2>/dev/null; }
@@ -94,9 +94,9 @@ EOF2
   "$py" "$here/same_results.py" "$name.whole.h5" "$name.h5" "$reason" "$min_steps" || fail "$name: results differ"
 }
 
-check band time 30000
+check band time 20000
 # What the stopped scan kept is in the resume message: some angles finished, not all.
-check scan "angle scan (8 runs)" 50000
+check scan "angle scan (8 runs)" 40000
 grep -Eq "resuming from scan.checkpoint.h5 at [1-7] of 8 angles finished" scan.resumed.log ||
   fail "scan: the stopped run should have kept some but not all angles: $(cat scan.resumed.log)"
 grep -q "resuming from band.checkpoint.h5 at step [1-9]" band.resumed.log || fail "band: resume message"

@@ -26,6 +26,7 @@
 #include "io/sweep_table.h"
 #include "json.h"
 #include "progress.h"
+#include "solver/run_scene.h"
 #include "solver/simulation.h"
 #include "sweep_batch.h"
 #include "viewer_outputs.h"
@@ -88,12 +89,12 @@ double run_point(const Point& p, const io::SweepPlan& plan, const SweepOptions& 
   omp_set_num_threads(threads);
   const std::string started = now_iso8601();
   const auto start = std::chrono::steady_clock::now();
-  solver::Simulation sim(p.scene);
   solver::RunResults results;
   {
     std::optional<ProgressLine> progress;
     if (show_progress) progress.emplace();
-    results = sim.run([&](const solver::Progress& pr) {
+    // Any kind of run: a plain Simulation, a Bloch run or an angle scan (a plane_wave scene).
+    results = solver::run_scene(p.scene, [&](const solver::Progress& pr) {
       if (progress) progress->update(pr);
     });
   }

@@ -66,7 +66,7 @@ def spectra_of(path):
             kind = text(g.attrs.get("kind", b""))
             if kind == "cross_sections":
                 per_length = bool(g.attrs.get("per_unit_length", 0))
-                scale, unit = (1e9, "nm per unit length") if per_length else (1e18, "nm²")
+                scale, unit = (1e9, "nm, per unit length") if per_length else (1e18, "nm²")
                 out[(name, "extinction")] = (g["wavelength_nm"][...], "wavelength (nm)", g["extinction"][...] * scale, unit)
             elif kind == "reflectance":
                 scan = bool(g.attrs.get("angle_scan", 0))
