@@ -34,6 +34,9 @@ AngleScan::AngleScan(const Scene& scene) : scene_(scene) {
   YG_CHECK(scene.bloch_waves.size() == 1 && !scene.bloch_waves.front().scan_angles.empty(),
            "an angle scan needs one plane_wave with angles");
   angles_ = scene.bloch_waves.front().scan_angles;
+  if (!scene.orders.empty())
+    throw RunError(fmt::format("{}: diffraction orders are reported for a run at one angle (a band, or one "
+                               "wavelength), not for an angle scan", scene.orders.front().where.location()));
   // Refuse what cannot run before any thread starts: every angle's scene is prepared here.
   for (double a : angles_) (void)BlochRun::prepare(one_angle(scene, a));
   const Scene first = BlochRun::prepare(one_angle(scene, angles_.front()));

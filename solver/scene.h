@@ -175,6 +175,14 @@ struct FluxSpec {
 /// scattering from the flux of the scattered field out of a box just outside the TFSF box,
 /// absorption from the net flux of the total field into a box just inside it, both over the
 /// incident intensity. Per unit length when the domain has an invariant axis (2D).
+/// Power in each propagating diffraction order of a plane_wave's Bloch cell, in reflection and
+/// transmission (solver/diffraction_orders.h): taken on the run's reflected and transmitted planes
+/// at the plane wave's frequencies, so it needs a plane_wave and nothing else.
+struct OrdersSpec {
+  std::string name;
+  Where where;
+};
+
 struct CrossSectionSpec {
   std::string name;
   FrequencyList omegas;
@@ -257,6 +265,7 @@ struct Scene {
   std::vector<TunnellingSpec> tunnelling;  // at most one
   std::vector<FarFieldSpec> far_fields;
   std::vector<DecayRateSpec> decay_rates;
+  std::vector<OrdersSpec> orders;  // at most one; needs a plane_wave
   StopSpec stop;
   std::vector<InputFile> input_files;  // in reading order
 };
