@@ -21,8 +21,6 @@ Scene reduced(const Scene& s, std::string* note) {
   return laterally_uniform(s, axis) ? as_one_dimensional(s, axis, note) : s;
 }
 
-bool is_angle_scan(const Scene& s) { return !s.bloch_waves.empty() && !s.bloch_waves.front().scan_angles.empty(); }
-
 // A sensor output needs an angle scan to repeat; the scene reader refuses it earlier with the
 // place in the file, this guards scenes built in code.
 void require_scan_for_sensors(const Scene& s) {
@@ -75,8 +73,18 @@ void add_sensor_results(const Scene& scene, RunResults& results,
 
 bool is_bloch_scene(const Scene& s) { return !s.bloch_waves.empty() || needs_imaginary_part(s.domain); }
 
+Scene bloch_scene_as_run(const Scene& scene) { return reduced(scene, nullptr); }
+
+bool is_angle_scan(const Scene& s) { return !s.bloch_waves.empty() && !s.bloch_waves.front().scan_angles.empty(); }
+
 ModelSummary plan_scene(const Scene& scene) {
-  if (!is_bloch_scene(scene)) return Simulation::plan(scene);
+  if (!is_bloch_scene(scene)) {
+    ModelSummary m = Simulation::plan(scene);
+    // Above this the material map alone takes 100 MB: the run checks placements at its start.
+    constexpr long long placement_check_cells = 100'000'000;
+    if (m.cell_count <= placement_check_cells) Simulation::check_placements(scene);
+    return m;
+  }
   std::string note;
   const Scene s = reduced(scene, &note);
   require_scan_for_sensors(s);
