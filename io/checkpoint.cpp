@@ -16,6 +16,7 @@
 
 #include "base/errors.h"
 #include "io/atomic_file.h"
+#include "io/file_hash.h"
 #include "io/h5.h"
 
 namespace yeegap::io {
@@ -90,6 +91,21 @@ void write_layout(const h5::File& f, solver::Checkpointable& sim, const solver::
     g.write_string("text", scene.text);
     g.write_string("overrides", joined(info.overrides));
   }
+  {  // the files the scene reads besides itself, with their hashes
+    const h5::Group g = f.create_group("inputs");
+    g.set_attribute("count", static_cast<std::int64_t>(scene.input_files.size()));
+    if (!scene.input_files.empty()) {
+      std::vector<std::string> paths, keys, hashes;
+      for (const solver::InputFile& in : scene.input_files) {
+        paths.push_back(in.path);
+        keys.push_back(in.key_path);
+        hashes.push_back(hash_text(in.content_hash));
+      }
+      g.write_strings("paths", paths);
+      g.write_strings("key_paths", keys);
+      g.write_strings("content_hashes", hashes);
+    }
+  }
   {
     const h5::Group g = f.create_group("grid");
     g.write("x", sim.grid().nodes[0]);
@@ -120,6 +136,29 @@ struct Refusal {
   }
 };
 
+/// The files the scene reads (tables, meshes) must hold the bytes they held when the run started:
+/// the same scene text with an edited table would otherwise resume a different model. Compared in
+/// reading order, so a scene given by another path (another working directory) still matches.
+void check_inputs(const h5::File& f, const solver::Scene& scene, const Refusal& refuse) {
+  const auto& here = scene.input_files;
+  if (!f.contains("inputs"))
+    refuse("it records no hashes of the files the scene reads (written by an older version)");
+  const auto count = f.open_group("inputs").int_attribute("count");
+  if (count != static_cast<std::int64_t>(here.size()))
+    refuse(fmt::format("the scene read {} other files (tables, meshes) when the run started, {} now", count,
+                       here.size()));
+  if (count == 0) return;
+  const std::vector<std::string> hashes = f.open_dataset("inputs/content_hashes").read_strings();
+  const std::vector<std::string> paths = f.open_dataset("inputs/paths").read_strings();
+  if (hashes.size() != here.size() || paths.size() != here.size())
+    refuse("its list of the files the scene reads is damaged");
+  for (std::size_t i = 0; i < here.size(); ++i)
+    if (hashes[i] != hash_text(here[i].content_hash))
+      refuse(fmt::format("the file '{}' ({}) has changed since the run started ({} then, {} now): resume with the "
+                         "file as it was, or start the run again without --resume",
+                         here[i].path, here[i].key_path, hashes[i], hash_text(here[i].content_hash)));
+}
+
 void check_identity(const h5::File& f, const solver::Checkpointable& sim, const solver::Scene& scene,
                     const CheckpointInfo& info, const Refusal& refuse) {
   if (!f.has_attribute("format") || f.string_attribute("format") != checkpoint_format)
@@ -140,6 +179,7 @@ void check_identity(const h5::File& f, const solver::Checkpointable& sim, const 
   if (overrides != joined(info.overrides))
     refuse(fmt::format("the --set overrides differ ({}): resume with the same ones",
                        first_difference(overrides, joined(info.overrides))));
+  check_inputs(f, scene, refuse);
   const h5::Group g = f.open_group("grid");
   for (int a = 0; a < 3; ++a) {
     const std::vector<double>& here = sim.grid().nodes[a];
@@ -174,15 +214,8 @@ solver::StateCounters read_counters(const h5::File& f, const Refusal& refuse) {
   return {.step = static_cast<long>(step[0]), .peak_energy = energy[0], .last_energy = energy[1], .wall_seconds = wall[0]};
 }
 
-/// Whether `path` ("a/b/c") exists below `g`, each level checked (HDF5 fails on a missing middle).
-bool exists(const h5::Group& g, const std::string& path) {
-  for (std::size_t slash = path.find('/'); slash != std::string::npos; slash = path.find('/', slash + 1))
-    if (!g.contains(path.substr(0, slash))) return false;
-  return g.contains(path);
-}
-
 void read_array(const h5::Group& state, const StateArray& a, const Refusal& refuse) {
-  if (!exists(state, a.name)) refuse(fmt::format("it has no state array '{}', which this run needs", a.name));
+  if (!state.exists(a.name)) refuse(fmt::format("it has no state array '{}', which this run needs", a.name));
   const h5::Dataset d = state.open_dataset(a.name);
   const bool complex = a.type == StateArray::Type::c128;
   const bool type_ok = a.type == StateArray::Type::f32 ? d.stores<float>() : d.stores<double>();

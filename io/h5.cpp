@@ -7,6 +7,7 @@
 #include <fmt/ranges.h>
 
 #include <algorithm>
+#include <cstring>
 #include <functional>
 #include <numeric>
 #include <stdexcept>
@@ -205,6 +206,28 @@ std::string Object::string_attribute(std::string_view name) const {
   return buffer.substr(0, buffer.find('\0'));
 }
 
+std::vector<std::string> Object::string_attributes(std::string_view name) const {
+  const std::string where = fmt::format("{}@{}", path_, name);
+  const std::string key(name);
+  if (!has_attribute(name)) throw std::runtime_error(fmt::format("file '{}' has no attribute '{}'", file_, where));
+  Handle attribute(check_id(H5Aopen(id(), key.c_str(), H5P_DEFAULT), "open attribute", where, file_), H5Aclose);
+  Handle type(check_id(H5Aget_type(attribute.get()), "get the type of attribute", where, file_), H5Tclose);
+  Handle space(check_id(H5Aget_space(attribute.get()), "get the dataspace of attribute", where, file_), H5Sclose);
+  if (H5Tget_class(type.get()) != H5T_STRING || H5Tis_variable_str(type.get()) > 0 ||
+      H5Sget_simple_extent_ndims(space.get()) > 1)
+    throw std::runtime_error(fmt::format("attribute '{}' in file '{}' is not a list of fixed-length strings", where, file_));
+  const std::size_t width = H5Tget_size(type.get());
+  const hssize_t n = H5Sget_simple_extent_npoints(space.get());
+  std::vector<char> buffer(static_cast<std::size_t>(std::max<hssize_t>(n, 0)) * width + 1, '\0');
+  if (n > 0) check_status(H5Aread(attribute.get(), type.get(), buffer.data()), "read attribute", where, file_);
+  std::vector<std::string> out;
+  for (hssize_t i = 0; i < n; ++i) {
+    const char* text = buffer.data() + i * width;
+    out.emplace_back(text, strnlen(text, width));
+  }
+  return out;
+}
+
 std::int64_t Object::int_attribute(std::string_view name) const {
   Handle attribute = open_scalar_attribute(id(), name, H5T_INTEGER, "integer", path_, file_);
   std::int64_t value = 0;
@@ -245,6 +268,22 @@ std::string Dataset::read_string() const {
   std::string buffer(H5Tget_size(type.get()), '\0');
   check_status(H5Dread(id(), type.get(), H5S_ALL, H5S_ALL, H5P_DEFAULT, buffer.data()), "read dataset", path_, file_);
   return buffer.substr(0, buffer.find('\0'));
+}
+
+std::vector<std::string> Dataset::read_strings() const {
+  Handle type(check_id(H5Dget_type(id()), "get the type of", path_, file_), H5Tclose);
+  if (H5Tget_class(type.get()) != H5T_STRING || H5Tis_variable_str(type.get()) > 0 || shape_.size() > 1)
+    throw std::runtime_error(fmt::format("dataset '{}' in file '{}' is not a list of fixed-length strings", path_, file_));
+  const std::size_t width = H5Tget_size(type.get()), n = size();
+  std::vector<char> buffer(n * width + 1, '\0');
+  if (n > 0)
+    check_status(H5Dread(id(), type.get(), H5S_ALL, H5S_ALL, H5P_DEFAULT, buffer.data()), "read dataset", path_, file_);
+  std::vector<std::string> out;
+  for (std::size_t i = 0; i < n; ++i) {
+    const char* text = buffer.data() + i * width;
+    out.emplace_back(text, strnlen(text, width));
+  }
+  return out;
 }
 
 std::size_t Dataset::size() const { return static_cast<std::size_t>(product(shape_)); }
@@ -340,6 +379,23 @@ bool Group::contains(const std::string& name) const {
   const htri_t exists = H5Lexists(id(), name.c_str(), H5P_DEFAULT);
   check_status(exists < 0 ? -1 : 0, "look up", child_path(name), file_);
   return exists > 0;
+}
+
+std::vector<std::string> Group::members() const {
+  std::vector<std::string> names;
+  const auto add = [](hid_t, const char* name, const H5L_info_t*, void* out) -> herr_t {
+    static_cast<std::vector<std::string>*>(out)->emplace_back(name);
+    return 0;
+  };
+  hsize_t index = 0;
+  check_status(H5Literate(id(), H5_INDEX_NAME, H5_ITER_INC, &index, add, &names), "list the members of", path_, file_);
+  return names;
+}
+
+bool Group::exists(const std::string& path) const {
+  for (std::size_t slash = path.find('/', 1); slash != std::string::npos; slash = path.find('/', slash + 1))
+    if (!contains(path.substr(0, slash))) return false;
+  return contains(path);
 }
 
 Dataset Group::create(const std::string& name, hid_t file_type, std::size_t element_size, const Shape& shape,

@@ -2,7 +2,8 @@
 // HDF5): files, groups, N-d datasets of double/float/int32/int64/uint8 with optional chunking and
 // deflate, complex arrays as a pair of real datasets <name>_re/<name>_im, and string attributes
 // stored as fixed-length ASCII (ParaView 5.11 rejects variable-length UTF-8 strings).
-// Reading is the small part needed to read back what we wrote (checkpoints, sidecars).
+// Reading is the small part needed to read back what we wrote (checkpoints, sidecars, the sweep
+// merge reading each point's record): whole datasets of numbers or fixed-length strings.
 // Every HDF5 failure throws std::runtime_error naming the file and the object, carrying HDF5's own
 // innermost message; HDF5's automatic printing of its error stack is switched off.
 #pragma once
@@ -113,6 +114,8 @@ class Object {
   // Reading attributes back; a missing attribute or one of another kind throws, naming both.
   bool has_attribute(std::string_view name) const;
   std::string string_attribute(std::string_view name) const;
+  /// A string attribute that is scalar (a list of one) or 1-d (as written from a vector of strings).
+  std::vector<std::string> string_attributes(std::string_view name) const;
   std::int64_t int_attribute(std::string_view name) const;   // any integer attribute, scalar
   double double_attribute(std::string_view name) const;      // a floating-point attribute, scalar
 
@@ -154,8 +157,18 @@ class Dataset : public Object {
   void read(std::span<T> data) const {
     read_all(detail::Native<T>::memory(), data.data(), data.size());
   }
+  /// The whole dataset as a vector (C order, any shape); HDF5 converts to T if needed.
+  template <class T>
+  std::vector<T> read_vector() const {
+    std::vector<T> values(size());
+    read(std::span<T>(values));
+    return values;
+  }
   /// The text of a scalar string dataset (as written by Group::write_string).
   std::string read_string() const;
+  /// A 1-d dataset of fixed-length strings (Group::write_strings), or a scalar one as a list of
+  /// one; the NUL padding removed.
+  std::vector<std::string> read_strings() const;
 
  private:
   friend class Group;
@@ -183,6 +196,11 @@ class Group : public Object {
   /// Opens an existing dataset (its shape is read from the file).
   Dataset open_dataset(const std::string& name) const;
   bool contains(const std::string& name) const;
+  /// Names of the links in this group, in name order.
+  std::vector<std::string> members() const;
+  /// Whether `path` ("a/b/c", below this group) names an object; each link on the way is checked,
+  /// since HDF5 fails rather than answers when a middle one is missing.
+  bool exists(const std::string& path) const;
 
   /// Creates a dataset of element type T, to be filled with Dataset::write or write_slab.
   template <class T>

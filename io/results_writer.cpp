@@ -323,6 +323,48 @@ void write_reflectance(const h5::Group& outputs, const solver::ReflectanceResult
   with_units(g.write("absorptance", x.absorptance), "1").set_attribute("description", "1 - reflectance - transmittance");
 }
 
+void write_orders(const h5::Group& outputs, const solver::DiffractionOrdersResult& x) {
+  check_output_name(outputs, x.name);
+  const std::size_t rows = x.omegas.size(), n = x.row.size();
+  require(x.incidence_angles.size() == rows && x.reflected_sum.size() == rows && x.transmitted_sum.size() == rows &&
+              x.side.size() == n && x.order_b.size() == n && x.order_c.size() == n && x.direction.size() == n &&
+              x.angle.size() == n && x.efficiency.size() == n,
+          fmt::format("orders '{}' have arrays that do not match its {} rows and {} orders", x.name, rows, n));
+  const h5::Group g = outputs.create_group(x.name);
+  g.set_attribute("kind", "orders");
+  g.set_attribute("angle_scan", std::int32_t{x.angle_scan ? 1 : 0});
+  const int b = (x.axis + 1) % 3, c = (x.axis + 2) % 3;
+  const char* axes = "xyz";
+  g.set_attribute("axis", std::string(1, axes[x.axis]));
+  g.set_attribute("lateral_axes", std::vector<std::string>{std::string(1, axes[b]), std::string(1, axes[c])});
+  g.set_attribute("period", std::vector<double>{x.diffracting[0] ? x.period[0] : 0.0, x.diffracting[1] ? x.period[1] : 0.0});
+  g.set_attribute("incident_index", x.incident_index);
+  g.set_attribute("transmitted_index", x.transmitted_index);
+  write_frequency_axes(g, x.omegas);
+  with_units(g.write("incidence_angle", x.incidence_angles), "rad")
+      .set_attribute("description", "angle of incidence of each row, as in the reflectance table");
+  with_units(g.write("reflected_sum", x.reflected_sum), "1")
+      .set_attribute("description", "sum of the reflected orders' efficiencies of each row");
+  with_units(g.write("transmitted_sum", x.transmitted_sum), "1")
+      .set_attribute("description", "sum of the transmitted orders' efficiencies of each row");
+  std::vector<std::int32_t> row(x.row.begin(), x.row.end()), side(x.side.begin(), x.side.end());
+  std::vector<std::int32_t> order(2 * n);
+  std::vector<double> direction(3 * n), deg(n);
+  for (std::size_t i = 0; i < n; ++i) {
+    order[2 * i] = x.order_b[i], order[2 * i + 1] = x.order_c[i];
+    for (int a = 0; a < 3; ++a) direction[3 * i + a] = x.direction[i][a];
+    deg[i] = x.angle[i] * 180 / constants::pi;
+  }
+  with_units(g.write("row", row), "1").set_attribute("description", "the row (frequency or scan angle) of each order");
+  with_units(g.write("side", side), "1").set_attribute("description", "-1 reflected, +1 transmitted");
+  with_units(g.write("order", order, {n, 2}), "1").set_attribute("description", "order number along the lateral axes");
+  with_units(g.write("direction", direction, {n, 3}), "1")
+      .set_attribute("description", "unit vector of travel (x, y, z), away from the structure");
+  with_units(g.write("angle", x.angle), "rad").set_attribute("description", "polar angle of travel from the axis");
+  with_units(g.write("angle_deg", deg), "deg").set_attribute("description", "the same in degrees");
+  with_units(g.write("efficiency", x.efficiency), "1").set_attribute("description", "order power over incident power");
+}
+
 void write_cross_sections(const h5::Group& outputs, const solver::CrossSectionResult& x) {
   check_output_name(outputs, x.name);
   const std::size_t n = x.omegas.size();
@@ -463,6 +505,7 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   for (const auto& x : r.far_fields) write_far_field(outputs, x);
   for (const auto& x : r.decay_rates) write_decay_rate(outputs, x);
   for (const auto& x : r.reflectance) write_reflectance(outputs, x);
+  for (const auto& x : r.orders) write_orders(outputs, x);
 }
 
 }  // namespace

@@ -23,10 +23,10 @@ void read_scene_block(const Node& block, solver::Scene& scene);
 /// here, and the fit's error goes to `notes`.
 void read_materials(const Node& block, solver::Scene& scene, const NoteSink& notes);
 /// The model of a material `block` holding `table: FILE` (scene_table.cpp): the file, relative to
-/// `scene_file`, fitted with poles. `model_keys` are the material keys, all refused beside `table`
-/// except the pole counts `poles` and `drude`.
+/// the scene file, fitted with poles, and recorded with its hash in scene.input_files. `model_keys`
+/// are the material keys, all refused beside `table` except the pole counts `poles` and `drude`.
 materials::PoleSet read_table_material(const Node& block, const std::vector<std::string>& model_keys,
-                                       const std::string& scene_file, const NoteSink& notes);
+                                       solver::Scene& scene, const NoteSink& notes);
 /// Index into scene.materials of the material named by `ref`; the built-in vacuum is added on first
 /// use. An unknown name is an error suggesting the closest defined one.
 int material_index(const Node& ref, solver::Scene& scene);

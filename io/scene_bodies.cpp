@@ -11,6 +11,7 @@
 #include "geometry/cone.h"
 #include "geometry/ellipsoid.h"
 #include "geometry/mesh_shape.h"
+#include "io/file_hash.h"
 #include "geometry/periodic_array.h"
 #include "geometry/prism.h"
 #include "geometry/rounded_box.h"
@@ -76,7 +77,7 @@ std::vector<geometry::Point2> read_outline(const Node& v) {
   return out;
 }
 
-geometry::ShapePtr read_mesh(const Node& item, const solver::Scene& scene) {
+geometry::ShapePtr read_mesh(const Node& item, solver::Scene& scene) {
   const Node file = item.require("file");
   const std::string name = read_text(file);
   const Node unit = item.require("unit");
@@ -86,10 +87,13 @@ geometry::ShapePtr read_mesh(const Node& item, const solver::Scene& scene) {
   // A relative path is relative to the scene file, so a scene and its meshes move together.
   std::filesystem::path path(name);
   if (path.is_relative()) path = std::filesystem::path(scene.file).parent_path() / path;
-  return geometry::load_mesh_shape(path.string(), metres, file.where());
+  geometry::ShapePtr shape = geometry::load_mesh_shape(path.string(), metres, file.where());
+  // A checkpoint refuses to resume once the mesh has changed (io/checkpoint.h).
+  scene.input_files.push_back({path.string(), file.path(), file_hash(path.string())});
+  return shape;
 }
 
-geometry::ShapePtr read_shape(const std::string& shape, const Node& item, const solver::Scene& scene) {
+geometry::ShapePtr read_shape(const std::string& shape, const Node& item, solver::Scene& scene) {
   if (shape == "sphere")
     return geometry::make_sphere(read_position(item.require("center")), read_positive_length(item.require("radius")));
   if (shape == "box") {
@@ -216,7 +220,7 @@ geometry::ShapePtr apply_array(geometry::ShapePtr body, const Node& v) {
 }
 
 /// A shape with its `move` and `turn` (turns first, about the shape's own centre by default).
-geometry::ShapePtr read_placed_shape(const std::string& shape, const Node& item, const solver::Scene& scene,
+geometry::ShapePtr read_placed_shape(const std::string& shape, const Node& item, solver::Scene& scene,
                                      geometry::ShapePtr cut) {
   geometry::ShapePtr body = read_shape(shape, item, scene);
   if (cut) body = geometry::make_difference(body, cut);
@@ -226,7 +230,7 @@ geometry::ShapePtr read_placed_shape(const std::string& shape, const Node& item,
 }
 
 /// `minus`: one shape block or a list of them (each with optional move/turn), cut from the body.
-geometry::ShapePtr read_cuts(const Node& v, const solver::Scene& scene) {
+geometry::ShapePtr read_cuts(const Node& v, solver::Scene& scene) {
   std::vector<geometry::ShapePtr> cuts;
   for (const Node& c : v.items_or_single()) {
     const std::string shape = check_keys(c, {"shape"}, cut_keys);

@@ -106,7 +106,7 @@ void read_library_material(const Node& block, const std::vector<std::string>& ke
   m.library = entry->name;  // the entry's own spelling, for the range check after the excitation
 }
 
-solver::MaterialSpec read_material(const std::string& name, const Node& block, const std::string& scene_file,
+solver::MaterialSpec read_material(const std::string& name, const Node& block, solver::Scene& scene,
                                    const NoteSink& notes) {
   const std::vector<std::string> keys = {"index", "permittivity", "conductivity", "perfect_conductor", "poles",
                                          "library", "table", "drude"};
@@ -132,7 +132,7 @@ solver::MaterialSpec read_material(const std::string& name, const Node& block, c
     return m;
   }
   if (block.has("table")) {
-    m.poles = read_table_material(block, keys, scene_file, notes);
+    m.poles = read_table_material(block, keys, scene, notes);
     block.done();
     return m;
   }
@@ -172,7 +172,7 @@ void read_materials(const Node& block, solver::Scene& scene, const NoteSink& not
     if (!valid_name(name))
       body.fail(fmt::format("'{}' is not a usable material name: start with a letter, then letters, digits, "
                             "'_' or '-'", name));
-    scene.materials.push_back(read_material(name, body, scene.file, notes));
+    scene.materials.push_back(read_material(name, body, scene, notes));
   }
 }
 

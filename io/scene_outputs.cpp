@@ -1,7 +1,8 @@
 // The `outputs` list: what a run records. Each item is one recorder with a unique name: a probe
 // (time series at a point), a field_map (frequency-domain fields on a plane or in a region), a
 // flux (power through a plane, or out of a closed box), cross sections, a far_field (pattern and
-// radiated power) or a decay_rate (Purcell enhancement of a dipole).
+// radiated power), a decay_rate (Purcell enhancement of a dipole) or the diffraction orders of a
+// plane wave in a Bloch cell.
 #include <algorithm>
 #include <cctype>
 #include <cmath>
@@ -276,14 +277,31 @@ void check_radiated(const Node& block, const solver::DecayRateSpec& d, const sol
                                                        : fmt::format(" (there are: {})", fmt::join(names, ", "))));
 }
 
+// Diffraction orders of the plane_wave: the planes and frequencies are the plane wave's own.
+solver::OrdersSpec read_orders(const Node& block, const solver::Scene& scene, std::map<std::string, Where>& used) {
+  block.allow({"name"});
+  solver::OrdersSpec o;
+  o.where = block.where();
+  o.name = read_name(block, used);
+  if (scene.bloch_waves.empty())
+    block.fail("diffraction orders need a plane wave in a Bloch cell: add an excitation '- plane_wave: {from: low, "
+               "polarization: p, band: ...}'");
+  if (!scene.orders.empty()) block.fail("the scene already has an orders output; one is enough (it lists every order)");
+  if (!scene.bloch_waves.front().scan_angles.empty())
+    block.fail("diffraction orders are reported for a run at one angle (a band, or one wavelength), not for an angle "
+               "scan ('angles'): run one angle per scene, or a band at a fixed angle");
+  block.done();
+  return o;
+}
+
 }  // namespace
 
 void read_outputs(const Node& list, solver::Scene& scene) {
   std::map<std::string, Where> used;  // output name -> where it was first given
   std::vector<Node> decay_blocks;     // the decay_rate blocks, for checking 'radiated' at the end
   for (const Node& item : list.items_or_single()) {
-    item.allow({"probe", "field_map", "flux", "cross_sections", "far_field", "decay_rate"},
-               /*planned=*/{"resonances", "orders"});
+    item.allow({"probe", "field_map", "flux", "cross_sections", "far_field", "decay_rate", "orders"},
+               /*planned=*/{"resonances"});
     if (!item.is_map() || item.entries().size() != 1)
       item.fail(fmt::format("each item holds exactly one output, e.g. '- probe: {{...}}', got {}",
                             item.is_map() ? fmt::format("{} keys", item.entries().size()) : item.found()));
@@ -292,6 +310,7 @@ void read_outputs(const Node& list, solver::Scene& scene) {
     if (auto b = item.get("flux")) scene.fluxes.push_back(read_flux(*b, scene.domain, used));
     if (auto b = item.get("cross_sections")) scene.cross_sections.push_back(read_cross_sections(*b, scene, used));
     if (auto b = item.get("far_field")) scene.far_fields.push_back(read_far_field(*b, scene, used));
+    if (auto b = item.get("orders")) scene.orders.push_back(read_orders(*b, scene, used));
     if (auto b = item.get("decay_rate")) {
       scene.decay_rates.push_back(read_decay_rate(*b, scene, used));
       decay_blocks.push_back(*b);

@@ -13,6 +13,7 @@
 #include "io/scene_blocks.h"
 #include "io/units.h"
 #include "materials/fit.h"
+#include "io/file_hash.h"
 #include "materials/nk_table.h"
 
 namespace yeegap::io {
@@ -49,7 +50,7 @@ std::filesystem::path table_path(const std::string& scene_file, const std::strin
 }  // namespace
 
 materials::PoleSet read_table_material(const Node& block, const std::vector<std::string>& model_keys,
-                                       const std::string& scene_file, const NoteSink& notes) {
+                                       solver::Scene& scene, const NoteSink& notes) {
   for (const std::string& k : model_keys)
     if (k != "table" && k != "poles" && k != "drude" && block.has(k))
       block.fail_key(k, fmt::format("{}: a table material takes its whole model from the fit of the table, found "
@@ -77,7 +78,7 @@ materials::PoleSet read_table_material(const Node& block, const std::vector<std:
 
   const Node value = *block.get("table");
   const std::string written = read_text(value);
-  const std::filesystem::path path = table_path(scene_file, written);
+  const std::filesystem::path path = table_path(scene.file, written);
   if (!std::ifstream(path))
     value.fail(fmt::format("cannot open the table file '{}'{}", written,
                            path.string() == written ? std::string() : fmt::format(" (looked for '{}')", path.string())));
@@ -90,6 +91,8 @@ materials::PoleSet read_table_material(const Node& block, const std::vector<std:
   } catch (const SceneError& e) {
     rethrow_with_scene(e, value);
   }
+  // A checkpoint refuses to resume once the table has changed (io/checkpoint.h).
+  scene.input_files.push_back({path.string(), value.path(), file_hash(path.string())});
 
   const auto [lo, hi] = std::minmax(table.wavelength.front(), table.wavelength.back());
   const bool loose = fit.max_relative_error > loose_fit;

@@ -13,7 +13,6 @@
 #include <fmt/format.h>
 
 #include "io/h5.h"
-#include "io/h5_read.h"
 
 namespace yeegap::io {
 
@@ -61,19 +60,21 @@ std::optional<PointRecord> read_point_record(const std::string& path) {
   if (!fs::is_regular_file(path, ec)) return std::nullopt;
   try {
     const h5::File file = h5::File::open(path);
-    if (!h5::exists(file, "/sweep/figure_values")) return std::nullopt;
+    if (!file.exists("sweep/figure_values")) return std::nullopt;
+    const h5::Group sweep = file.open_group("sweep");
+    const auto strings = [&](const char* name) { return sweep.open_dataset(name).read_strings(); };
     PointRecord r;
-    const auto point = h5::read_int64s(file, "/sweep/point");
+    const auto point = sweep.open_dataset("point").read_vector<std::int64_t>();
     if (point.size() != 1 || point[0] < 0) return std::nullopt;
     r.point = static_cast<std::size_t>(point[0]);
-    r.parameter_names = h5::read_strings(file, "/sweep/parameter_names");
-    r.parameter_values = h5::read_strings(file, "/sweep/parameter_values");
-    r.overrides = h5::read_strings(file, "/sweep/overrides");
-    r.scene_text = h5::read_string(file, "/scene/text");
-    const auto names = h5::read_strings(file, "/sweep/figure_names");
-    const auto units = h5::read_strings(file, "/sweep/figure_units");
-    const auto descriptions = h5::read_strings(file, "/sweep/figure_descriptions");
-    const auto values = h5::read_doubles(file, "/sweep/figure_values");
+    r.parameter_names = strings("parameter_names");
+    r.parameter_values = strings("parameter_values");
+    r.overrides = strings("overrides");
+    r.scene_text = file.open_dataset("scene/text").read_string();
+    const auto names = strings("figure_names");
+    const auto units = strings("figure_units");
+    const auto descriptions = strings("figure_descriptions");
+    const auto values = sweep.open_dataset("figure_values").read_vector<double>();
     if (units.size() != names.size() || descriptions.size() != names.size() || values.size() != names.size())
       return std::nullopt;
     for (std::size_t i = 0; i < names.size(); ++i) r.figures.push_back({names[i], units[i], descriptions[i], values[i]});
@@ -216,6 +217,15 @@ void write_csv_table(const std::string& path, const SweepPlan& plan, const std::
 }
 
 }  // namespace
+
+bool is_sweep_table(const std::string& path) {
+  try {
+    const h5::File f = h5::File::open(path);
+    return f.has_attribute("format") && f.string_attribute("format") == sweep_table_format;
+  } catch (const std::exception&) {
+    return false;
+  }
+}
 
 void write_sweep_table(const std::string& h5_path, const std::string& csv_path, const SweepPlan& plan,
                        const std::vector<PointRecord>& records, const std::vector<std::string>& point_files,

@@ -39,6 +39,10 @@ void write_point_record(const std::string& path, const SweepPlan& plan, std::siz
 /// group (a results file of a plain run, or one cut short): such a point counts as not finished.
 std::optional<PointRecord> read_point_record(const std::string& path);
 
+/// Whether `path` is a merged sweep table (root attribute format = yeegap-sweep); false for any other
+/// file, readable or not.
+bool is_sweep_table(const std::string& path);
+
 /// Writes the merged table: one row per record (in the order given), the parameters as columns
 /// (numbers with their unit, or texts) and every figure any point has (NaN where a point lacks
 /// one). `h5_path` and `csv_path` appear atomically (written as .partial, then renamed).

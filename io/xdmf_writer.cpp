@@ -26,104 +26,36 @@ namespace fs = std::filesystem;
 namespace {
 
 // ---------------------------------------------------------------------------------------------
-// Reading the few things the sidecar needs: extents, string attributes, one axis of numbers.
+// Reading the few things the sidecar needs (through io/h5): extents, string attributes, one axis.
+
+/// A results file the sidecar cannot describe; other failures of reading are wrapped into one.
+struct Unreadable : std::runtime_error {
+  using std::runtime_error::runtime_error;
+};
 
 [[noreturn]] void unreadable(const std::string& file, const std::string& what) {
-  throw std::runtime_error(fmt::format("cannot describe results file '{}' for viewing: {}", file, what));
+  throw Unreadable(fmt::format("cannot describe results file '{}' for viewing: {}", file, what));
 }
-
-h5::Handle open_dataset(hid_t parent, const std::string& file, const std::string& path) {
-  const hid_t id = H5Dopen2(parent, path.c_str(), H5P_DEFAULT);
-  if (id < 0) unreadable(file, fmt::format("dataset '{}' is missing", path));
-  return h5::Handle(id, H5Dclose);
-}
-
-bool has_link(hid_t parent, const std::string& name) { return H5Lexists(parent, name.c_str(), H5P_DEFAULT) > 0; }
 
 /// Extents of a dataset, slowest axis first.
-h5::Shape extents(hid_t parent, const std::string& file, const std::string& path) {
-  const h5::Handle d = open_dataset(parent, file, path);
-  const h5::Handle space(H5Dget_space(d.get()), H5Sclose);
-  const int rank = H5Sget_simple_extent_ndims(space.get());
-  if (rank < 0) unreadable(file, fmt::format("cannot read the extents of '{}'", path));
-  h5::Shape shape(static_cast<std::size_t>(rank));
-  H5Sget_simple_extent_dims(space.get(), shape.data(), nullptr);
-  return shape;
+h5::Shape extents(const h5::File& f, const std::string& path) {
+  if (!f.exists(path)) unreadable(f.file_name(), fmt::format("dataset '/{}' is missing", path));
+  return f.open_dataset(path).shape();
 }
 
 /// The length of a 1-d dataset (a coordinate axis).
-hsize_t length_of(hid_t parent, const std::string& file, const std::string& path) {
-  const h5::Shape shape = extents(parent, file, path);
-  if (shape.size() != 1 || shape[0] == 0) unreadable(file, fmt::format("'{}' is not a 1-d array of coordinates", path));
+hsize_t length_of(const h5::File& f, const std::string& path) {
+  const h5::Shape shape = extents(f, path);
+  if (shape.size() != 1 || shape[0] == 0)
+    unreadable(f.file_name(), fmt::format("'/{}' is not a 1-d array of coordinates", path));
   return shape[0];
 }
 
-std::vector<double> read_doubles(hid_t parent, const std::string& file, const std::string& path) {
-  const h5::Handle d = open_dataset(parent, file, path);
-  const h5::Handle space(H5Dget_space(d.get()), H5Sclose);
-  const hssize_t n = H5Sget_simple_extent_npoints(space.get());
-  std::vector<double> values(n > 0 ? static_cast<std::size_t>(n) : 0);
-  if (n < 0 || H5Dread(d.get(), H5T_NATIVE_DOUBLE, H5S_ALL, H5S_ALL, H5P_DEFAULT, values.data()) < 0)
-    unreadable(file, fmt::format("cannot read '{}'", path));
-  return values;
-}
-
-/// Fixed-length strings (io/README.md: strings are never variable-length) from an attribute or
-/// dataset `id` of string type `type`, one per element of `space`.
-std::vector<std::string> read_fixed_strings(hid_t type, hid_t space, bool attribute, hid_t id) {
-  if (H5Tget_class(type) != H5T_STRING || H5Tis_variable_str(type) > 0) return {};
-  const std::size_t width = H5Tget_size(type);
-  const hssize_t n = H5Sget_simple_extent_npoints(space);
-  if (n <= 0 || width == 0) return {};
-  std::vector<char> buffer(static_cast<std::size_t>(n) * width);
-  const herr_t status = attribute ? H5Aread(id, type, buffer.data())
-                                  : H5Dread(id, type, H5S_ALL, H5S_ALL, H5P_DEFAULT, buffer.data());
-  if (status < 0) return {};
-  std::vector<std::string> texts;
-  for (hssize_t i = 0; i < n; ++i) {
-    const char* start = buffer.data() + i * width;
-    texts.emplace_back(start, strnlen(start, width));
-  }
-  return texts;
-}
-
-/// A string or string-array attribute of the object at `path`; empty if absent.
-std::vector<std::string> string_attribute(hid_t parent, const std::string& path, const std::string& name) {
-  if (H5Aexists_by_name(parent, path.c_str(), name.c_str(), H5P_DEFAULT) <= 0) return {};
-  const h5::Handle a(H5Aopen_by_name(parent, path.c_str(), name.c_str(), H5P_DEFAULT, H5P_DEFAULT), H5Aclose);
-  if (!a.valid()) return {};
-  const h5::Handle type(H5Aget_type(a.get()), H5Tclose);
-  const h5::Handle space(H5Aget_space(a.get()), H5Sclose);
-  return read_fixed_strings(type.get(), space.get(), true, a.get());
-}
-
-std::vector<std::string> string_dataset(hid_t parent, const std::string& file, const std::string& path) {
-  const h5::Handle d = open_dataset(parent, file, path);
-  const h5::Handle type(H5Dget_type(d.get()), H5Tclose);
-  const h5::Handle space(H5Dget_space(d.get()), H5Sclose);
-  return read_fixed_strings(type.get(), space.get(), false, d.get());
-}
-
-int int_attribute(hid_t object, const std::string& name) {
-  if (H5Aexists(object, name.c_str()) <= 0) return -1;
-  const h5::Handle a(H5Aopen(object, name.c_str(), H5P_DEFAULT), H5Aclose);
-  std::int32_t value = -1;
-  if (!a.valid() || H5Aread(a.get(), H5T_NATIVE_INT32, &value) < 0) return -1;
-  return value;
-}
-
-/// Names of the links in group `path`, in name order (results files do not track creation order).
-std::vector<std::string> members(hid_t parent, const std::string& path) {
-  std::vector<std::string> names;
-  const h5::Handle g(H5Gopen2(parent, path.c_str(), H5P_DEFAULT), H5Gclose);
-  if (!g.valid()) return names;
-  const auto add = [](hid_t, const char* name, const H5L_info_t*, void* out) -> herr_t {
-    static_cast<std::vector<std::string>*>(out)->emplace_back(name);
-    return 0;
-  };
-  hsize_t index = 0;
-  H5Literate(g.get(), H5_INDEX_NAME, H5_ITER_INC, &index, add, &names);
-  return names;
+/// A string or string-array attribute of the group at `path` ("" for the root); empty if absent.
+std::vector<std::string> string_attribute(const h5::File& f, const std::string& path, const std::string& name) {
+  if (path.empty()) return f.has_attribute(name) ? f.string_attributes(name) : std::vector<std::string>{};
+  const h5::Group g = f.open_group(path);
+  return g.has_attribute(name) ? g.string_attributes(name) : std::vector<std::string>{};
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -201,11 +133,12 @@ void check_referable(const std::string& file, const std::string& name, const cha
                                  what, name));
 }
 
-void describe_materials(XdmfBuilder& x, hid_t root, const std::string& file, const h5::Shape& nodes) {
-  const h5::Shape cells = extents(root, file, "/materials/map");
+void describe_materials(XdmfBuilder& x, const h5::File& f, const h5::Shape& nodes) {
+  const std::string& file = f.file_name();
+  const h5::Shape cells = extents(f, "materials/map");
   if (cells.size() != 3 || cells[0] + 1 != nodes[0] || cells[1] + 1 != nodes[1] || cells[2] + 1 != nodes[2])
     unreadable(file, fmt::format("/materials/map is {} for a grid of {} nodes", dims_text(cells), dims_text(nodes)));
-  const std::vector<std::string> names = string_dataset(root, file, "/materials/names");
+  const std::vector<std::string> names = f.open_dataset("materials/names").read_strings();
   x.line(2, R"(<Grid Name="materials" GridType="Uniform">)");
   std::string legend;
   for (std::size_t i = 0; i < names.size(); ++i) legend += fmt::format("{}{} = {}", i ? ", " : "", i, names[i]);
@@ -217,30 +150,30 @@ void describe_materials(XdmfBuilder& x, hid_t root, const std::string& file, con
   x.line(2, "</Grid>");
 }
 
-void describe_field_map(XdmfBuilder& x, hid_t root, const std::string& file, const std::string& name) {
-  const std::string group = "/outputs/" + name;
+void describe_field_map(XdmfBuilder& x, const h5::File& f, const std::string& name) {
+  const std::string& file = f.file_name();
+  const std::string group = "outputs/" + name;
   check_referable(file, name, "output");
-  const h5::Shape nodes{length_of(root, file, group + "/z"), length_of(root, file, group + "/y"),
-                        length_of(root, file, group + "/x")};
-  const std::vector<double> wavelength_nm = read_doubles(root, file, group + "/wavelength_nm");
+  const h5::Shape nodes{length_of(f, group + "/z"), length_of(f, group + "/y"), length_of(f, group + "/x")};
+  const std::vector<double> wavelength_nm = f.open_dataset(group + "/wavelength_nm").read_vector<double>();
   const h5::Shape full{wavelength_nm.size(), nodes[0], nodes[1], nodes[2]};
 
   std::vector<std::string> arrays;  // dataset names inside the group, each (nfreq, nz, ny, nx)
-  for (const std::string& c : string_attribute(root, group, "components"))
+  for (const std::string& c : string_attribute(f, group, "components"))
     for (const char* part : {"_re", "_im"}) arrays.push_back(c + part);
   for (const char* derived : {"E_squared", "E_enhancement"})
-    if (has_link(root, group + "/" + derived)) arrays.emplace_back(derived);
+    if (f.exists(group + "/" + derived)) arrays.emplace_back(derived);
   for (const std::string& a : arrays)
-    if (extents(root, file, group + "/" + a) != full)
-      unreadable(file, fmt::format("{}/{} is not {} (frequencies, z, y, x nodes)", group, a, dims_text(full)));
+    if (extents(f, group + "/" + a) != full)
+      unreadable(file, fmt::format("/{}/{} is not {} (frequencies, z, y, x nodes)", group, a, dims_text(full)));
 
-  for (hsize_t f = 0; f < full[0]; ++f) {
-    x.line(2, fmt::format(R"(<Grid Name="{} {:.5g} nm" GridType="Uniform">)", xml_escape(name), wavelength_nm[f]));
-    x.line(3, fmt::format(R"(<Information Name="wavelength_nm" Value="{:.9g}"/>)", wavelength_nm[f]));
-    x.rect_mesh(3, nodes, group);
+  for (hsize_t q = 0; q < full[0]; ++q) {
+    x.line(2, fmt::format(R"(<Grid Name="{} {:.5g} nm" GridType="Uniform">)", xml_escape(name), wavelength_nm[q]));
+    x.line(3, fmt::format(R"(<Information Name="wavelength_nm" Value="{:.9g}"/>)", wavelength_nm[q]));
+    x.rect_mesh(3, nodes, "/" + group);
     for (const std::string& a : arrays) {
       x.line(3, fmt::format(R"(<Attribute Name="{}" AttributeType="Scalar" Center="Node">)", xml_escape(a)));
-      x.slab_item(4, full, f, group + "/" + a);
+      x.slab_item(4, full, q, "/" + group + "/" + a);
       x.line(3, "</Attribute>");
     }
     x.line(2, "</Grid>");
@@ -253,20 +186,19 @@ std::string xdmf_path(const std::string& results_path) {
   return fs::path(results_path).replace_extension(".xmf").string();
 }
 
-std::string xdmf_text(const std::string& results_path, const std::string& heavy_data_name) {
-  check_referable(results_path, heavy_data_name, "results file name");
-  const h5::File file = h5::File::open(results_path);
-  const hid_t root = file.id();
-  const std::vector<std::string> format = string_attribute(root, "/", "format");
+namespace {
+
+std::string describe(const h5::File& file, const std::string& heavy_data_name) {
+  const std::string& results_path = file.file_name();
+  const std::vector<std::string> format = string_attribute(file, "", "format");
   if (format.size() != 1 || format[0] != results_format)
     unreadable(results_path, fmt::format("it is not a {} file (no matching 'format' attribute)", results_format));
-  const int version = int_attribute(root, "format_version");
+  const std::int64_t version = file.has_attribute("format_version") ? file.int_attribute("format_version") : -1;
   if (version < 1 || version > results_format_version)
     unreadable(results_path, fmt::format("format_version {} is not one this program reads (1 to {})", version,
                                          results_format_version));
 
-  const h5::Shape nodes{length_of(root, results_path, "/grid/z"), length_of(root, results_path, "/grid/y"),
-                        length_of(root, results_path, "/grid/x")};
+  const h5::Shape nodes{length_of(file, "grid/z"), length_of(file, "grid/y"), length_of(file, "grid/x")};
   XdmfBuilder x(heavy_data_name);
   x.line(0, R"(<?xml version="1.0" ?>)");
   x.line(0, R"(<!DOCTYPE Xdmf SYSTEM "Xdmf.dtd" []>)");
@@ -274,14 +206,30 @@ std::string xdmf_text(const std::string& results_path, const std::string& heavy_
             "Xdmf3ReaderT reader. Field maps: one grid per wavelength. -->");
   x.line(0, R"(<Xdmf Version="3.0">)");
   x.line(1, "<Domain>");
-  describe_materials(x, root, results_path, nodes);
-  for (const std::string& name : members(root, "/outputs")) {
-    const std::vector<std::string> kind = string_attribute(root, "/outputs/" + name, "kind");
-    if (kind.size() == 1 && kind[0] == "field_map") describe_field_map(x, root, results_path, name);
+  describe_materials(x, file, nodes);
+  const std::vector<std::string> outputs =
+      file.exists("outputs") ? file.open_group("outputs").members() : std::vector<std::string>{};
+  for (const std::string& name : outputs) {
+    const std::vector<std::string> kind = string_attribute(file, "outputs/" + name, "kind");
+    if (kind.size() == 1 && kind[0] == "field_map") describe_field_map(x, file, name);
   }
   x.line(1, "</Domain>");
   x.line(0, "</Xdmf>");
   return std::move(x.text());
+}
+
+}  // namespace
+
+std::string xdmf_text(const std::string& results_path, const std::string& heavy_data_name) {
+  check_referable(results_path, heavy_data_name, "results file name");
+  const h5::File file = h5::File::open(results_path);
+  try {
+    return describe(file, heavy_data_name);
+  } catch (const Unreadable&) {
+    throw;
+  } catch (const std::exception& e) {  // io/h5's own message names the file and the object
+    unreadable(results_path, e.what());
+  }
 }
 
 std::string write_xdmf(const std::string& results_path) {

@@ -15,6 +15,8 @@
 #include "base/constants.h"
 #include "base/errors.h"
 #include "solver/bloch_halos.h"
+#include "solver/diffraction_orders.h"
+#include "solver/material_map.h"
 #include "solver/mesh_plan.h"
 #include "solver/recorders.h"
 #include "solver/time_loop.h"
@@ -136,6 +138,57 @@ Scene incident_scene(const Scene& main, const Grid& g, BlochWavePlan& p, const s
   return s;
 }
 
+// The names of the field maps an `orders` output adds on the reflected and transmitted planes (a
+// space keeps them apart from any name a scene may give).
+constexpr const char* orders_reflected_map = "orders reflected";
+constexpr const char* orders_transmitted_map = "orders transmitted";
+
+// The material filling a plane normal to the wave's axis at `node`, or -1 when the lateral cells do
+// not all hold the same one (the structure reaches the plane).
+int plane_material(const Scene& s, const Grid& g, const BlochWavePlan& p, int node) {
+  Vec3 point;
+  point[p.axis] = g.nodes[p.axis][node];
+  int found = -1;
+  for (int j = 0; j < g.n[p.lateral_c]; ++j)
+    for (int i = 0; i < g.n[p.lateral_b]; ++i) {
+      point[p.lateral_b] = 0.5 * (g.nodes[p.lateral_b][i] + g.nodes[p.lateral_b][i + 1]);
+      point[p.lateral_c] = 0.5 * (g.nodes[p.lateral_c][j] + g.nodes[p.lateral_c][j + 1]);
+      const int m = material_at(s, point);
+      if (found >= 0 && m != found) return -1;
+      found = m;
+    }
+  return found;
+}
+
+bool lossless(const MaterialSpec& m) {
+  return !m.perfect_conductor && !m.poles.dispersive() && m.poles.conductivity == 0 && m.poles.eps_inf > 0;
+}
+
+// Index of the transmitted orders' medium; 0 when it absorbs (no transmitted orders then).
+// Throws RunError when either plane is not in one homogeneous medium.
+double orders_transmitted_index(const Scene& s, const Grid& g, const BlochWavePlan& p) {
+  const OrdersSpec& o = s.orders.front();
+  for (int node : {p.reflected, p.transmitted})
+    if (plane_material(s, g, p, node) < 0)
+      throw RunError(fmt::format("{}: diffraction orders need a homogeneous medium on the {} plane ({} = {:.6g} nm), "
+                                 "but the structure reaches it; leave a few cells of one medium there",
+                                 o.where.location(), node == p.reflected ? "reflected" : "transmitted", "xyz"[p.axis],
+                                 g.nodes[p.axis][node] * 1e9));
+  const MaterialSpec& m = s.materials[plane_material(s, g, p, p.transmitted)];
+  return lossless(m) ? std::sqrt(m.poles.eps_inf) : 0.0;
+}
+
+FieldMapSpec order_map(const char* name, const Grid& g, const BlochWavePlan& p, int node,
+                       const std::vector<double>& omegas) {
+  FieldMapSpec m;
+  m.name = name;
+  m.region = plane_at(name, g, p.axis, node, omegas).region;
+  m.omegas = omegas;
+  const auto c = order_components(p.axis);
+  m.components.assign(c.begin(), c.end());
+  return m;
+}
+
 }  // namespace
 
 Scene BlochRun::prepare(const Scene& original) {
@@ -153,10 +206,16 @@ Scene BlochRun::prepare(const Scene& original) {
     if (s.domain.absorber.alpha_max == 0)  // the CFS shift Simulation derives from its own sources
       s.domain.absorber.alpha_max = 0.1 * (w.waveform.omega_min > 0 ? w.waveform.omega_min : w.waveform.omega_max) *
                                     constants::eps0;
-    const std::size_t user = s.fluxes.size();
     s.fluxes.push_back(plane_at("reflected", g, p.axis, p.reflected, w.omegas));
     s.fluxes.push_back(plane_at("transmitted", g, p.axis, p.transmitted, w.omegas));
-    (void)user;
+    if (s.orders.size() > 1) throw RunError(fmt::format("{}: at most one orders output", s.orders[1].where.location()));
+    if (!s.orders.empty()) {  // after the user's maps, as the fluxes
+      s.field_maps.push_back(order_map(orders_reflected_map, g, p, p.reflected, w.omegas));
+      if (orders_transmitted_index(s, g, p) > 0)
+        s.field_maps.push_back(order_map(orders_transmitted_map, g, p, p.transmitted, w.omegas));
+    }
+  } else if (!s.orders.empty()) {
+    throw RunError(fmt::format("{}: diffraction orders need a plane_wave", s.orders.front().where.location()));
   }
   if (needs_imaginary_part(s.domain)) {
     if (!s.cross_sections.empty() || !s.far_fields.empty() || !s.decay_rates.empty() || !s.plane_waves.empty())
@@ -188,6 +247,11 @@ BlochRun::BlochRun(const Scene& scene) : scene_(prepare(scene)) {
   const Grid& g = re_->grid();
   plan_ = plan_bloch_wave(w, scene_, g);
   user_fluxes_ = scene_.fluxes.size() - 2;
+  user_maps_ = scene_.field_maps.size();
+  if (!scene_.orders.empty()) {
+    orders_index_ = orders_transmitted_index(scene_, g, plan_);
+    user_maps_ -= orders_index_ > 0 ? 2 : 1;
+  }
   std::set<double> omegas(w.omegas.begin(), w.omegas.end());
   for (std::size_t i = 0; i < user_fluxes_; ++i) omegas.insert(scene_.fluxes[i].omegas.begin(), scene_.fluxes[i].omegas.end());
   const Scene inc = incident_scene(scene_, g, plan_, {omegas.begin(), omegas.end()}, re_->dt());
@@ -293,9 +357,57 @@ RunResults BlochRun::results() const {
     out.transmittance.push_back(T);
     out.absorptance.push_back(1 - R - T);
   }
+  if (!scene_.orders.empty()) r.orders.push_back(orders(r, intensity));
   r.reflectance.push_back(std::move(out));
   r.fluxes.resize(user_fluxes_);
+  r.field_maps.resize(user_maps_);
   return r;
+}
+
+DiffractionOrdersResult BlochRun::orders(const RunResults& r, const std::function<double(double)>& intensity) const {
+  const Grid& g = re_->grid();
+  const BlochWaveSpec& w = scene_.bloch_waves.front();
+  OrderLattice lattice;
+  lattice.axis = plan_.axis;
+  lattice.lateral = {plan_.lateral_b, plan_.lateral_c};
+  for (int q = 0; q < 2; ++q) {
+    lattice.cells[q] = g.n[lattice.lateral[q]];
+    lattice.step[q] = g.primal(lattice.lateral[q], 0);
+  }
+  lattice.k_parallel = plan_.k_parallel;
+  DiffractionOrdersResult out;
+  out.name = scene_.orders.front().name;
+  out.axis = plan_.axis;
+  out.period = lattice.period();
+  out.diffracting = {lattice.cells[0] > 1, lattice.cells[1] > 1};
+  out.incident_index = plan_.index;
+  out.transmitted_index = orders_index_;
+  const double k = norm(plan_.k_parallel);
+  // Reflected orders travel against the incident wave, transmitted ones with it.
+  const FieldMapResult* maps[2] = {&r.field_maps.at(user_maps_), orders_index_ > 0 ? &r.field_maps.at(user_maps_ + 1) : nullptr};
+  for (std::size_t q = 0; q < w.omegas.size(); ++q) {
+    const double omega = w.omegas[q], incident = intensity(omega);
+    out.omegas.push_back(omega);
+    out.incidence_angles.push_back(bloch_wave_angle(k, plan_.index, omega));
+    double sums[2] = {0, 0};
+    for (int side = 0; side < 2; ++side) {
+      if (!maps[side]) continue;
+      const int travel = side == 0 ? -plan_.sign : plan_.sign;
+      for (const OrderPower& o : plane_orders(*maps[side], q, lattice, side == 0 ? plan_.index : orders_index_, travel)) {
+        out.row.push_back(static_cast<int>(q));
+        out.side.push_back(side == 0 ? -1 : +1);
+        out.order_b.push_back(o.m_b);
+        out.order_c.push_back(o.m_c);
+        out.direction.push_back(o.direction);
+        out.angle.push_back(o.angle);
+        out.efficiency.push_back(o.intensity / incident);
+        sums[side] += o.intensity / incident;
+      }
+    }
+    out.reflected_sum.push_back(sums[0]);
+    out.transmitted_sum.push_back(sums[1]);
+  }
+  return out;
 }
 
 ModelSummary BlochRun::plan(const Scene& scene) {

@@ -19,7 +19,8 @@ namespace yeegap::solver {
 class BlochRun : public Checkpointable {
  public:
   /// `scene` may hold one plane_wave (bloch_waves) without an angle list, dipoles, probes, field
-  /// maps and fluxes; cross sections, far fields, decay rates and tfsf boxes are refused when the
+  /// maps, fluxes and an `orders` output (diffraction_orders.h, on the reflected and transmitted
+  /// planes); cross sections, far fields, decay rates and tfsf boxes are refused when the
   /// wavevector is not zero (they assume real fields).
   explicit BlochRun(const Scene& scene);
   BlochRun(const BlochRun&) = delete;
@@ -59,6 +60,9 @@ class BlochRun : public Checkpointable {
   bool wave_ = false;
   BlochWavePlan plan_;
   std::size_t user_fluxes_ = 0;    // the user's fluxes come first; then reflected, transmitted
+  std::size_t user_maps_ = 0;      // the user's field maps come first; then those of `orders`
+  double orders_index_ = 0;        // medium of the transmitted orders; 0: absorbing, none
+  DiffractionOrdersResult orders(const RunResults& r, const std::function<double(double)>& intensity) const;
   std::unique_ptr<Simulation> re_, im_, inc_re_, inc_im_;
   long n_ = 0;
   double wall_seconds_ = 0;

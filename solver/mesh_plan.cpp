@@ -17,6 +17,12 @@ constexpr double touching_fraction = 1e-3;
 
 bool unbounded(double v) { return !std::isfinite(v); }
 
+// A conductor here: free carriers (a Drude pole or a static conductivity) or a perfect conductor.
+bool conducts(const Scene& s, const BodySpec& b) {
+  const MaterialSpec& m = s.materials.at(static_cast<std::size_t>(b.material));
+  return m.perfect_conductor || !m.poles.drude.empty() || m.poles.conductivity > 0;
+}
+
 }  // namespace
 
 double absorber_thickness(const Grid& g, int face, int cells) {
@@ -41,11 +47,14 @@ MeshPlan plan_mesh(const Scene& s) {
   // Slab faces (a body bounded along one axis only) must be cell edges; the box extremes of
   // bounded bodies are cell edges where they cost nothing.
   std::vector<geometry::ShapePtr> shapes;
+  std::vector<int> slab_axis;  // per body: the axis of a slab (bounded along one axis only), or -1
   for (const BodySpec& b : s.bodies) {
     shapes.push_back(b.shape);
     const geometry::Aabb box = b.shape->bounds();
-    int finite_axes = 0;
-    for (int a = 0; a < 3; ++a) finite_axes += !unbounded(box.lo[a]) || !unbounded(box.hi[a]);
+    int finite_axes = 0, last_finite = -1;
+    for (int a = 0; a < 3; ++a)
+      if (!unbounded(box.lo[a]) || !unbounded(box.hi[a])) ++finite_axes, last_finite = a;
+    slab_axis.push_back(finite_axes == 1 ? last_finite : -1);
     for (int a = 0; a < 3; ++a)
       for (double x : {box.lo[a], box.hi[a]}) {
         if (unbounded(x)) continue;
@@ -63,6 +72,18 @@ MeshPlan plan_mesh(const Scene& s) {
     search.region = q.domain;
     const double touching = touching_fraction * std::min({d.step.x, d.step.y, d.step.z});
     for (const geometry::Gap& g : geometry::find_gaps(shapes, search)) {
+      // Two slabs along the same axis, not both conductors, enclose a layer of a stack (glass /
+      // adhesion layer / gold), not a gap: refining it to gap_cells cells would shrink the time
+      // step of a whole film run; a refine zone (or subcell averaging) resolves a thin layer when
+      // the user asks. Between two conducting films (a metal-insulator-metal junction) the field
+      // concentrates as in any gap, so that layer is refined.
+      const auto a = static_cast<std::size_t>(g.body_a), b = static_cast<std::size_t>(g.body_b);
+      if (slab_axis[a] >= 0 && slab_axis[a] == slab_axis[b] && !(conducts(s, s.bodies[a]) && conducts(s, s.bodies[b]))) {
+        plan.notes.push_back(fmt::format("bodies {} and {} are slabs {:.3g} nm apart: a layer of a stack, not refined "
+                                         "as a gap (a refine zone resolves it further)",
+                                         g.body_a, g.body_b, g.width * 1e9));
+        continue;
+      }
       if (g.width < touching) {
         plan.notes.push_back(fmt::format("bodies {} and {} touch (gap {:.3g} nm): not refined", g.body_a, g.body_b,
                                          g.width * 1e9));

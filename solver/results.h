@@ -103,6 +103,29 @@ struct ReflectanceResult {
   std::vector<double> reflectance, transmittance, absorptance;  // A = 1 - R - T
 };
 
+/// Diffraction orders of a plane wave in a Bloch cell (solver/diffraction_orders.h): one entry per
+/// propagating order (m_b, m_c) per side per row, rows as in ReflectanceResult. Order (m_b, m_c)
+/// has the lateral wavevector k_par + 2 pi (m_b / period_b, m_c / period_c).
+struct DiffractionOrdersResult {
+  std::string name;
+  bool angle_scan = false;
+  int axis = 2;                            // the plane wave's axis; lateral axes are axis+1, axis+2
+  std::array<double, 2> period{};          // m, the cell along the two lateral axes
+  std::array<bool, 2> diffracting{};       // false along an invariant (one-cell) axis: m = 0 only
+  double incident_index = 1;               // medium of the reflected orders
+  double transmitted_index = 0;            // medium of the transmitted orders; 0: absorbing, none reported
+  std::vector<double> omegas;              // rad/s, per row
+  std::vector<double> incidence_angles;    // rad, per row, as ReflectanceResult::angles
+  std::vector<double> reflected_sum, transmitted_sum;  // per row, sums of the efficiencies below
+  // Per order, flat:
+  std::vector<int> row;
+  std::vector<int> side;                   // -1: reflected, +1: transmitted
+  std::vector<int> order_b, order_c;       // m along the two lateral axes
+  std::vector<Vec3> direction;             // unit vector of travel, away from the structure
+  std::vector<double> angle;               // rad, polar angle of travel from the axis in its medium
+  std::vector<double> efficiency;          // order power / incident power
+};
+
 /// The gaps the tunnelling block found on the grid.
 struct GapResult {
   std::array<int, 2> pair{};               // body indices
@@ -142,6 +165,7 @@ struct RunResults {
   std::vector<DecayRateResult> decay_rates;
   std::vector<GapResult> gaps;
   std::vector<ReflectanceResult> reflectance;    // plane waves in Bloch cells
+  std::vector<DiffractionOrdersResult> orders;   // diffraction orders of a plane wave in a Bloch cell
 };
 
 }  // namespace yeegap::solver

@@ -21,8 +21,18 @@ Scene reduced(const Scene& s, std::string* note) {
 
 bool is_bloch_scene(const Scene& s) { return !s.bloch_waves.empty() || needs_imaginary_part(s.domain); }
 
+Scene bloch_scene_as_run(const Scene& scene) { return reduced(scene, nullptr); }
+
+bool is_angle_scan(const Scene& s) { return !s.bloch_waves.empty() && !s.bloch_waves.front().scan_angles.empty(); }
+
 ModelSummary plan_scene(const Scene& scene) {
-  if (!is_bloch_scene(scene)) return Simulation::plan(scene);
+  if (!is_bloch_scene(scene)) {
+    ModelSummary m = Simulation::plan(scene);
+    // Above this the material map alone takes 100 MB: the run checks placements at its start.
+    constexpr long long placement_check_cells = 100'000'000;
+    if (m.cell_count <= placement_check_cells) Simulation::check_placements(scene);
+    return m;
+  }
   std::string note;
   const Scene s = reduced(scene, &note);
   const bool scan = !s.bloch_waves.empty() && !s.bloch_waves.front().scan_angles.empty();

@@ -12,8 +12,14 @@ namespace yeegap::solver {
 
 /// Whether the scene runs as a Bloch run (a plane_wave, or a non-zero Bloch wavevector).
 bool is_bloch_scene(const Scene& scene);
-/// Figures for `yeegap check`; the mesh notes say which kind of run it is.
+/// Figures for `yeegap check`; the mesh notes say which kind of run it is. Throws RunError for
+/// anything the run would refuse at its start (placements included, up to 1e8 cells).
 ModelSummary plan_scene(const Scene& scene);
+/// The scene as a Bloch run or angle scan runs it (a plane-wave stack reduced to one lateral cell),
+/// for a caller that builds the run itself to checkpoint it (BlochRun, AngleScan).
+Scene bloch_scene_as_run(const Scene& scene);
+/// Whether the scene is an angle scan (a plane_wave with `angles`).
+bool is_angle_scan(const Scene& scene);
 /// Builds and runs the scene to its stop rule.
 RunResults run_scene(const Scene& scene, const std::function<void(const Progress&)>& progress = {});
 

@@ -177,6 +177,14 @@ struct FluxSpec {
 /// scattering from the flux of the scattered field out of a box just outside the TFSF box,
 /// absorption from the net flux of the total field into a box just inside it, both over the
 /// incident intensity. Per unit length when the domain has an invariant axis (2D).
+/// Power in each propagating diffraction order of a plane_wave's Bloch cell, in reflection and
+/// transmission (solver/diffraction_orders.h): taken on the run's reflected and transmitted planes
+/// at the plane wave's frequencies, so it needs a plane_wave and nothing else.
+struct OrdersSpec {
+  std::string name;
+  Where where;
+};
+
 struct CrossSectionSpec {
   std::string name;
   FrequencyList omegas;
@@ -233,6 +241,14 @@ struct StopSpec {
   long max_steps = 10'000'000;    // hard cap
 };
 
+/// A file the scene reads besides itself (an n,k table, an STL mesh) and a hash of its bytes as they
+/// were read, so that a checkpoint can refuse to resume once the file has changed.
+struct InputFile {
+  std::string path;               // as opened: relative to the working directory, or absolute
+  std::string key_path;           // the scene key that names it, e.g. "materials.gold.table"
+  std::uint64_t content_hash = 0; // FNV-1a 64 of the bytes (io/file_hash.h)
+};
+
 struct Scene {
   int version = 1;
   std::string title;
@@ -251,7 +267,9 @@ struct Scene {
   std::vector<TunnellingSpec> tunnelling;  // at most one
   std::vector<FarFieldSpec> far_fields;
   std::vector<DecayRateSpec> decay_rates;
+  std::vector<OrdersSpec> orders;  // at most one; needs a plane_wave
   StopSpec stop;
+  std::vector<InputFile> input_files;  // in reading order
 };
 
 }  // namespace yeegap::solver

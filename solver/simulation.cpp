@@ -53,6 +53,7 @@ void check_scene(const Scene& s, const Grid& g) {
                                    "xyz"[a], g.n[a], s.domain.absorber.cells));
   }
   if (s.materials.empty()) throw RunError(s.file + ": no materials");
+  for (const PlaneWaveSpec& p : s.plane_waves) check_plane_wave_box(p, s, g);
   // Poles resolved by the time step and the Courant bound tightened by the explicit poles.
   check_dispersive_stability(s, choose_time_step(s, g), g.courant_limit());
 }
@@ -239,6 +240,28 @@ ModelSummary Simulation::plan(const Scene& original) {
     m.steps_estimated = true;
   }
   return m;
+}
+
+void Simulation::check_placements(const Scene& original) {
+  const Scene scene = with_gap_material(original);
+  const Grid g = plan_mesh(original).grid;
+  const double dt = choose_time_step(scene, g);
+  check_scene(scene, g);
+  const BlockLayout L = BlockLayout::of(g.n);
+  MaterialIndex mi;
+  fill_material_index(scene, g, L, mi);
+  const GapCells gap_cells(scene, g, L, mi);
+  const CurlCoefficients curls = plain_curls(g, dt);
+  const ECoefficients ec = e_coefficients(scene, dt);
+  // Each constructor throws what the run would; the objects are dropped at once.
+  for (const auto& d : scene.dipoles) [[maybe_unused]] const DipoleSource x(d, g, L);
+  for (const auto& w : scene.plane_waves) [[maybe_unused]] const PlaneWaveSource x(w, scene, g, L, curls, ec, mi, dt);
+  for (const auto& p : scene.probes) [[maybe_unused]] const ProbeRecorder x(p, g, L);
+  for (const auto& m : scene.field_maps) [[maybe_unused]] const FieldMapRecorder x(m, g, L);
+  for (const auto& f : scene.fluxes) [[maybe_unused]] const FluxRecorder x(f, g, L);
+  for (const auto& c : scene.cross_sections) [[maybe_unused]] const CrossSectionRecorder x(c, scene, g, L);
+  for (const auto& f : scene.far_fields) [[maybe_unused]] const FarFieldRecorder x(f, scene, g, L, mi);
+  for (const auto& d : scene.decay_rates) [[maybe_unused]] const DecayRateRecorder x(d, scene, g, L, mi);
 }
 
 double Simulation::sources_end_time() const {

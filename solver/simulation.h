@@ -73,6 +73,10 @@ class Simulation : public Checkpointable {
   /// The same figures without allocating the fields (for `yeegap check` on scenes too big to
   /// build here); memory of recorders is estimated from their extents.
   static ModelSummary plan(const Scene& scene);
+  /// Builds what the constructor builds short of the field arrays (material map, gap cells,
+  /// sources, recorders) and drops it: every placement rule a run would refuse at its start
+  /// (a box in an absorber, a dipole in a metal, ...) is refused here too, for `yeegap check`.
+  static void check_placements(const Scene& scene);
   /// Advances one full step (H then E).
   void step();
   /// The two halves of step(), for runs that fill halos between them (Bloch cells: the real and

@@ -37,23 +37,11 @@ bool total(const Box& b, int c, const std::array<int, 3>& idx) {
   return true;
 }
 
-}  // namespace
-
-PlaneWaveSource::PlaneWaveSource(const PlaneWaveSpec& spec, const Scene& scene, const Grid& g, const BlockLayout& L,
-                                 const CurlCoefficients& curls, const ECoefficients& ec, const MaterialIndex& mi,
-                                 double dt)
-    : line_(g, spec.axis, spec.sign, scene.materials[scene.domain.background].poles.eps_inf, spec.amplitude,
-            spec.waveform, -2, g.n[spec.axis] + 2, dt) {
+// The box on the grid's nodes, refused (RunError) where it cannot work: too thin, across a mirror
+// plane, against the plane's symmetry, reaching into an absorber, or without faces across the
+// direction. Shared by the source and by the plan, so `check` refuses what `run` would.
+Box place_box(const PlaneWaveSpec& spec, const Scene& scene, const Grid& g, const Vec3& e_dir) {
   const int ax = spec.axis;
-  const double pol_len = norm(spec.polarization);
-  if (!(pol_len > 0) || std::abs(spec.polarization[ax]) > 1e-9 * pol_len)
-    throw RunError(fmt::format("{}: the plane wave's polarization must be perpendicular to its direction",
-                               spec.where.location()));
-  const Vec3 e_dir = (1.0 / pol_len) * spec.polarization;
-  Vec3 a_dir;
-  a_dir[ax] = spec.sign;
-  const Vec3 h_dir = cross(a_dir, e_dir);
-
   Box b;
   for (int a = 0; a < 3; ++a) {
     b.lo[a] = g.nearest_node(a, spec.box.lo[a]);
@@ -86,6 +74,35 @@ PlaneWaveSource::PlaneWaveSource(const PlaneWaveSpec& spec, const Scene& scene, 
                                  spec.where.location(), "xyz"[a], margin, g.n[a] - margin_hi, b.lo[a], b.hi[a]));
   }
   if (b.whole[ax]) throw RunError(fmt::format("{}: the plane-wave box needs faces across its direction", spec.where.location()));
+  return b;
+}
+
+Vec3 unit_polarization(const PlaneWaveSpec& spec) {
+  const double pol_len = norm(spec.polarization);
+  if (!(pol_len > 0) || std::abs(spec.polarization[spec.axis]) > 1e-9 * pol_len)
+    throw RunError(fmt::format("{}: the plane wave's polarization must be perpendicular to its direction",
+                               spec.where.location()));
+  return (1.0 / pol_len) * spec.polarization;
+}
+
+}  // namespace
+
+void check_plane_wave_box(const PlaneWaveSpec& spec, const Scene& scene, const Grid& g) {
+  place_box(spec, scene, g, unit_polarization(spec));
+}
+
+PlaneWaveSource::PlaneWaveSource(const PlaneWaveSpec& spec, const Scene& scene, const Grid& g, const BlockLayout& L,
+                                 const CurlCoefficients& curls, const ECoefficients& ec, const MaterialIndex& mi,
+                                 double dt)
+    : line_(g, spec.axis, spec.sign, scene.materials[scene.domain.background].poles.eps_inf, spec.amplitude,
+            spec.waveform, -2, g.n[spec.axis] + 2, dt) {
+  const int ax = spec.axis;
+  const Vec3 e_dir = unit_polarization(spec);
+  Vec3 a_dir;
+  a_dir[ax] = spec.sign;
+  const Vec3 h_dir = cross(a_dir, e_dir);
+
+  const Box b = place_box(spec, scene, g, e_dir);
   reference_node_ = (b.lo[ax] + b.hi[ax]) / 2;
 
   const std::uint8_t background = static_cast<std::uint8_t>(scene.domain.background);

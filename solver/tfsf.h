@@ -16,6 +16,11 @@
 
 namespace yeegap::solver {
 
+/// The placement rules of the plane-wave box on a grid (inside the domain, clear of absorbers, one
+/// cell across at least, polarization across the direction, a mirror plane's symmetry kept);
+/// throws RunError naming the scene location. Needs no fields: `check` runs it before any run.
+void check_plane_wave_box(const PlaneWaveSpec& spec, const Scene& scene, const Grid& g);
+
 class PlaneWaveSource {
  public:
   /// Throws RunError when the box is not inside the domain clear of absorbers, or its surface

@@ -33,6 +33,14 @@ expect misspelt_key_not_run 2 "did you mean" -- "$yeegap" run "$work/misspelt.ya
 # An explicit time step above the Courant limit is refused before the run, exit code 2.
 expect unstable_time_step 2 "Courant limit" -- "$yeegap" check "$src/examples/dipole_near_sphere.yaml" --set "domain.time_step=1 fs"
 
+# A plane-wave box reaching into an absorbing layer is refused by `check`, as `run` would refuse it.
+expect tfsf_box_in_absorber 2 "particle_on_mirror.yaml:[0-9]+:[0-9]+: the plane-wave box must lie inside the domain, clear of the absorbing layers" -- \
+  "$yeegap" check "$src/examples/particle_on_mirror.yaml" --set "excitation[0].tfsf.box={from: [-36 nm, 0 nm, -24 nm], to: [36 nm, 36 nm, 60 nm]}"
+
+# So are cross-section flux boxes without room before the absorber; a sweep names the point.
+expect cross_section_margin 2 "sweep point 0 \(spacer = 2 nm, model = classical\): .*particle_on_mirror.yaml:[0-9]+:[0-9]+: cross sections need 3 free cells" -- \
+  "$yeegap" check "$src/examples/particle_on_mirror.yaml" --set "domain.size=[140nm,60nm,132nm]" --set "domain.center=[0nm,30nm,14nm]"
+
 # check --json: one object with the documented keys.
 expect check_json 0 '"cells": 512000.*"memory_bytes": [0-9]+.*"time_step_s": [0-9.e-]+.*"steps": [0-9]+' -- \
   "$yeegap" check "$src/examples/dipole_near_sphere.yaml" --json

@@ -63,7 +63,8 @@ expect() {
   else ok; fi
 }
 expect unknown_metal 2 "unknown metal 'Au-jelly'.*did you mean 'Au-jellium'" -- "$yeegap" gap --metal Au-jelly
-expect unknown_barrier 2 "did you mean 'image'" -- "$yeegap" gap --barrier imag
+expect unknown_barrier 2 "did you mean 'image_rounded'" -- "$yeegap" gap --barrier image_round
+check_json scene_barrier_word 9 -- "$yeegap" gap --metal Ag --barrier exponential_fit --from 0.2nm --to 1nm --step 0.1nm --at 700nm --json
 expect reversed_range 2 "below --from" -- "$yeegap" gap --from 1nm --to 0.5nm
 expect zero_step 2 "--step: must be positive" -- "$yeegap" gap --step 0nm
 expect negative_gap 2 "cannot be negative" -- "$yeegap" gap --from -0.1nm

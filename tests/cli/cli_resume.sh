@@ -9,6 +9,7 @@
 set -u
 yeegap=$1
 py=$2
+here=$(cd "$(dirname "$0")" && pwd)
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
 cd "$work" || exit 1
@@ -113,55 +114,7 @@ code=$?
 grep -q "resuming from resumed.checkpoint.h5 at step" resumed.log || fail "no resume message: $(cat resumed.log)"
 [ -e resumed.checkpoint.h5 ] && fail "the checkpoint of the finished run was left behind"
 
-"$py" - whole.h5 resumed.h5 <<'EOF' || failures=$((failures + 1))
-"""Every dataset and attribute of the two results files, compared byte for byte (except the
-run-time figures and provenance that io/README.md lists as differing between runs)."""
-import sys
-import h5py
-import numpy as np
-
-DIFFER = {("/summary", "wall_seconds"), ("/summary", "cell_updates_per_second"), ("/program", "command_line"),
-          ("/program", "start_time"), ("/program", "threads")}
-a, b = h5py.File(sys.argv[1], "r"), h5py.File(sys.argv[2], "r")
-problems, datasets = [], 0
-
-
-def same(x, y):
-    x, y = np.asarray(x), np.asarray(y)
-    return x.dtype == y.dtype and x.shape == y.shape and x.tobytes() == y.tobytes()
-
-
-def visit(name, obj):
-    global datasets
-    path = "/" + name
-    other = b.get(path)
-    if other is None:
-        problems.append(f"{path} missing from the resumed results")
-        return
-    if isinstance(obj, h5py.Dataset):
-        datasets += 1
-        if not same(obj[()], other[()]):
-            problems.append(f"dataset {path} differs")
-    for key in set(obj.attrs) | set(other.attrs):
-        if (path, key) in DIFFER:
-            continue
-        if key not in obj.attrs or key not in other.attrs or not same(obj.attrs[key], other.attrs[key]):
-            problems.append(f"attribute {path}@{key} differs")
-
-
-a.visititems(visit)
-for key in set(a.attrs) | set(b.attrs):
-    if not same(a.attrs.get(key), b.attrs.get(key)):
-        problems.append(f"root attribute {key} differs")
-b.visititems(lambda name, _: None if ("/" + name) in a else problems.append(f"/{name} only in the resumed results"))
-steps = a["/summary"].attrs["steps"]
-if a["/summary"].attrs["stop_reason"] != b"time" or steps < 500:
-    problems.append(f"the reference run stopped for {a['/summary'].attrs['stop_reason']} after {steps} steps")
-for p in problems:
-    print("FAIL:", p)
-print(f"{datasets} datasets compared, {len(problems)} differences")
-sys.exit(1 if problems else 0)
-EOF
+"$py" "$here/same_results.py" whole.h5 resumed.h5 time 500 || failures=$((failures + 1))
 
 [ $failures -eq 0 ] && echo "all resume checks passed"
 exit $((failures > 0))

@@ -3,7 +3,8 @@
 # one results file per point, the merged table (HDF5 and CSV) with the parameters as written and
 # each figure equal to the peak recomputed from that point's own spectrum, a re-run that skips
 # finished points and one that reruns only a deleted point, --jobs 2 giving the same numbers bit for
-# bit, run --point, check with a sweep, the Slurm script, and errors that point at the text.
+# bit, --merge-only --plot drawing the heat map, a plane-wave sweep run as Bloch runs, run --point,
+# check with a sweep, the Slurm script, and errors that point at the text.
 # Usage: cli_sweep.sh YEEGAP_BINARY PYTHON3
 set -u
 yeegap=$1
@@ -118,6 +119,44 @@ cp "$work/cyl_sweep/sweep.csv" "$work/first.csv"
 rm "$work/cyl_sweep/point_0001.h5"
 expect rerun_missing_point 0 "2 already finished, 1 to run" -- "$yeegap" sweep "$work/cyl.yaml"
 cmp -s "$work/first.csv" "$work/cyl_sweep/sweep.csv" && ok || fail "table changed after rerunning point 1"
+
+# --merge-only --plot runs nothing and draws the heat map of the extinction over radius and wavelength.
+expect merge_only_plot 0 "sweep_cyl_extinction.png" -- "$yeegap" sweep "$work/cyl.yaml" --merge-only --plot
+py heat_map_written '
+import matplotlib.image
+image = matplotlib.image.imread("cyl_sweep/sweep_cyl_extinction.png")
+assert image.shape[:2] == (560, 700), image.shape
+'
+
+# A sweep of a plane-wave scene runs each point as a Bloch run (not as a plain Simulation, which has
+# no plane wave): each point file holds its reflectance table at its own angle, and --plot draws it.
+cat >"$work/film.yaml" <<'SCENE'
+# Invented numbers, chosen only to be small: a glass prism, 40 nm of a Drude metal, vacuum; 1D.
+scene: {version: 1, title: "film, ${angle}"}
+materials:
+  glass: {index: 1.5}
+  metal: {poles: {eps_inf: 1, drude: [{plasma_frequency: 8 eV, damping: 0.1 eV}]}}
+domain: {size: [10 nm, 10 nm, 600 nm], step: 5 nm, edges: {x: bloch, y: bloch, z: absorber}, absorber: {cells: 20}}
+bodies:
+  - {shape: slab, material: glass, axis: z, from: -400 nm, to: -50 nm}
+  - {shape: slab, material: metal, axis: z, from: -50 nm, to: -10 nm}
+excitation:
+  - plane_wave: {from: low, polarization: p, angle: ${angle}, band: {from: 500 nm, to: 800 nm},
+                 frequencies: {from: 520 nm, to: 780 nm, count: 5}}
+stop: {after: 100 fs}
+sweep:
+  angle: [10 deg, 20 deg]
+SCENE
+expect plane_wave_sweep 0 "sweep_plane_wave_reflectance.png" -- "$yeegap" sweep "$work/film.yaml" --plot
+py plane_wave_sweep_points '
+import h5py, numpy as np
+for k, angle in ((0, 10), (1, 20)):
+    g = h5py.File("film_sweep/point_000%d.h5" % k, "r")["outputs/plane_wave"]
+    a, r = g["angle_deg"][:], g["reflectance"][:]
+    assert len(r) == 5 and np.all((r > 0.5) & (r < 1)), r
+    # each row at its own angle; the band's centre frequency (615 nm) at the swept one
+    assert min(a) < angle < max(a), (k, a)
+'
 
 # Two points at a time, one thread each: the same numbers (results never depend on threads).
 expect jobs_two 0 "2 at a time" -- "$yeegap" sweep "$work/cyl.yaml" --jobs 2 -o "$work/two"

@@ -12,7 +12,12 @@
 - a Python without numpy/h5py/matplotlib gives the install hint and no traceback, from the script
   and from `yeegap view`;
 - `yeegap run --plot --json` on a coarse example writes the sidecar and figures and keeps stdout
-  one JSON object.
+  one JSON object;
+- a sweep table made here (3 gaps x 2 models, rows out of order, point files with an extinction
+  spectrum and a reflectance): one heat map per spectrum, PNG of the fixed size and not blank, a
+  panel per model, each column at its gap value and holding that point's own spectrum in nm^2;
+  `yeegap view` draws it without writing a sidecar; a lost point file leaves its column blank with
+  a note; no numpy/h5py/matplotlib gives the install hint.
 Usage: plot_check.py YEEGAP_BINARY SOURCE_DIR"""
 import json
 import os
@@ -35,6 +40,7 @@ import plot_common  # noqa: E402
 import plot_field_maps  # noqa: E402
 import plot_particles  # noqa: E402
 import plot_spectra  # noqa: E402
+import plot_sweep  # noqa: E402
 
 HINT = "install python3-matplotlib python3-h5py"
 C0, ETA0 = 299792458.0, 376.730313668
@@ -139,6 +145,43 @@ def write_results(path):
         g["theta"], g["phi"] = theta.reshape(-1), phi.reshape(-1)
         g["omega"], g["wavelength_nm"] = OMEGA[:1], WAVELENGTHS_NM[:1]
         g["directivity"] = 1.5 * np.sin(theta.reshape(1, -1)) ** 2
+
+
+# A sweep (invented numbers): rows out of gap order, a peak that moves with the gap and is weaker
+# for one model, and a reflectance dip that moves the same way.
+SWEEP_GAPS = [0.2, 0.1, 0.15, 0.1, 0.2, 0.15]
+SWEEP_MODELS = ["classical", "classical", "classical", "quantum", "quantum", "quantum"]
+SWEEP_WAVELENGTHS_NM = np.linspace(900.0, 500.0, 41)  # descending, as omega ascending gives
+
+
+def sweep_spectrum(gap, model):
+    """Extinction in m^2: a Lorentzian peak at 600 nm + 200 nm (0.2 nm - gap)/0.1 nm."""
+    centre = 600 + 2000 * (0.2 - gap)
+    return (1.0 if model == "classical" else 0.4) * 1e-15 / (1 + ((SWEEP_WAVELENGTHS_NM - centre) / 30) ** 2)
+
+
+def write_sweep(folder):
+    os.makedirs(folder)
+    for row, (gap, model) in enumerate(zip(SWEEP_GAPS, SWEEP_MODELS)):
+        with h5py.File(os.path.join(folder, f"point_{row:04d}.h5"), "w") as f:
+            f.attrs["format"] = np.bytes_("yeegap-results")
+            f.attrs["format_version"] = np.int32(1)
+            g = f.create_group("outputs/dimer")
+            g.attrs["kind"], g.attrs["per_unit_length"] = np.bytes_("cross_sections"), np.int32(0)
+            g["wavelength_nm"] = SWEEP_WAVELENGTHS_NM
+            g["extinction"] = sweep_spectrum(gap, model)
+            g = f.create_group("outputs/plane_wave")
+            g.attrs["kind"], g.attrs["angle_scan"] = np.bytes_("reflectance"), np.int32(0)
+            g["wavelength_nm"] = SWEEP_WAVELENGTHS_NM
+            g["reflectance"] = 1 - 0.8 * sweep_spectrum(gap, model) / 1e-15
+    with h5py.File(os.path.join(folder, "sweep.h5"), "w") as t:
+        t.attrs["format"], t.attrs["format_version"] = np.bytes_("yeegap-sweep"), np.int32(1)
+        t["points/index"] = np.arange(len(SWEEP_GAPS), dtype=np.int64)
+        t["points/file"] = fixed([f"point_{row:04d}.h5" for row in range(len(SWEEP_GAPS))])
+        t["parameters/gap"] = np.array(SWEEP_GAPS)
+        t["parameters/gap"].attrs["units"], t["parameters/gap"].attrs["kind"] = np.bytes_("nm"), np.bytes_("number")
+        t["parameters/model"] = fixed(SWEEP_MODELS)
+        t["parameters/model"].attrs["units"], t["parameters/model"].attrs["kind"] = np.bytes_("none"), np.bytes_("text")
 
 
 def png_is_a_picture(path):
@@ -250,6 +293,57 @@ with tempfile.TemporaryDirectory() as work:
         check(False, f"stdout is not one JSON object: {done.stdout[:300]!r}")
     for name in ("coarse.xmf", "coarse_flux.png", "coarse_probe_at_dipole.png", "coarse_xz_plane_650nm.png"):
         check(os.path.isfile(os.path.join(work, name)), f"run --plot did not write {name}")
+
+    # 6. Sweep heat maps: the script on a sweep table, the columns' places and values, `yeegap view`.
+    folder = os.path.join(work, "gaps_sweep")
+    write_sweep(folder)
+    table = os.path.join(folder, "sweep.h5")
+    done = subprocess.run([sys.executable, script, table], capture_output=True, text=True, env=headless)
+    check(done.returncode == 0, f"sweep plots: exit code {done.returncode}: {done.stderr}")
+    for stem in ("sweep_dimer_extinction", "sweep_plane_wave_reflectance"):
+        for ext in ("png", "svg"):
+            path = os.path.join(folder, f"{stem}.{ext}")
+            check(os.path.isfile(path) and os.path.getsize(path) > 1000, f"{path} missing or tiny")
+        png = os.path.join(folder, f"{stem}.png")
+        if os.path.isfile(png):
+            width, height, colours, coloured = png_is_a_picture(png)
+            check((width, height) == plot_common.FIGURE_SIZE_PX, f"{stem}: {width} x {height} pixels")
+            check(colours >= 20, f"{stem}: only {colours} distinct colours (blank?)")
+            # Two panels of colour map fill most of the figure; a figure of empty axes has none.
+            check(coloured > 0.3, f"{stem}: only {coloured:.2%} of the pixels are coloured")
+            print(f"{stem}.png: {width} x {height}, {colours} colours, {coloured:.1%} coloured")
+    notes = []
+    figures = dict(plot_sweep.sweep_figures(table, folder, ["png"], notes))
+    fig = figures.get(os.path.join(folder, "sweep_dimer_extinction"))
+    check(fig is not None and not notes, f"no extinction heat map ({list(figures)}, notes {notes})")
+    if fig is not None:
+        panels = [ax for ax in fig.axes if ax.get_title()]
+        check([ax.get_title() for ax in panels] == ["model = classical", "model = quantum"],
+              f"panels {[ax.get_title() for ax in panels]}")
+        # Gaps 0.1, 0.15, 0.2 nm: columns between the midpoints, ends half a spacing out.
+        want_edges = [(0.075, 0.125), (0.125, 0.175), (0.175, 0.225)]
+        wl_sorted = np.sort(SWEEP_WAVELENGTHS_NM)
+        for ax, model in zip(panels, ("classical", "quantum")):
+            meshes = [c for c in ax.collections if hasattr(c, "get_coordinates")]
+            check(len(meshes) == 3, f"{model}: {len(meshes)} columns, want 3")
+            for mesh, (lo, hi), gap in zip(meshes, want_edges, (0.1, 0.15, 0.2)):
+                xy = mesh.get_coordinates()
+                check(np.allclose([xy[0, 0, 0], xy[0, -1, 0]], [lo, hi]), f"{model} gap {gap}: column x {xy[0, :, 0]}")
+                check(np.isclose(xy[0, 0, 1], wl_sorted[0] - 5) and np.isclose(xy[-1, 0, 1], wl_sorted[-1] + 5),
+                      f"{model} gap {gap}: column y from {xy[0, 0, 1]} to {xy[-1, 0, 1]}")
+                want = sweep_spectrum(gap, model)[np.argsort(SWEEP_WAVELENGTHS_NM)] * 1e18  # nm^2
+                check(np.allclose(np.ravel(mesh.get_array()), want, rtol=1e-12), f"{model} gap {gap}: column values")
+    done = subprocess.run([yeegap, "view", table], capture_output=True, text=True, env=headless)
+    check(done.returncode == 0 and "sweep_dimer_extinction.png" in done.stderr,
+          f"yeegap view sweep.h5: exit {done.returncode}, {done.stderr!r}")
+    check(not os.path.exists(os.path.join(folder, "sweep.xmf")), "yeegap view wrote a sidecar for a sweep table")
+    done = subprocess.run([yeegap, "view", table], capture_output=True, text=True, env=dict(headless, YEEGAP_PYTHON=bare))
+    check(done.returncode == 1 and HINT in done.stderr and "Traceback" not in done.stderr,
+          f"yeegap view sweep.h5 without packages: exit {done.returncode}, stderr {done.stderr!r}")
+    os.remove(os.path.join(folder, "point_0004.h5"))
+    done = subprocess.run([sys.executable, script, table], capture_output=True, text=True, env=headless)
+    check(done.returncode == 0 and "cannot read 1 point files (point_0004.h5)" in done.stderr,
+          f"lost point file: exit {done.returncode}, {done.stderr!r}")
 
 print(f"{passes} passed, {len(failures)} failed")
 sys.exit(1 if failures else 0)

@@ -6,6 +6,7 @@
 #include <unistd.h>
 
 #include <complex>
+#include <cstdint>
 #include <filesystem>
 #include <functional>
 #include <numeric>
@@ -108,3 +109,36 @@ TEST_F(H5, SlabsAndComplexPartsLandInPlace) {
 }
 
 }  // namespace
+
+TEST_F(H5, WhatIsWrittenReadsBackAsVectorsAndStringLists) {
+  const std::string path = (dir_ / "back.h5").string();
+  {
+    h5::File f = h5::File::create(path);
+    {
+      const h5::Group g = f.create_group("a").create_group("b");
+      g.write("numbers", std::vector<std::int64_t>{3, -1, 7});
+      g.write("grid", std::vector<double>{1, 2, 3, 4, 5, 6}, h5::Shape{2, 3});
+      g.write_strings("names", {"x", "longer name", ""});
+      g.write_string("text", "one line\nand another");
+      g.set_attribute("components", std::vector<std::string>{"Ex", "Hy"});
+      g.set_attribute("kind", "field_map");
+    }
+    f.close();
+  }
+  const h5::File f = h5::File::open(path);
+  EXPECT_TRUE(f.exists("a/b/numbers"));
+  EXPECT_FALSE(f.exists("a/c/numbers")) << "a missing middle link answers false, not an exception";
+  EXPECT_FALSE(f.exists("a/b/none"));
+  EXPECT_EQ(f.open_dataset("a/b/numbers").read_vector<std::int64_t>(), (std::vector<std::int64_t>{3, -1, 7}));
+  EXPECT_EQ(f.open_dataset("a/b/grid").read_vector<double>(), (std::vector<double>{1, 2, 3, 4, 5, 6}));
+  EXPECT_EQ(f.open_dataset("a/b/names").read_strings(), (std::vector<std::string>{"x", "longer name", ""}));
+  EXPECT_EQ(f.open_dataset("a/b/text").read_strings(), (std::vector<std::string>{"one line\nand another"}));
+  EXPECT_EQ(f.open_dataset("a/b/text").read_string(), "one line\nand another");
+  const h5::Group b = f.open_group("a/b");
+  EXPECT_EQ(b.members(), (std::vector<std::string>{"grid", "names", "numbers", "text"})) << "name order";
+  EXPECT_EQ(b.string_attributes("components"), (std::vector<std::string>{"Ex", "Hy"}));
+  EXPECT_EQ(b.string_attributes("kind"), (std::vector<std::string>{"field_map"})) << "a scalar is a list of one";
+  const std::string e = message_of([&] { (void)f.open_dataset("a/b/numbers").read_strings(); });
+  EXPECT_NE(e.find("'/a/b/numbers'"), std::string::npos) << e;
+  EXPECT_NE(e.find("not a list of fixed-length strings"), std::string::npos) << e;
+}

@@ -154,6 +154,26 @@ solver::RunResults make_results(long steps = 1234) {
   x.omegas = {omega_500nm, omega_600nm};
   x.power = {1.5e-20, 2.5e-20};
   r.fluxes.push_back(x);
+
+  solver::DiffractionOrdersResult o;  // two rows: three reflected orders in the first, one in the second
+  o.name = "orders_a";
+  o.axis = 2;
+  o.period = {900e-9, 1e-9};
+  o.diffracting = {true, false};
+  o.incident_index = 1.0;
+  o.transmitted_index = 1.5;
+  o.omegas = {omega_500nm, omega_600nm};
+  o.incidence_angles = {0.1, 0.12};
+  o.reflected_sum = {0.3, 0.2};
+  o.transmitted_sum = {0.7, 0.8};
+  o.row = {0, 0, 0, 1};
+  o.side = {-1, -1, -1, -1};
+  o.order_b = {-1, 0, 1, 0};
+  o.order_c = {0, 0, 0, 0};
+  o.direction = {{-0.5, 0, -0.8660254}, {0.1, 0, -0.99498744}, {0.7, 0, -0.71414284}, {0.12, 0, -0.99277389}};
+  o.angle = {0.5235988, 0.1001674, 0.7753975, 0.1202899};
+  o.efficiency = {0.1, 0.15, 0.05, 0.2};
+  r.orders.push_back(o);
   return r;
 }
 
@@ -232,8 +252,8 @@ TEST_F(ResultsWriter, EveryDatasetCarriesAUnitsAttribute) {
   std::vector<std::string> datasets;
   H5Ovisit2(f.id(), H5_INDEX_NAME, H5_ITER_NATIVE, collect_datasets, &datasets, H5O_INFO_BASIC);
   // scene 1, grid 3, materials 2, sources 10 (3 axes, spectrum and incident re/im, position, direction,
-  // moment), probe 4, field map 6 axes + 3 x 2 parts + E_squared, flux 4
-  EXPECT_EQ(datasets.size(), 1u + 3 + 2 + 10 + 4 + 13 + 4);
+  // moment), probe 4, field map 6 axes + 3 x 2 parts + E_squared, flux 4, orders 3 axes + 10
+  EXPECT_EQ(datasets.size(), 1u + 3 + 2 + 10 + 4 + 13 + 4 + 13);
   for (const auto& d : datasets) {
     EXPECT_GT(H5Aexists_by_name(f.id(), d.c_str(), "units", H5P_DEFAULT), 0) << d;
     EXPECT_FALSE(read_string_attribute(f.id(), d, "units").empty()) << d;
@@ -504,6 +524,23 @@ TEST_F(ResultsWriter, EmptyResultsStillMakeAValidFile) {
   EXPECT_EQ(read_string_attribute(f.id(), "/", "format"), "yeegap-results");
   EXPECT_EQ(dataset_shape(f.id(), "/materials/map"), (std::vector<hsize_t>{0, 0, 0}));
   EXPECT_GT(H5Lexists(f.id(), "/outputs", H5P_DEFAULT), 0);
+}
+
+TEST_F(ResultsWriter, OrdersListOneEntryPerOrderWithRowSideAndOrderNumbers) {
+  const solver::RunResults r = make_results();
+  Opened f(write_standard());
+  const std::string g = "/outputs/orders_a";
+  EXPECT_EQ(read_string_attribute(f.id(), g, "kind"), "orders");
+  EXPECT_EQ(read_string_list_attribute(f.id(), g, "lateral_axes"), (std::vector<std::string>{"x", "y"}));
+  EXPECT_EQ(read_doubles(f.id(), g + "/efficiency"), r.orders[0].efficiency);
+  EXPECT_EQ(read_dataset<std::int32_t>(f.id(), g + "/row", H5T_NATIVE_INT32), (std::vector<std::int32_t>{0, 0, 0, 1}));
+  EXPECT_EQ(read_dataset<std::int32_t>(f.id(), g + "/order", H5T_NATIVE_INT32),
+            (std::vector<std::int32_t>{-1, 0, 0, 0, 1, 0, 0, 0}));
+  const std::vector<double> d = read_doubles(f.id(), g + "/direction");
+  ASSERT_EQ(d.size(), 12u);
+  EXPECT_EQ(d[3 * 2], 0.7);  // (n, 3), the third order's x
+  EXPECT_EQ(read_doubles(f.id(), g + "/reflected_sum"), r.orders[0].reflected_sum);
+  EXPECT_DOUBLE_EQ(read_double_attribute(f.id(), g, "transmitted_index"), 1.5);
 }
 
 }  // namespace

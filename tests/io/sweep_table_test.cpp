@@ -13,7 +13,7 @@
 
 #include "base/constants.h"
 #include "io/h5.h"
-#include "io/h5_read.h"
+#include "io/h5.h"
 #include "io/sweep_figures.h"
 #include "io/sweep_table.h"
 
@@ -147,15 +147,15 @@ TEST_F(SweepFiles, MergedTableHasParameterAndFigureColumns) {
   write_sweep_table(h5, csv, plan, rows, {"point_0001.h5", "point_0002.h5"}, "s.yaml", scene_text);
 
   const h5::File f = h5::File::open(h5);
-  EXPECT_EQ(h5::read_int64s(f, "/points/index"), (std::vector<std::int64_t>{1, 2}));
-  EXPECT_EQ(h5::read_strings(f, "/points/file"), (std::vector<std::string>{"point_0001.h5", "point_0002.h5"}));
-  EXPECT_EQ(h5::read_doubles(f, "/parameters/gap"), (std::vector<double>{0.3, 1.0}));
-  EXPECT_EQ(h5::read_strings(f, "/parameters/model"), (std::vector<std::string>{"b", "a"}));
-  EXPECT_EQ(h5::read_doubles(f, "/figures/x.power_peak"), (std::vector<double>{2.5, 4.0}));
-  const auto only = h5::read_doubles(f, "/figures/only.here");
+  EXPECT_EQ(f.open_dataset("points/index").read_vector<std::int64_t>(), (std::vector<std::int64_t>{1, 2}));
+  EXPECT_EQ(f.open_dataset("points/file").read_strings(), (std::vector<std::string>{"point_0001.h5", "point_0002.h5"}));
+  EXPECT_EQ(f.open_dataset("parameters/gap").read_vector<double>(), (std::vector<double>{0.3, 1.0}));
+  EXPECT_EQ(f.open_dataset("parameters/model").read_strings(), (std::vector<std::string>{"b", "a"}));
+  EXPECT_EQ(f.open_dataset("figures/x.power_peak").read_vector<double>(), (std::vector<double>{2.5, 4.0}));
+  const auto only = f.open_dataset("figures/only.here").read_vector<double>();
   EXPECT_EQ(only[0], 7);
   EXPECT_TRUE(std::isnan(only[1]));
-  EXPECT_EQ(h5::read_string(f, "/scene/text"), scene_text);
+  EXPECT_EQ(f.open_dataset("scene/text").read_string(), scene_text);
 
   std::ifstream in(csv);
   std::stringstream all;

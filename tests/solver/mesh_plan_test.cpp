@@ -80,5 +80,39 @@ TEST(MeshPlan, RefineZoneAndTouchingBodies) {
     }
 }
 
+TEST(MeshPlan, ThinLayerOfAStackIsNotAGapButAJunctionBetweenMetalFilmsIs) {
+  // Glass / 2 nm adhesion layer / gold on 1 nm cells: the glass and gold slabs are 2 nm apart, but
+  // that is a layer of the stack, not a gap: no zone (it would halve the step of a film run).
+  Scene s = testing::vacuum_box({20, 1, 200}, 1 * nm, testing::all_edges(EdgeKind::absorber));
+  MaterialSpec glass, metal;
+  glass.name = "glass";
+  glass.poles.eps_inf = 2.3;
+  metal.name = "metal";
+  metal.poles.drude.push_back({1.37e16, 1e14});
+  s.materials.push_back(glass);  // 1
+  s.materials.push_back(metal);  // 2
+  s.bodies.push_back({geometry::make_slab(2, -100 * nm, -2.3 * nm), 1, {}});
+  s.bodies.push_back({geometry::make_slab(2, -2.3 * nm, -0.3 * nm), 2, {}});
+  s.bodies.push_back({geometry::make_slab(2, -0.3 * nm, 47.7 * nm), 2, {}});
+  const MeshPlan p = plan_mesh(s);
+  EXPECT_TRUE(p.gaps.empty());
+  EXPECT_EQ(p.grid.n[2], 200);  // the uniform grid
+  EXPECT_TRUE(std::any_of(p.notes.begin(), p.notes.end(),
+                          [](const std::string& n) { return n.find("layer of a stack") != std::string::npos; }));
+  // A bounded body over the film still gets its gap (a particle on a mirror).
+  Scene q = s;
+  q.bodies.push_back({geometry::make_sphere({0, 0, 48.7 * nm + 20 * nm}, 20 * nm), 2, {}});
+  const MeshPlan pq = plan_mesh(q);
+  ASSERT_EQ(pq.gaps.size(), 1u);
+  EXPECT_NEAR(pq.gaps[0].width, 1 * nm, 1e-6 * nm);
+  // Two metal films 1 nm apart (a metal-insulator-metal junction) are a gap: 4 cells across.
+  Scene m = s;
+  m.bodies.push_back({geometry::make_slab(2, 48.7 * nm, 90 * nm), 2, {}});
+  const MeshPlan pm = plan_mesh(m);
+  ASSERT_EQ(pm.gaps.size(), 1u);
+  EXPECT_NEAR(pm.gaps[0].width, 1 * nm, 1e-6 * nm);
+  EXPECT_NEAR(pm.grid.min_spacing(2), 0.25 * nm, 1e-6 * nm);
+}
+
 }  // namespace
 }  // namespace yeegap::solver

@@ -7,6 +7,7 @@
 
 #include <fmt/format.h>
 
+#include "base/errors.h"
 #include "commands.h"
 #include "io/scene_reader.h"
 #include "json.h"
@@ -74,7 +75,12 @@ SweepCost sweep_cost(const std::string& text, const CheckOptions& o, const io::S
   for (std::size_t k = 0; k < c.points; ++k) {
     const solver::Scene s = io::read_scene_point(text, o.scene, plan, k, o.overrides, k == 0 ? io::NoteSink(io::notes_to_stderr)
                                                                                               : io::NoteSink([](const std::string&) {}));
-    const solver::ModelSummary m = solver::plan_scene(s);
+    solver::ModelSummary m;
+    try {
+      m = solver::plan_scene(s);
+    } catch (const RunError& e) {
+      throw RunError(fmt::format("sweep point {} ({}): {}", k, plan.describe(k), e.what()));
+    }
     c.cell_updates += cell_updates(m);
     c.fewest_cells = k == 0 ? m.cell_count : std::min(c.fewest_cells, m.cell_count);
     c.most_cells = std::max(c.most_cells, m.cell_count);

@@ -15,7 +15,7 @@ void resume_or_start(solver::Checkpointable& state, const solver::Scene& scene, 
   std::error_code ec;
   if (resume) {
     io::read_checkpoint(c.path, state, scene, c.info);
-    std::fprintf(stderr, "yeegap: resuming from %s at step %ld\n", c.path.c_str(), state.state_counters().step);
+    std::fprintf(stderr, "yeegap: resuming from %s at %s\n", c.path.c_str(), c.where(state.state_counters().step).c_str());
   } else if (std::filesystem::exists(c.path, ec)) {
     std::fprintf(stderr, "yeegap: note: %s is from an earlier run that did not finish; this run starts over and "
                  "replaces it (--resume continues it instead)\n", c.path.c_str());
@@ -39,7 +39,7 @@ CheckpointedResults run_with_checkpoints(solver::Checkpointable& state, const Ru
         io::write_checkpoint(c.path, state, scene, c.info);
         progress.break_line();
         std::error_code ec;
-        std::fprintf(stderr, "yeegap: checkpoint at step %ld in %s (%.3g MB, %.1f s)\n", state.state_counters().step,
+        std::fprintf(stderr, "yeegap: checkpoint at %s in %s (%.3g MB, %.1f s)\n", c.where(state.state_counters().step).c_str(),
                      c.path.c_str(), std::filesystem::file_size(c.path, ec) / 1e6,
                      std::chrono::duration<double>(clock::now() - begin).count());
       } catch (const std::exception& e) {
@@ -54,8 +54,8 @@ CheckpointedResults run_with_checkpoints(solver::Checkpointable& state, const Ru
   out.interrupted = out.results.summary.stop_reason == "interrupted";
   if (out.interrupted) {
     progress.break_line();
-    std::fprintf(stderr, "yeegap: stopped by %s at step %ld\n", signals.received() == SIGINT ? "SIGINT" : "SIGTERM",
-                 state.state_counters().step);
+    std::fprintf(stderr, "yeegap: stopped by %s at %s\n", signals.received() == SIGINT ? "SIGINT" : "SIGTERM",
+                 c.where(state.state_counters().step).c_str());
     try {  // first: it is what lets the run finish later
       io::write_checkpoint(c.path, state, scene, c.info);
       std::fprintf(stderr, "yeegap: checkpoint in %s\n", c.path.c_str());

@@ -18,6 +18,9 @@ struct CheckpointSettings {
   std::string path;            // <results>.checkpoint.h5
   double every_seconds = 0;    // 0: only on a signal
   io::CheckpointInfo info;
+  /// How messages name the run's place from its state counter; empty: "step N".
+  std::function<std::string(long)> position;
+  std::string where(long counter) const { return position ? position(counter) : "step " + std::to_string(counter); }
 };
 
 struct CheckpointedResults {

@@ -66,10 +66,12 @@ double parse_spectral(const std::string& option, const std::string& text) {
 
 materials::BarrierKind parse_barrier(const std::string& word) {
   if (word == "rectangular") return materials::BarrierKind::rectangular;
-  if (word == "image") return materials::BarrierKind::image_rounded;
-  if (word == "fit") return materials::BarrierKind::exponential_fit;
-  option_error("--barrier", fmt::format("unknown barrier '{}'{}", word,
-                                        io::suggestion(word, {"rectangular", "image", "fit"})));
+  // The scene's words (io/scene_tunnelling.cpp) and their short forms.
+  if (word == "image_rounded" || word == "image") return materials::BarrierKind::image_rounded;
+  if (word == "exponential_fit" || word == "fit") return materials::BarrierKind::exponential_fit;
+  option_error("--barrier", fmt::format("unknown barrier '{}' (expected rectangular, image_rounded or "
+                                        "exponential_fit){}",
+                                        word, io::suggestion(word, {"rectangular", "image_rounded", "exponential_fit"})));
 }
 
 const materials::TunnelMetal& parse_metal(const std::string& name) {
@@ -166,7 +168,7 @@ void add_gap_command(CLI::App& app, int& exit_code) {
   cmd->add_option("--step", opts->step, "gap width step")->capture_default_str();
   cmd->add_option("--at", opts->at, "photon energy or vacuum wavelength for eps_g (1.8eV, 700nm)")
       ->capture_default_str();
-  cmd->add_option("--barrier", opts->barrier, "rectangular, image or fit")->capture_default_str();
+  cmd->add_option("--barrier", opts->barrier, "rectangular, image_rounded or exponential_fit (as in scenes; image and fit also accepted)")->capture_default_str();
   cmd->add_flag("--json", opts->json, "print a JSON array of rows on stdout");
   cmd->callback([opts, &exit_code] { exit_code = guarded([&] { return run_gap(*opts); }); });
 }

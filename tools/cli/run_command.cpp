@@ -9,6 +9,7 @@
 #include <cstdio>
 #include <ctime>
 #include <filesystem>
+#include <memory>
 #include <optional>
 
 #include <fmt/format.h>
@@ -23,6 +24,8 @@
 #include "progress.h"
 #include "checkpointed_run.h"
 #include "run_control.h"
+#include "solver/angle_scan.h"
+#include "solver/bloch_run.h"
 #include "solver/run_scene.h"
 #include "solver/simulation.h"
 #include "viewer_outputs.h"
@@ -232,20 +235,35 @@ int run_scene(const RunOptions& o) {
   const std::string started = now_iso8601();
 
   CheckpointSettings checkpoint{io::checkpoint_path(output), parse_duration(o.checkpoint_every).value_or(0),
-                                {YEEGAP_VERSION, o.overrides}};  // the duration was checked by the option
+                                {YEEGAP_VERSION, o.overrides}, {}};  // the duration was checked by the option
   if (o.point) checkpoint.info.overrides.push_back(fmt::format("(sweep point {})", *o.point));  // points share one text
 
-  // A Bloch run (plane_wave, complex fields) holds several Simulations and writes no checkpoint yet.
-  const bool bloch = solver::is_bloch_scene(scene);
-  if (bloch && o.resume)
-    throw RunError(fmt::format("{}: --resume: runs with a plane_wave or a Bloch wavevector write no checkpoint yet",
-                               o.scene));
+  // Three kinds of run, each Checkpointable: an ordinary Simulation, a Bloch run (complex fields
+  // and/or a plane wave in a Bloch cell: several Simulations in lock step) and an angle scan of
+  // Bloch runs (checkpointed by whole angles: an unfinished angle runs again on resume).
   std::optional<solver::Simulation> sim;
-  if (!bloch) {
+  std::unique_ptr<solver::BlochRun> bloch;
+  std::unique_ptr<solver::AngleScan> scan;
+  solver::Checkpointable* state = nullptr;
+  RunFunction run_function;
+  if (!solver::is_bloch_scene(scene)) {
     sim.emplace(scene);
-    resume_or_start(*sim, scene, checkpoint, o.resume);
+    state = &*sim;
+    run_function = [&](const auto& report, const auto& between_steps) { return sim->run(report, between_steps); };
+  } else if (solver::is_angle_scan(scene)) {
+    scan = std::make_unique<solver::AngleScan>(solver::bloch_scene_as_run(scene));
+    state = scan.get();
+    run_function = [&](const auto& report, const auto& between_steps) { return scan->run(report, between_steps); };
+    checkpoint.position = [total = scan->angle_count()](long done) {
+      return fmt::format("{} of {} angles finished", done, total);
+    };
+  } else {
+    bloch = std::make_unique<solver::BlochRun>(solver::bloch_scene_as_run(scene));
+    state = bloch.get();
+    run_function = [&](const auto& report, const auto& between_steps) { return bloch->run(report, between_steps); };
   }
-  const solver::ModelSummary plan = bloch ? solver::plan_scene(scene) : sim->summary();
+  resume_or_start(*state, scene, checkpoint, o.resume);
+  const solver::ModelSummary plan = sim ? sim->summary() : solver::plan_scene(scene);
   std::fprintf(stderr, "yeegap: %s: %d x %d x %d cells, dt %.4g fs, %s%ld steps, %.1f MB, %d thread%s\n", o.scene.c_str(),
                plan.cells[0], plan.cells[1], plan.cells[2], plan.time_step * 1e15, plan.steps_estimated ? "about " : "",
                plan.steps, plan.memory_bytes / 1e6, threads, threads == 1 ? "" : "s");
@@ -254,13 +272,7 @@ int run_scene(const RunOptions& o) {
   CheckpointedResults run;
   {
     ProgressLine progress;
-    if (bloch) {
-      run.results = solver::run_scene(scene, [&](const solver::Progress& p) { progress.update(p); });
-    } else {
-      run = run_with_checkpoints(
-          *sim, [&](const auto& report, const auto& between_steps) { return sim->run(report, between_steps); }, scene,
-          checkpoint, progress);
-    }
+    run = run_with_checkpoints(*state, run_function, scene, checkpoint, progress);
   }
   const solver::RunResults& results = run.results;
   const bool interrupted = run.interrupted, checkpoint_failed = run.checkpoint_failed;

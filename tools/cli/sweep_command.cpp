@@ -26,8 +26,10 @@
 #include "io/sweep_table.h"
 #include "json.h"
 #include "progress.h"
+#include "solver/run_scene.h"
 #include "solver/simulation.h"
 #include "sweep_batch.h"
+#include "viewer_outputs.h"
 
 namespace yeegap::cli {
 
@@ -45,6 +47,7 @@ struct SweepOptions {
   std::optional<std::size_t> point;
   bool merge_only = false;
   bool json = false;
+  bool plot = false;
   std::string command_line;
 };
 
@@ -86,12 +89,12 @@ double run_point(const Point& p, const io::SweepPlan& plan, const SweepOptions& 
   omp_set_num_threads(threads);
   const std::string started = now_iso8601();
   const auto start = std::chrono::steady_clock::now();
-  solver::Simulation sim(p.scene);
   solver::RunResults results;
   {
     std::optional<ProgressLine> progress;
     if (show_progress) progress.emplace();
-    results = sim.run([&](const solver::Progress& pr) {
+    // Any kind of run: a plain Simulation, a Bloch run or an angle scan (a plane_wave scene).
+    results = solver::run_scene(p.scene, [&](const solver::Progress& pr) {
       if (progress) progress->update(pr);
     });
   }
@@ -239,6 +242,7 @@ int run_sweep(const SweepOptions& o) {
         .number("not_finished", static_cast<double>(missing.size()));
     std::printf("%s\n", j.str().c_str());
   }
+  if (o.plot && !rows.empty()) make_plots(table);  // a failure is reported but leaves the exit code alone
   return failure_code();
 }
 
@@ -257,7 +261,8 @@ void add_sweep_command(CLI::App& app, int& exit_code, const std::string& command
       "  yeegap sweep scene.yaml --jobs 2 -o runs/gaps                two at a time, threads split\n"
       "  yeegap sweep scene.yaml --batch slurm                        write a Slurm array script instead\n"
       "  yeegap sweep scene.yaml --point 3                            run point 3 only (no merge)\n"
-      "  yeegap sweep scene.yaml --merge-only                         merge the points finished so far");
+      "  yeegap sweep scene.yaml --merge-only                         merge the points finished so far\n"
+      "  yeegap sweep scene.yaml --merge-only --plot                  ... and draw the heat maps");
   cmd->add_option("scene", opts->scene, "scene file (YAML) with a sweep block")->required();
   cmd->add_option("-o,--output", opts->output, "folder for the point files and the table (default: next to the scene)");
   cmd->add_option("--set", opts->overrides, "override a scene value in every point, e.g. --set domain.step=2nm (repeatable)");
@@ -269,6 +274,9 @@ void add_sweep_command(CLI::App& app, int& exit_code, const std::string& command
   CLI::Option* point = cmd->add_option("--point", opts->point, "run only this point (counted from 0) and do not merge");
   cmd->add_flag("--merge-only", opts->merge_only, "run nothing; merge the points already finished")->excludes(point);
   cmd->add_flag("--json", opts->json, "print a one-object summary on stdout at the end");
+  cmd->add_flag("--plot", opts->plot,
+                "also write heat maps (PNG, SVG) of each spectrum over the swept parameter and wavelength next to "
+                "the table (needs python3-matplotlib)");
   opts->command_line = command_line;
   cmd->callback([opts, &exit_code] { exit_code = guarded([&] { return run_sweep(*opts); }); });
 }

@@ -6,9 +6,12 @@
   <stem>_<map>_<wl>nm    |E|^2 of each field map at each wavelength, with the material boundaries
                          (|E|^2/|E_inc|^2 when the run has a plane wave)
   <stem>_<name>          cross sections against wavelength; far-field directivity, polar
+For a sweep's merged table (sweep.h5, format yeegap-sweep) instead:
+  <stem>_<output>_<quantity>  a heat map of that spectrum over the swept parameter and the
+                         wavelength (plot_sweep.py), read from the point files beside the table
 Headless (matplotlib's Agg backend). `yeegap view` and `yeegap run --plot` run this script.
 
-Usage: yeegap_plot.py RESULTS.h5 [--out-dir DIR] [--formats png,svg]
+Usage: yeegap_plot.py RESULTS.h5|sweep.h5 [--out-dir DIR] [--formats png,svg]
 Exit codes: 0 figures written, 1 a failure while plotting, 2 not a readable results file,
 3 numpy, h5py or matplotlib missing (with the packages to install)."""
 import argparse
@@ -37,21 +40,27 @@ def import_stack():
 
 def parse_arguments(argv):
     p = argparse.ArgumentParser(description="Write PNG and SVG figures of a yeegap results file.")
-    p.add_argument("results", help="results file (HDF5) written by yeegap run")
+    p.add_argument("results", help="results file (HDF5) written by yeegap run, or a sweep's sweep.h5")
     p.add_argument("--out-dir", help="where to write the figures (default: next to the results file)")
     p.add_argument("--formats", default="png,svg", help="comma-separated image formats (default: png,svg)")
     return p.parse_args(argv)
 
 
 def write_figures(results, out_dir, formats):
-    """Makes every figure of the results file; returns the written paths and notes for the user."""
+    """Makes every figure of the results file (or sweep table); returns the written paths and notes
+    for the user."""
     from plot_common import open_results, output_stem, outputs_of_kind, save, wavelength_label
     from plot_field_maps import field_map_figures
     from plot_particles import cross_sections_figure, far_field_figure
     from plot_probes import probe_figure
     from plot_spectra import flux_figure
+    from plot_sweep import is_sweep_table, sweep_figures
 
     written, notes = [], []
+    if is_sweep_table(results):
+        for stem, fig in sweep_figures(results, out_dir, formats, notes):
+            written += save(fig, stem, formats)
+        return written, notes
     with open_results(results) as f:
         fig = flux_figure(f, notes)
         if fig is not None:
@@ -92,7 +101,7 @@ def main(argv):
     for note in notes:
         say(note)
     if not written:
-        say(f"{args.results} has no flux, probe, cross-section, far-field or field-map output to plot")
+        say(f"{args.results} has no flux, probe, cross-section, far-field, field-map or reflectance output to plot")
     else:
         say(f"{len(written)} figures in {out_dir}: " + ", ".join(os.path.basename(p) for p in written))
     return 0
