@@ -154,7 +154,7 @@ for k, angle in ((0, 10), (1, 20)):
     g = h5py.File("film_sweep/point_000%d.h5" % k, "r")["outputs/plane_wave"]
     a, r = g["angle_deg"][:], g["reflectance"][:]
     assert len(r) == 5 and np.all((r > 0.5) & (r < 1)), r
-    # each row at its own angle; the band's centre frequency (615 nm) at the swept one
+    # each row at its own angle; at the band centre frequency (615 nm), the swept one
     assert min(a) < angle < max(a), (k, a)
 '
 

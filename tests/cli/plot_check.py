@@ -195,6 +195,22 @@ def png_is_a_picture(path):
     return image.shape[1], image.shape[0], colours, coloured
 
 
+def check_figures(folder, prefix, stems, min_coloured):
+    """Each stem has a PNG and an SVG in `folder`; the PNG has the fixed size, is not blank (many
+    colours) and has at least `min_coloured` of its pixels coloured."""
+    for stem in stems:
+        for ext in ("png", "svg"):
+            path = os.path.join(folder, f"{prefix}{stem}.{ext}")
+            check(os.path.isfile(path) and os.path.getsize(path) > 1000, f"{path} missing or tiny")
+        png = os.path.join(folder, f"{prefix}{stem}.png")
+        if os.path.isfile(png):
+            width, height, colours, coloured = png_is_a_picture(png)
+            check((width, height) == plot_common.FIGURE_SIZE_PX, f"{stem}: {width} x {height} pixels")
+            check(colours >= 20, f"{stem}: only {colours} distinct colours (blank?)")
+            check(coloured > min_coloured, f"{stem}: only {coloured:.2%} of the pixels are coloured (nothing drawn?)")
+            print(f"{stem}.png: {width} x {height}, {colours} colours, {coloured:.1%} coloured")
+
+
 def without_python_packages(work):
     """An interpreter that cannot import numpy, h5py or matplotlib: Debian's python3 with -S (no
     site directories, so no dist-packages)."""
@@ -216,17 +232,7 @@ with tempfile.TemporaryDirectory() as work:
     check(done.returncode == 0, f"plot script exit code {done.returncode}: {done.stderr}")
     check(done.stdout == "", f"the plot script wrote to stdout: {done.stdout!r}")
     stems = ["flux", "probe_at_dipole", "particle", "pattern"] + [f"{m}_{w}nm" for m in ("volume", "xz_plane") for w in (500, 600, 700)]
-    for stem in stems:
-        for ext in ("png", "svg"):
-            path = os.path.join(work, f"synthetic_{stem}.{ext}")
-            check(os.path.isfile(path) and os.path.getsize(path) > 1000, f"{path} missing or tiny")
-        png = os.path.join(work, f"synthetic_{stem}.png")
-        if os.path.isfile(png):
-            width, height, colours, coloured = png_is_a_picture(png)
-            check((width, height) == plot_common.FIGURE_SIZE_PX, f"{stem}: {width} x {height} pixels")
-            check(colours >= 20, f"{stem}: only {colours} distinct colours (blank?)")
-            check(coloured > 0.005, f"{stem}: only {coloured:.2%} of the pixels are coloured (nothing drawn?)")
-            print(f"{stem}.png: {width} x {height}, {colours} colours, {coloured:.1%} coloured")
+    check_figures(work, "synthetic_", stems, min_coloured=0.005)
 
     with h5py.File(results, "r") as f:
         # 2. The relative curve is P / P0 (Jackson 1999, eq. 9.24) with n from the scene.
@@ -300,18 +306,8 @@ with tempfile.TemporaryDirectory() as work:
     table = os.path.join(folder, "sweep.h5")
     done = subprocess.run([sys.executable, script, table], capture_output=True, text=True, env=headless)
     check(done.returncode == 0, f"sweep plots: exit code {done.returncode}: {done.stderr}")
-    for stem in ("sweep_dimer_extinction", "sweep_plane_wave_reflectance"):
-        for ext in ("png", "svg"):
-            path = os.path.join(folder, f"{stem}.{ext}")
-            check(os.path.isfile(path) and os.path.getsize(path) > 1000, f"{path} missing or tiny")
-        png = os.path.join(folder, f"{stem}.png")
-        if os.path.isfile(png):
-            width, height, colours, coloured = png_is_a_picture(png)
-            check((width, height) == plot_common.FIGURE_SIZE_PX, f"{stem}: {width} x {height} pixels")
-            check(colours >= 20, f"{stem}: only {colours} distinct colours (blank?)")
-            # Two panels of colour map fill most of the figure; a figure of empty axes has none.
-            check(coloured > 0.3, f"{stem}: only {coloured:.2%} of the pixels are coloured")
-            print(f"{stem}.png: {width} x {height}, {colours} colours, {coloured:.1%} coloured")
+    # Two panels of colour map fill most of the figure; a figure of empty axes has no coloured pixel.
+    check_figures(folder, "", ("sweep_dimer_extinction", "sweep_plane_wave_reflectance"), min_coloured=0.3)
     notes = []
     figures = dict(plot_sweep.sweep_figures(table, folder, ["png"], notes))
     fig = figures.get(os.path.join(folder, "sweep_dimer_extinction"))

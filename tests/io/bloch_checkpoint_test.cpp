@@ -2,9 +2,14 @@
 // complex fields and the incident problem's two parts are four Simulations, checkpointed together.
 // A plane wave at 30 degrees on a glass film over a Drude metal, stopped at half-way, written,
 // read into a fresh BlochRun and finished: reflectance, transmittance and every recorder equal the
-// uninterrupted run's bit for bit. Invented numbers, chosen only to be small.
+// uninterrupted run's bit for bit. An angle scan of the same film keeps whole angles: on one thread
+// the angles run in order, so stopping during the second run leaves exactly one finished angle; its
+// checkpoint, read into a fresh AngleScan, runs the other three and ends with a table equal to an
+// uninterrupted scan's, and its partial results hold the finished row only. Invented numbers,
+// chosen only to be small.
 #include <fmt/format.h>
 #include <gtest/gtest.h>
+#include <omp.h>
 #include <unistd.h>
 
 #include <cmath>
@@ -14,6 +19,7 @@
 #include "base/constants.h"
 #include "geometry/shapes.h"
 #include "io/checkpoint.h"
+#include "solver/angle_scan.h"
 #include "solver/bloch_run.h"
 
 namespace fs = std::filesystem;
@@ -23,6 +29,7 @@ using namespace yeegap::solver;
 namespace {
 
 constexpr double nm = 1e-9;
+constexpr double deg = constants::pi / 180;
 double omega_of(double lambda) { return 2 * constants::pi * constants::c0 / lambda; }
 
 Scene film_scene() {
@@ -97,6 +104,56 @@ TEST(BlochCheckpoint, ResumedBlochRunEqualsUninterruptedRunBitForBit) {
   EXPECT_EQ(rest.summary.steps, whole.summary.steps);
   // Not trivially equal: the film and metal reflect a fair part of the wave.
   EXPECT_GT(whole.reflectance[0].reflectance[0], 0.05);
+}
+
+TEST(AngleScanCheckpoint, ResumedScanKeepsFinishedAnglesAndEqualsUninterruptedScan) {
+  const int threads = omp_get_max_threads();
+  omp_set_num_threads(1);  // the angles run in order: which are finished at the stop is known
+  Scene scene = film_scene();
+  scene.text = "angle scan checkpoint test scene";
+  BlochWaveSpec& w = scene.bloch_waves.front();
+  w.omegas = {w.reference_omega};
+  w.single_frequency = true;
+  w.scan_angles = {20 * deg, 30 * deg, 40 * deg, 50 * deg};
+  scene.stop.after = 40e-15;
+  const RunResults whole = AngleScan(scene).run();
+  ASSERT_EQ(whole.reflectance.size(), 1u);
+  ASSERT_EQ(whole.reflectance[0].reflectance.size(), 4u);
+  const long steps_per_angle = whole.summary.steps / 4;  // the same stop time; nearly the same steps
+
+  const fs::path file = fs::temp_directory_path() / fmt::format("yeegap_angle_scan_checkpoint_{}.h5", ::getpid());
+  const io::CheckpointInfo info{"test", {}};
+  {
+    AngleScan first(scene);
+    long calls = 0;  // one per step of the run under way: stop half-way through the second angle
+    const RunResults partial = first.run({}, [&] { return ++calls > steps_per_angle * 3 / 2; });
+    EXPECT_EQ(partial.summary.stop_reason, "interrupted");
+    EXPECT_EQ(first.finished_count(), 1u);
+    ASSERT_EQ(partial.reflectance.size(), 1u);
+    ASSERT_EQ(partial.reflectance[0].reflectance.size(), 1u) << "partial results hold the finished angle only";
+    EXPECT_EQ(partial.reflectance[0].reflectance[0], whole.reflectance[0].reflectance[0]);
+    io::write_checkpoint(file.string(), first, scene, info);
+  }
+  AngleScan resumed(scene);
+  io::read_checkpoint(file.string(), resumed, scene, info);
+  fs::remove(file);
+  EXPECT_EQ(resumed.finished_count(), 1u);
+  const RunResults rest = resumed.run();
+  omp_set_num_threads(threads);
+
+  ASSERT_EQ(rest.reflectance.size(), 1u);
+  const ReflectanceResult &a = whole.reflectance[0], &b = rest.reflectance[0];
+  EXPECT_TRUE(same_bits(a.reflectance, b.reflectance));
+  EXPECT_TRUE(same_bits(a.transmittance, b.transmittance));
+  EXPECT_TRUE(same_bits(a.angles, b.angles));
+  EXPECT_TRUE(same_bits(a.k_parallel, b.k_parallel));
+  EXPECT_EQ(rest.summary.steps, whole.summary.steps);
+  EXPECT_EQ(rest.summary.final_energy_fraction, whole.summary.final_energy_fraction);
+  EXPECT_TRUE(same_bits(rest.material_map, whole.material_map));
+  EXPECT_TRUE(same_bits(rest.grid_z, whole.grid_z));
+  // Not trivially equal: the rows differ from angle to angle, and the film reflects a fair part.
+  EXPECT_NE(a.reflectance[0], a.reflectance[3]);
+  EXPECT_GT(a.reflectance[0], 0.05);
 }
 
 }  // namespace
