@@ -3,7 +3,8 @@
 resolution: the reflected orders split the flux-based reflectance (their sum equals R within 1e-3:
 the same planes, Parseval), R + T + A = 1 by construction of A, every reported order obeys the
 grating equation sin(theta_m) = sin(theta_0) + m lambda / period (Petit (ed.), Electromagnetic
-Theory of Gratings, 1980, ch. 1), and the results file has the documented layout (io/README.md).
+Theory of Gratings, 1980, ch. 1), the results file has the documented layout (io/README.md), and
+`yeegap view` draws the orders figure.
 Usage: example_gold_grating_check.py YEEGAP_BINARY SOURCE_DIR"""
 import os
 import subprocess
@@ -43,4 +44,8 @@ with tempfile.TemporaryDirectory() as work:
         predicted = sin0[row] + m * lam[row] / period
         assert np.max(np.abs(d[:, 0] - predicted)) < 1e-9, np.max(np.abs(d[:, 0] - predicted))
         assert set(m.tolist()) >= {-1, 0}, set(m.tolist())  # order -1 propagates at the short wavelengths
+    # The orders figure (tools/plot/plot_orders.py) through `yeegap view`.
+    view = subprocess.run([yeegap, "view", out], capture_output=True, text=True)
+    assert view.returncode == 0, view.stderr
+    assert os.path.getsize(os.path.join(work, "coarse_orders.png")) > 10000, os.listdir(work)
 print("1 passed, 0 failed")
