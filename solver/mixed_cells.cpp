@@ -90,7 +90,7 @@ std::vector<MixedCell> find_mixed_cells(const Scene& s, const Grid& g, const Blo
             const Vec3 n = geometry::surface_normal(shape, p, 1e-3 * smallest);
             // Without a normal (p where surface directions cancel) the three components share it equally.
             const double share = norm(n) > 0 ? n[c] * n[c] : 1.0 / 3.0;
-            per_plane[k].push_back({comp, o, inside, outside, f, share});
+            per_plane[k].push_back({comp, o, inside, outside, f, share, n});
             break;
           }
         }

@@ -21,6 +21,7 @@ struct MixedCell {
   int inside = 0, outside = 0; // materials: the crossing body's, and what lies under it there
   double fill = 0;             // fraction of the box inside the body, in (0, 1)
   double normal_share = 0;     // n_c^2: squared normal component along the E component, in [0, 1]
+  Vec3 normal{};               // unit surface normal (outward), or zero where it is undefined
 };
 
 /// Mixed E locations of the block in layout order, component by component. Locations held at zero

@@ -69,6 +69,8 @@ struct DomainSpec {
   double grading_ratio = 1.2;     // largest ratio of neighbouring cells (common practice)
   bool averaging = false;         // subcell averaging at E locations an interface crosses
                                   // (solver/subcell_average.h); false = plain staircase
+  bool averaging_cross_terms = true;  // with averaging: the off-diagonal terms between dielectrics
+                                      // (solver/subcell_cross_terms.h); false only for comparisons
   // Bloch-periodic axes (physics.md 3.7): periodic edges whose copies carry the phase of the
   // in-plane wavevector, F(x + L) = F(x) exp(i k L). With k = 0 they are plain periodic edges.
   std::array<bool, 3> bloch{};

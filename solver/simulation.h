@@ -112,6 +112,8 @@ class Simulation : public Checkpointable {
   double field_energy() const;
   /// Polarisation currents of the dispersive materials (per-cell damping of gap cells goes here).
   DispersiveCurrents& dispersive() { return *dispersive_; }
+  /// The averaged update of mixed E locations, or null (averaging off, or no mixed location).
+  const SubcellAverage* subcell_average() const { return subcell_.get(); }
 
   // Checkpoints (simulation_state.h; defined in simulation_state.cpp).
   StateCounters state_counters() const override;

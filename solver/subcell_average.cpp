@@ -81,6 +81,7 @@ SubcellAverage::SubcellAverage(const Scene& s, const Grid& g, const BlockLayout&
         gr.recover.push_back(static_cast<real>(dt / constants::eps0 / ec.cb[here]));
         gr.fill.push_back(static_cast<real>(m->fill));
         gr.share.push_back(static_cast<real>(m->normal_share));
+        gr.normal.push_back(m->normal);
         ++q;
       }
     }
@@ -107,6 +108,39 @@ SubcellAverage::SubcellAverage(const Scene& s, const Grid& g, const BlockLayout&
     add(2, false);
     groups_.push_back(std::move(gr));
   }
+  if (s.domain.averaging_cross_terms) build_cross_terms(s, g, L, mi, dt);
+}
+
+void SubcellAverage::build_cross_terms(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi,
+                                       double dt) {
+  auto dielectric = [&](const Response& r) { return r.poles.empty() && r.loss == 0; };
+  std::vector<SubcellCrossTerms::Site> sites;
+  std::vector<std::ptrdiff_t> others;  // other mixed locations, as 3 offset + component
+  for (std::size_t q = 0; q < groups_.size(); ++q) {
+    const Group& gr = groups_[q];
+    const bool both = dielectric(responses_[gr.inside]) && dielectric(responses_[gr.outside]) &&
+                      !s.materials[gr.inside].perfect_conductor && !s.materials[gr.outside].perfect_conductor;
+    for (int c = 0; c < 3; ++c)
+      for (std::size_t i = gr.start[c]; i < gr.start[c + 1]; ++i) {
+        if (!both) {
+          others.push_back(3 * gr.offset[i] + c);
+          continue;
+        }
+        site_cell_.push_back({q, i});
+        sites.push_back({static_cast<Component>(c), gr.offset[i], responses_[gr.inside].eps_inf,
+                         responses_[gr.outside].eps_inf, static_cast<double>(gr.fill[i]), gr.normal[i]});
+      }
+  }
+  if (sites.empty()) return;
+  // The time step's room above the vacuum's Courant bound, as an eigenvalue bound on eps0/eps.
+  const double room = g.courant_limit() / dt;
+  cross_ = std::make_unique<SubcellCrossTerms>(s, g, L, mi, sites, others, room * room);
+  if (cross_->empty()) {
+    cross_.reset();
+    site_cell_.clear();
+    return;
+  }
+  site_d_.assign(sites.size(), 0.0);
 }
 
 MaterialIndex SubcellAverage::without_mixed(const MaterialIndex& mi, int wall) const {
@@ -115,7 +149,8 @@ MaterialIndex SubcellAverage::without_mixed(const MaterialIndex& mi, int wall) c
   return out;
 }
 
-void SubcellAverage::keep(const Fields& f) {
+void SubcellAverage::keep(Fields& f) {
+  if (cross_) cross_->remove(f);
   for (Group& g : groups_)
     for (int c = 0; c < 3; ++c) {
       const real* e = f.c[c].data();
@@ -130,6 +165,13 @@ void SubcellAverage::keep(const Fields& f) {
 
 void SubcellAverage::apply(Fields& f) {
   for (Group& g : groups_) apply_group(g, f);
+  if (!cross_) return;
+  // A dielectric branch advances eps_in (E^{n+1} - E^n) = dD, so it holds D / eps_in.
+  for (std::size_t q = 0; q < site_cell_.size(); ++q) {
+    const Group& g = groups_[site_cell_[q].first];
+    site_d_[q] = responses_[g.inside].eps_inf * g.e[0][site_cell_[q].second];
+  }
+  cross_->add(f, site_d_);
 }
 
 void SubcellAverage::apply_group(Group& g, Fields& f) {
@@ -184,7 +226,7 @@ void SubcellAverage::apply_group(Group& g, Fields& f) {
 }
 
 std::size_t SubcellAverage::memory_bytes() const {
-  std::size_t bytes = cells_.size() * sizeof(MixedCell);
+  std::size_t bytes = cells_.size() * sizeof(MixedCell) + (cross_ ? cross_->memory_bytes() : 0);
   for (const Group& g : groups_) {
     bytes += g.offset.size() * (sizeof(std::ptrdiff_t) + 11 * sizeof(real));
     for (const BranchPole& bp : g.poles) bytes += (bp.q.size() + bp.p.size()) * sizeof(real);
@@ -194,6 +236,7 @@ std::size_t SubcellAverage::memory_bytes() const {
 
 void SubcellAverage::add_state(StateArrays& s, const std::string& prefix) {
   s.add_vector(prefix + "/started", started_);
+  if (cross_) cross_->add_state(s, prefix);
   for (Group& g : groups_) {
     const std::string base = fmt::format("{}/pair{}_{}", prefix, g.inside, g.outside);
     for (int b = 0; b < 3; ++b) {

@@ -39,15 +39,15 @@ inline std::pair<double, double> parabolic_peak(const std::vector<double>& x, co
 
 /// Runs the sphere at `cells_per_radius` (R / cell); the centre sits on the mirror planes and
 /// `z_offset` cells above a node along z.
-inline SpherePeak gold_sphere_peak(double cells_per_radius, bool averaging, double z_offset = 0.5) {
+inline SpherePeak gold_sphere_peak(double cells_per_radius, bool averaging, double z_offset = 0.5, int absorber = 8) {
   using constants::c0;
   using constants::pi;
   constexpr double n_water = 1.333, radius = 30e-9;
   const double d = radius / cells_per_radius;
-  // TFSF box 10 nm (at least 4 cells) beyond the sphere; 4 cells to the absorber of 8 cells.
+  // TFSF box 10 nm (at least 4 cells) beyond the sphere; 4 cells to the absorber (8 cells by default).
   const double margin = std::max(10e-9, 4 * d);
   const int box_cells = static_cast<int>(std::ceil((radius + margin) / d));
-  const int absorber = 8, half = box_cells + 4 + absorber;
+  const int half = std::max(box_cells + 4 + absorber, 2 * absorber + 2);  // the check wants 2 layers + 2
   Scene s = vacuum_box({half, half, 2 * half}, d, all_edges(EdgeKind::absorber));
   s.domain.center = {half * d / 2, half * d / 2, 0};
   s.domain.edges[0] = EdgeKind::mirror_odd;
@@ -88,9 +88,9 @@ inline SpherePeak gold_sphere_peak(double cells_per_radius, bool averaging, doub
   std::tie(p.mie_wavelength, p.mie_extinction) = parabolic_peak(lambdas, mie);
   p.steps = r.summary.steps;
   p.mixed_cells = sim.summary().mixed_cells;
-  std::printf("R/cell %5.2f, averaging %-3s: peak %.2f nm (Mie %.2f nm), error %+.3f %%, extinction %.4f of Mie, "
+  std::printf("R/cell %5.2f, absorber %d, averaging %-3s: peak %.2f nm (Mie %.2f nm), error %+.3f %%, extinction %.4f of Mie, "
               "%lld mixed locations, %ld steps\n",
-              cells_per_radius, averaging ? "on" : "off", p.fdtd_wavelength * 1e9, p.mie_wavelength * 1e9,
+              cells_per_radius, absorber, averaging ? "on" : "off", p.fdtd_wavelength * 1e9, p.mie_wavelength * 1e9,
               100 * p.wavelength_error(), p.extinction_ratio(), p.mixed_cells, p.steps);
   std::fflush(stdout);
   return p;
