@@ -113,6 +113,27 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
     }
     outs.add(t.name, json_array(rows));
   }
+  for (const auto& o : r.orders) {
+    std::vector<std::string> rows;
+    std::fprintf(stderr, "  %s: wavelength, reflected (r) and transmitted (t) orders m: efficiency at angle\n", o.name.c_str());
+    for (std::size_t q = 0; q < o.omegas.size(); ++q) {
+      const double lambda_nm = 2 * constants::pi * constants::c0 / o.omegas[q] * 1e9;
+      std::string line;
+      for (std::size_t e = 0; e < o.row.size(); ++e) {
+        if (o.row[e] != static_cast<int>(q)) continue;
+        const double angle_deg = o.angle[e] * 180 / constants::pi;
+        const std::string order = o.diffracting[1] ? fmt::format("{},{}", o.order_b[e], o.order_c[e])
+                                                   : fmt::format("{:+d}", o.order_b[e]);
+        line += fmt::format("  {}{}: {:.4f} at {:.1f} deg", o.side[e] < 0 ? "r" : "t", order, o.efficiency[e], angle_deg);
+        JsonObject row;
+        row.number("wavelength_nm", lambda_nm).number("side", o.side[e]).number("order_0", o.order_b[e])
+            .number("order_1", o.order_c[e]).number("angle_deg", angle_deg).number("efficiency", o.efficiency[e]);
+        rows.push_back(row.str());
+      }
+      std::fprintf(stderr, "    %8.2f nm%s\n", lambda_nm, line.c_str());
+    }
+    outs.add(o.name, json_array(rows));
+  }
   for (const auto& g : r.gaps) {
     const auto body_name = [&](int i) {
       return scene.bodies[i].name.empty() ? fmt::format("body {}", i) : scene.bodies[i].name;

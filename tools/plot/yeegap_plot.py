@@ -51,6 +51,7 @@ def write_figures(results, out_dir, formats):
     for the user."""
     from plot_common import open_results, output_stem, outputs_of_kind, save, wavelength_label
     from plot_field_maps import field_map_figures
+    from plot_orders import orders_figure
     from plot_particles import cross_sections_figure, far_field_figure
     from plot_probes import probe_figure
     from plot_spectra import flux_figure
@@ -74,6 +75,10 @@ def write_figures(results, out_dir, formats):
                 fig = figure(name, g)
                 if fig is not None:
                     written += save(fig, output_stem(results, out_dir, name), formats)
+        for name, g in outputs_of_kind(f, "orders"):
+            fig = orders_figure(name, g)
+            if fig is not None:
+                written += save(fig, output_stem(results, out_dir, name), formats)
         for name, g in outputs_of_kind(f, "field_map"):
             for wl, fig in field_map_figures(f, name, g):
                 written += save(fig, output_stem(results, out_dir, name, wavelength_label(wl) + "nm"), formats)
@@ -101,7 +106,7 @@ def main(argv):
     for note in notes:
         say(note)
     if not written:
-        say(f"{args.results} has no flux, probe, cross-section, far-field, field-map or reflectance output to plot")
+        say(f"{args.results} has no flux, probe, cross-section, far-field, field-map, orders or reflectance output to plot")
     else:
         say(f"{len(written)} figures in {out_dir}: " + ", ".join(os.path.basename(p) for p in written))
     return 0
