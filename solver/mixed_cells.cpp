@@ -83,11 +83,20 @@ std::vector<MixedCell> find_mixed_cells(const Scene& s, const Grid& g, const Blo
             const double f = geometry::fill_fraction(shape, box);
             if (f >= 1 - fill_tolerance) break;
             if (f <= fill_tolerance) continue;
-            const int inside = s.bodies[b].material, outside = material_below(s, b, p);
-            if (inside == outside || !averageable(inside) || !averageable(outside)) break;
-            if (here != inside && here != outside) break;  // a third body meets here: keep the staircase
             const double smallest = std::min({box.hi.x - box.lo.x, box.hi.y - box.lo.y, box.hi.z - box.lo.z});
             const Vec3 n = geometry::surface_normal(shape, p, 1e-3 * smallest);
+            // The medium outside this body is looked up a quarter cell beyond its surface, not at p:
+            // p may lie on the surface itself (a film face on a grid node), where which earlier body
+            // holds p is decided by round-off of the node's coordinate. That once made a gold film's
+            // top face staircased or averaged depending on where the domain began, moving an SPR dip
+            // by 1 deg.
+            const Vec3 beyond = norm(n) > 0 ? p + n * (0.25 * smallest - d) : p;
+            const int inside = s.bodies[b].material, outside = material_below(s, b, beyond);
+            if (inside == outside || !averageable(inside) || !averageable(outside)) break;
+            // The staircase material `here` may be neither: a location exactly on the face two slabs
+            // share is inside neither (signed distance 0), so the map gives it the background. It is
+            // averaged all the same (its own coefficients only recover the curl, subcell_average.h);
+            // keeping its staircase put a cell of buffer between a prism and its chromium layer.
             // Without a normal (p where surface directions cancel) the three components share it equally.
             const double share = norm(n) > 0 ? n[c] * n[c] : 1.0 / 3.0;
             per_plane[k].push_back({comp, o, inside, outside, f, share, n});

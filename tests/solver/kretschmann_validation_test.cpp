@@ -151,5 +151,20 @@ TEST(Kretschmann, GoldFilmInAirDipsAtTheTransferMatrixAngle) {
   for (std::size_t i = 0; i < s.R.size(); ++i) EXPECT_NEAR(s.R[i], tmm_R({1.0, 0}, s.angles[i]), 0.01);
 }
 
+TEST(Kretschmann, InWaterTheDipAndTheShiftByA5nmLayerFollowTheTransferMatrix) {
+  // The same film in water (n = 1.3317), then with a 5 nm layer of n = 1.45 on the gold, as a
+  // sensor sees a bound molecular layer: dip within 0.1 deg and R within 0.01 in water, and the
+  // layer's shift of the dip within 5 % of the transfer-matrix shift.
+  const Stack water{1.3317, 0}, layer{1.3317, 5 * nm};
+  const Scan bare = scan(water, 2 * nm, 74.6, 0.6, 7);
+  EXPECT_NEAR(bare.dip / deg, bare.tmm_dip / deg, 0.1);
+  for (std::size_t i = 0; i < bare.R.size(); ++i) EXPECT_NEAR(bare.R[i], tmm_R(water, bare.angles[i]), 0.01);
+  const Scan bound = scan(layer, 2 * nm, 75.5, 0.6, 7);
+  const double shift = bound.dip - bare.dip, tmm_shift = bound.tmm_dip - bare.tmm_dip;
+  std::printf("  shift by the layer %.4f deg, TMM %.4f deg\n", shift / deg, tmm_shift / deg);
+  EXPECT_GT(tmm_shift / deg, 0.5);
+  EXPECT_NEAR(shift / tmm_shift, 1.0, 0.05);
+}
+
 }  // namespace
 }  // namespace yeegap::solver
