@@ -258,7 +258,7 @@ solver::DecayRateSpec read_decay_rate(const Node& block, const solver::Scene& sc
 constexpr double max_delta_n = 0.1;
 
 solver::SensorSpec read_sensor(const Node& block, solver::Scene& scene, std::map<std::string, Where>& used) {
-  block.allow({"name", "medium", "delta_n"});
+  block.allow({"name", "medium", "delta_n", "binding"});
   solver::SensorSpec s;
   s.where = block.where();
   s.name = read_name(block, used);
@@ -283,6 +283,18 @@ solver::SensorSpec read_sensor(const Node& block, solver::Scene& scene, std::map
     if (s.delta_n > max_delta_n)
       v->fail(fmt::format("delta_n must be at most {} (the sensitivity is a derivative; 1e-3 is usual), got {}",
                           max_delta_n, s.delta_n));
+  }
+  if (auto v = block.get("binding")) {
+    s.binding = material_index(*v, scene);
+    const solver::MaterialSpec& b = scene.materials[static_cast<std::size_t>(s.binding)];
+    if (s.binding == s.medium)
+      v->fail(fmt::format("the binding material must differ from the sensing medium '{}' (before binding, the layer's "
+                          "place is filled with the sensing medium)", m.name));
+    bool body = false;
+    for (const auto& x : scene.bodies) body = body || x.material == s.binding;
+    if (!body || scene.domain.background == s.binding)
+      v->fail(fmt::format("'{}' must be the material of a body (the bound layer) and not the background, so that the "
+                          "layer can be taken away for the scan before binding", b.name));
   }
   block.done();
   return s;

@@ -22,7 +22,8 @@ void dataset(const h5::Group& g, const char* name, const std::vector<double>& v,
   d.set_attribute("description", description);
 }
 
-// One dip's figures as attributes, `suffix` "" for the reference and "_raised" for n + delta_n.
+// One dip's figures as attributes, `suffix` "" for the reference, "_raised" for n + delta_n and
+// "_before_binding" for the scan without the bound layer.
 void dip_attributes(const h5::Group& g, const solver::ReflectanceDip& d, const std::string& suffix) {
   g.set_attribute("resonance_angle" + suffix, d.position);
   g.set_attribute("resonance_angle_deg" + suffix, d.position * deg);
@@ -38,7 +39,8 @@ void dip_attributes(const h5::Group& g, const solver::ReflectanceDip& d, const s
 
 void write_sensor(const h5::Group& outputs, const solver::SensorResult& s) {
   const std::size_t n = s.angles.size();
-  if (s.reflectance.size() != n || s.reflectance_raised.size() != n)
+  if (s.reflectance.size() != n || s.reflectance_raised.size() != n ||
+      (!s.binding.empty() && s.reflectance_before_binding.size() != n))
     throw std::runtime_error(fmt::format("sensor '{}' has curves that do not match its {} angles", s.name, n));
   const h5::Group g = outputs.create_group(s.name);
   g.set_attribute("kind", "sensor");
@@ -60,6 +62,14 @@ void write_sensor(const h5::Group& outputs, const solver::SensorResult& s) {
   dataset(g, "angle_deg", angle_deg, "deg", "the same in degrees");
   dataset(g, "reflectance", s.reflectance, "1", "R at the sensing medium's own index");
   dataset(g, "reflectance_raised", s.reflectance_raised, "1", "R with the sensing medium's index raised by delta_n");
+  if (s.binding.empty()) return;
+  // The scan before binding: the bound layer's material replaced by the sensing medium.
+  g.set_attribute("binding", s.binding);
+  dip_attributes(g, s.dip_before_binding, "_before_binding");
+  g.set_attribute("binding_shift_deg", s.binding_shift * deg);
+  g.set_attribute("binding_equivalent_index", s.binding_equivalent_index);
+  dataset(g, "reflectance_before_binding", s.reflectance_before_binding, "1",
+          "R with the binding material replaced by the sensing medium (before binding)");
 }
 
 }  // namespace yeegap::io

@@ -197,9 +197,10 @@ RunResults run_angle_scan(const Scene& scene, const std::function<void(const Pro
 
 ModelSummary plan_angle_scan(const Scene& scene) {
   const std::vector<double>& angles = scene.bloch_waves.front().scan_angles;
+  // Every angle planned: the pulse, and so the run's length, follows each angle's distance from
+  // grazing incidence, so the ends of a scan alone over- or underestimate it several-fold.
   ModelSummary m = BlochRun::plan(one_angle(scene, angles.front()));
-  const ModelSummary last = BlochRun::plan(one_angle(scene, angles.back()));
-  m.steps = std::max(m.steps, last.steps) * static_cast<long>(angles.size());
+  for (std::size_t k = 1; k < angles.size(); ++k) m.steps += BlochRun::plan(one_angle(scene, angles[k])).steps;
   m.mesh_notes.push_back(fmt::format("angle scan: {} runs from {:.4g} to {:.4g} deg, {} at a time; steps below are "
                                      "for all runs together",
                                      angles.size(), angles.front() * 180 / constants::pi,

@@ -118,6 +118,13 @@ struct SensorResult {
   std::vector<double> reflectance_raised;  // R with the index raised by delta_n
   ReflectanceDip dip, dip_raised;          // positions and widths in rad
   SensorFigures figures;                   // shift (rad), sensitivity (rad/RIU), figure of merit (1/RIU)
+  // With a binding material (SensorSpec::binding): the scan with it replaced by the sensing medium.
+  std::string binding;                     // its material name; empty: no binding scan
+  std::vector<double> reflectance_before_binding;
+  ReflectanceDip dip_before_binding;
+  double binding_shift = 0;                // rad: dip.position - dip_before_binding.position
+  double binding_equivalent_index = 0;     // RIU: binding_shift / sensitivity, the bulk change that
+                                           // would move the dip as far
 };
 
 /// Diffraction orders of a plane wave in a Bloch cell (solver/diffraction_orders.h): one entry per

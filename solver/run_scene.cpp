@@ -30,15 +30,22 @@ void require_scan_for_sensors(const Scene& s) {
                                s.sensors.front().name));
 }
 
-// Progress of the sensor's second scan continues the count of the first: 2 x angles in all.
+// Scans a run makes: its own, the sensor's raised one, and the one before binding if asked.
+int scan_count(const Scene& s) {
+  if (s.sensors.empty()) return 1;
+  return s.sensors.front().binding >= 0 ? 3 : 2;
+}
+
+// Progress of the sensor's repeats continues the count of the first scan: scans x angles in all.
 std::function<void(const Progress&)> scan_progress(const std::function<void(const Progress&)>& progress,
                                                    const Scene& s, int scan_index) {
   if (!progress || s.sensors.empty()) return progress;
   const long n = static_cast<long>(s.bloch_waves.front().scan_angles.size());
-  return [progress, n, scan_index](const Progress& p) {
+  const long scans = scan_count(s);
+  return [progress, n, scans, scan_index](const Progress& p) {
     Progress q = p;
     q.step = p.step + scan_index * n;
-    q.planned_steps = 2 * n;
+    q.planned_steps = scans * n;
     q.eta_seconds = p.steps_per_second > 0 ? (q.planned_steps - q.step) / p.steps_per_second : -1;
     progress(q);
   };
@@ -57,17 +64,18 @@ void add_sensor_results(const Scene& scene, RunResults& results,
   require_scan_for_sensors(scene);
   const AngleScanCurve reference = curve_of(results);
   for (const SensorSpec& spec : scene.sensors) {
-    RunResults second;
-    results.sensors.push_back(run_sensor(scene, spec, reference, [&](const Scene& raised) {
-      second = run_angle_scan(raised, scan_progress(progress, scene, 1));
-      return curve_of(second);
+    int scan = 0;
+    results.sensors.push_back(run_sensor(scene, spec, reference, [&](const Scene& changed) {
+      const RunResults repeat = run_angle_scan(changed, scan_progress(progress, scene, ++scan));
+      // The summary counts every scan: the run's cost is theirs together.
+      results.summary.steps += repeat.summary.steps;
+      results.summary.simulated_time += repeat.summary.simulated_time;
+      results.summary.wall_seconds += repeat.summary.wall_seconds;
+      return curve_of(repeat);
     }));
-    // The summary counts both scans: the run's cost is theirs together.
-    results.summary.steps += second.summary.steps;
-    results.summary.simulated_time += second.summary.simulated_time;
-    results.summary.wall_seconds += second.summary.wall_seconds;
-    results.summary.stop_reason = fmt::format("{} and its repeat with {} raised by {:g} (sensor)",
-                                              results.summary.stop_reason, results.sensors.back().medium, spec.delta_n);
+    results.summary.stop_reason = fmt::format("{} and its repeat with {} raised by {:g}{} (sensor)",
+                                              results.summary.stop_reason, results.sensors.back().medium, spec.delta_n,
+                                              spec.binding >= 0 ? " and before binding" : "");
   }
 }
 
@@ -91,12 +99,14 @@ ModelSummary plan_scene(const Scene& scene) {
   ModelSummary m = is_angle_scan(s) ? plan_angle_scan(s) : BlochRun::plan(s);
   if (!note.empty()) m.mesh_notes.insert(m.mesh_notes.begin(), note);
   if (!s.sensors.empty()) {
-    m.steps *= 2;
-    m.mesh_notes.push_back(fmt::format("sensor '{}': the scan runs twice, the second time with '{}' raised by {:g} in "
-                                       "index; steps above are for both",
-                                       s.sensors.front().name,
-                                       s.materials[static_cast<std::size_t>(s.sensors.front().medium)].name,
-                                       s.sensors.front().delta_n));
+    const SensorSpec& spec = s.sensors.front();
+    m.steps *= scan_count(s);
+    m.mesh_notes.push_back(fmt::format(
+        "sensor '{}': the scan runs {} times: as written, with '{}' raised by {:g} in index{}; steps above are for all",
+        spec.name, scan_count(s) == 3 ? "three" : "two", s.materials[static_cast<std::size_t>(spec.medium)].name, spec.delta_n,
+        spec.binding >= 0
+            ? fmt::format(", and with '{}' replaced by it (before binding)", s.materials[static_cast<std::size_t>(spec.binding)].name)
+            : std::string()));
   }
   return m;
 }

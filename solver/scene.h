@@ -223,12 +223,15 @@ struct DecayRateSpec {
 
 /// Surface-plasmon sensor figures of an angle scan (docs/sensor.md): the run is repeated with the
 /// refractive index of one material raised by delta_n, and the two reflectance dips give the
-/// resonance angle, minimum, width, sensitivity and figure of merit.
+/// resonance angle, minimum, width, sensitivity and figure of merit. With a binding material the
+/// scan runs a third time with that material replaced by the sensing medium (the chip before the
+/// layer bound), and the dip's move from then to the scene as written is the binding shift.
 struct SensorSpec {
   std::string name;
   int medium = 0;                 // index into Scene::materials: the sensing medium (the analyte)
   double delta_n = 1e-3;          // raise of its refractive index (common practice: 1e-3)
   Where where;
+  int binding = -1;               // index into Scene::materials: the bound layer's material; -1: none
 };
 
 /// Pairs of metal bodies whose gap may conduct by electron tunnelling. Quantum-corrected: every E

@@ -51,6 +51,17 @@ Scene with_raised_index(const Scene& scene, int medium, double delta_n, double o
   return raised;
 }
 
+Scene before_binding(const Scene& scene, int binding, int medium) {
+  YG_CHECK(binding >= 0 && binding < static_cast<int>(scene.materials.size()), fmt::format("material {}", binding));
+  if (scene.domain.background == binding)
+    throw RunError(fmt::format("sensor: the binding material '{}' fills the background; the bound layer has to be a body",
+                               scene.materials[static_cast<std::size_t>(binding)].name));
+  Scene before = scene;
+  for (BodySpec& b : before.bodies)
+    if (b.material == binding) b.material = medium;
+  return before;
+}
+
 SensorResult sensor_result(const Scene& scene, const SensorSpec& spec, const AngleScanCurve& reference,
                            const AngleScanCurve& raised) {
   YG_CHECK(reference.omega == raised.omega, "both scans at one frequency");
@@ -74,8 +85,22 @@ SensorResult sensor_result(const Scene& scene, const SensorSpec& spec, const Ang
 SensorResult run_sensor(const Scene& scene, const SensorSpec& spec, const AngleScanCurve& reference,
                         const std::function<AngleScanCurve(const Scene&)>& run_scan) {
   Scene raised = with_raised_index(scene, spec.medium, spec.delta_n, reference.omega);
-  raised.sensors.clear();  // the repeat is a plain scan
-  return sensor_result(scene, spec, reference, run_scan(raised));
+  raised.sensors.clear();  // the repeats are plain scans
+  SensorResult r = sensor_result(scene, spec, reference, run_scan(raised));
+  if (spec.binding < 0) return r;
+  Scene before = before_binding(scene, spec.binding, spec.medium);
+  before.sensors.clear();
+  const AngleScanCurve b = run_scan(before);
+  YG_CHECK(b.omega == reference.omega, "the binding scan at the run's frequency");
+  const SortedCurve s = sorted(b);
+  YG_CHECK(s.angles == r.angles, "the binding scan at the run's angles");
+  r.binding = scene.materials[static_cast<std::size_t>(spec.binding)].name;
+  r.reflectance_before_binding = s.reflectance;
+  r.dip_before_binding = find_reflectance_dip(s.angles, s.reflectance);
+  r.binding_shift = r.dip.position - r.dip_before_binding.position;
+  r.binding_equivalent_index = r.binding_shift / r.figures.sensitivity;
+  r.figures.flags |= r.dip_before_binding.flags;
+  return r;
 }
 
 }  // namespace yeegap::solver

@@ -25,11 +25,16 @@ struct AngleScanCurve {
 /// scan's only frequency, and leaves the medium's poles alone. RunError for a perfect conductor.
 Scene with_raised_index(const Scene& scene, int medium, double delta_n, double omega);
 
+/// A copy of `scene` before the layer bound: every body of material `binding` made of `medium`
+/// instead. RunError when `binding` fills the background (a layer has to be a body).
+Scene before_binding(const Scene& scene, int binding, int medium);
+
 /// The figures from the reference curve and the raised one (same angles, same frequency).
 SensorResult sensor_result(const Scene& scene, const SensorSpec& spec, const AngleScanCurve& reference,
                            const AngleScanCurve& raised);
 
 /// Runs `run_scan` on the raised scene and returns the figures; `reference` is the run's own curve.
+/// With spec.binding, runs it also on before_binding() and adds the binding shift.
 SensorResult run_sensor(const Scene& scene, const SensorSpec& spec, const AngleScanCurve& reference,
                         const std::function<AngleScanCurve(const Scene&)>& run_scan);
 

@@ -65,6 +65,19 @@ TEST(SceneSensor, RefusesUnknownUnusedAndConductingMediaAndBadDeltaN) {
   EXPECT_THAT(failure_of("  - sensor: {medium: water}\n"), HasSubstr("missing key 'name'"));
 }
 
+TEST(SceneSensor, ReadsABindingMaterialAndRefusesOneThatIsNoBody) {
+  const auto s = read_scene_text(head + "  - sensor: {name: chip, medium: water, binding: gold}\n", "ok.yaml");
+  EXPECT_EQ(s.materials[static_cast<std::size_t>(s.sensors[0].binding)].name, "gold");
+  EXPECT_EQ(read_scene_text(head + "  - sensor: {name: chip, medium: water}\n", "ok.yaml").sensors[0].binding, -1);
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: water, binding: spare}\n"),
+              HasSubstr("bad.yaml:17:50: outputs[0].sensor.binding: 'spare' must be the material of a body"));
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: gold, binding: water}\n"),
+              HasSubstr("'water' must be the material of a body (the bound layer) and not the background"));
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: water, binding: water}\n"),
+              HasSubstr("must differ from the sensing medium 'water'"));
+  EXPECT_THAT(failure_of("  - sensor: {name: chip, medium: water, binding: glas}\n"), HasSubstr("did you mean 'glass'?"));
+}
+
 TEST(SceneSensor, RefusesASceneWithoutAnAngleScan) {
   // The sensor repeats the plane wave's angle scan: a dipole, or a plane wave at one angle, has none.
   std::string dipole = head, one_angle = head;

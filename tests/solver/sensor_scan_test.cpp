@@ -102,6 +102,68 @@ TEST(SensorScan, PairOfScansGivesTheKretschmannSensitivity) {
   EXPECT_NE(r.reflectance_raised[300], r.reflectance[300]);
 }
 
+// The chip with a 5 nm layer of index 1.45 on the gold (material 3, body 2), and a stand-in engine
+// that reads the layer's material from the body, as the real one does through the material map.
+Scene chip_with_layer() {
+  Scene s = chip();
+  s.materials.push_back(index_material("layer", 1.45));
+  s.bodies.resize(3);
+  s.bodies[0].material = 0;
+  s.bodies[1].material = 1;
+  s.bodies[2].material = 3;
+  s.domain.background = 2;
+  return s;
+}
+
+AngleScanCurve tmm_layer_scan(const Scene& s) {
+  auto eps = [&](int m) { return materials::permittivity(s.materials[static_cast<std::size_t>(m)].poles, omega); };
+  const materials::Multilayer m{eps(0), {{eps(1), 50e-9}, {eps(s.bodies[2].material), 5e-9}}, eps(2)};
+  AngleScanCurve c{omega, {}, {}};
+  for (int k = 0; k <= 460; ++k) {
+    c.angles.push_back((62 + 0.05 * k) * deg);
+    c.reflectance.push_back(testing::tmm_reflectance(m, wavelength, 62 + 0.05 * k));
+  }
+  return c;
+}
+
+TEST(SensorScan, BindingScanTakesTheLayerAwayAndGivesTheTransferMatrixShift) {
+  // Reference: exact minima of the transfer-matrix curves with the 5 nm layer of 1.45 and with water
+  // in its place (Born & Wolf's characteristic matrix); the dip finder is within 1e-3 deg of each.
+  const Scene s = chip_with_layer();
+  const Scene before = before_binding(s, 3, 2);
+  EXPECT_EQ(before.bodies[2].material, 2);
+  EXPECT_EQ(before.bodies[1].material, 1);
+  const double n = materials::refractive_index(s.materials[2].poles, omega).real();
+  auto stack = [&](double n_layer) {
+    return materials::Multilayer{1.5151 * 1.5151,
+                                 {{materials::permittivity(s.materials[1].poles, omega), 50e-9}, {n_layer * n_layer, 5e-9}},
+                                 n * n};
+  };
+  const double with_layer = testing::tmm_minimum_deg(stack(1.45), wavelength, 65, 82);
+  const double without = testing::tmm_minimum_deg(stack(n), wavelength, 65, 82);
+  SensorSpec spec{"chip", 2, 1e-3, {}};
+  spec.binding = 3;
+  const SensorResult r = run_sensor(s, spec, tmm_layer_scan(s), tmm_layer_scan);
+  EXPECT_EQ(r.binding, "layer");
+  EXPECT_EQ(r.figures.flags, 0u) << describe_dip_flags(r.figures.flags);
+  EXPECT_NEAR(r.dip.position / deg, with_layer, 1e-3);
+  EXPECT_NEAR(r.dip_before_binding.position / deg, without, 1e-3);
+  EXPECT_NEAR(r.binding_shift / deg, with_layer - without, 2e-3);
+  EXPECT_GT(r.binding_shift / deg, 0.3);  // a denser layer moves the dip up (Raether 1988)
+  EXPECT_NEAR(r.binding_equivalent_index, r.binding_shift / r.figures.sensitivity, 1e-15);
+  ASSERT_EQ(r.reflectance_before_binding.size(), r.angles.size());
+  // Without a binding material nothing of it is filled in.
+  const SensorResult plain = run_sensor(s, SensorSpec{"chip", 2, 1e-3, {}}, tmm_layer_scan(s), tmm_layer_scan);
+  EXPECT_TRUE(plain.binding.empty());
+  EXPECT_TRUE(plain.reflectance_before_binding.empty());
+}
+
+TEST(SensorScan, RefusesABindingMaterialThatFillsTheBackground) {
+  Scene s = chip_with_layer();
+  s.domain.background = 3;
+  EXPECT_THROW(before_binding(s, 3, 2), RunError);
+}
+
 TEST(SensorScan, RefusesAPerfectConductorAsSensingMedium) {
   Scene s = chip();
   s.materials[1].perfect_conductor = true;

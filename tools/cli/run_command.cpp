@@ -298,11 +298,13 @@ int run_scene(const RunOptions& o) {
     run = run_with_checkpoints(*state, run_function, scene, checkpoint, progress);
   }
   if (scan && !scene.sensors.empty() && !run.interrupted) {
-    // The sensor's repeat of the scan with the sensing medium's index raised: not checkpointed
-    // (a stop during it loses only this second scan; the first is in the checkpoint until the end).
-    std::fprintf(stderr, "yeegap: sensor: the scan again with the index of '%s' raised by %g\n",
-                 scene.materials[static_cast<std::size_t>(scene.sensors.front().medium)].name.c_str(),
-                 scene.sensors.front().delta_n);
+    // The sensor's repeats of the scan (sensing medium's index raised; bound layer taken away): not
+    // checkpointed (a stop during them loses only these; the first is in the checkpoint until the end).
+    const solver::SensorSpec& spec = scene.sensors.front();
+    std::fprintf(stderr, "yeegap: sensor: the scan again with the index of '%s' raised by %g%s%s\n",
+                 scene.materials[static_cast<std::size_t>(spec.medium)].name.c_str(), spec.delta_n,
+                 spec.binding >= 0 ? ", then with the bound layer taken away: " : "",
+                 spec.binding >= 0 ? scene.materials[static_cast<std::size_t>(spec.binding)].name.c_str() : "");
     ProgressLine progress;
     solver::add_sensor_results(solver::bloch_scene_as_run(scene), run.results,
                                [&](const solver::Progress& p) { progress.update(p); });

@@ -19,6 +19,10 @@ std::string report_sensor(const solver::SensorResult& s) {
                d.position * deg, d.r_min, d.width * deg);
   std::fprintf(stderr, "    raised: %.3f deg; sensitivity %.1f deg/RIU, figure of merit %.1f /RIU\n",
                s.dip_raised.position * deg, s.figures.sensitivity * deg, s.figures.figure_of_merit);
+  if (!s.binding.empty())
+    std::fprintf(stderr, "    before binding (%s as %s): %.3f deg; binding shift %+.3f deg (as a bulk index change of %.4g)\n",
+                 s.binding.c_str(), s.medium.c_str(), s.dip_before_binding.position * deg, s.binding_shift * deg,
+                 s.binding_equivalent_index);
   const std::string warnings = solver::describe_dip_flags(s.figures.flags);
   if (!warnings.empty()) std::fprintf(stderr, "    warning: %s\n", warnings.c_str());
   JsonObject j;
@@ -31,8 +35,13 @@ std::string report_sensor(const solver::SensorResult& s) {
       .number("width_deg", d.width * deg)
       .number("resonance_angle_raised_deg", s.dip_raised.position * deg)
       .number("sensitivity_deg_per_riu", s.figures.sensitivity * deg)
-      .number("figure_of_merit", s.figures.figure_of_merit)
-      .text("warnings", warnings);
+      .number("figure_of_merit", s.figures.figure_of_merit);
+  if (!s.binding.empty())
+    j.text("binding", s.binding)
+        .number("resonance_angle_before_binding_deg", s.dip_before_binding.position * deg)
+        .number("binding_shift_deg", s.binding_shift * deg)
+        .number("binding_equivalent_index", s.binding_equivalent_index);
+  j.text("warnings", warnings);
   return j.str();
 }
 
