@@ -20,6 +20,34 @@ namespace yeegap::solver {
 
 namespace {
 
+// The sources and recorders of a scene on its grid. The run keeps them; `check` builds them only for
+// the errors their constructors throw (a box outside the domain, a dipole in a conductor). One list
+// for both, so a new kind of output cannot be checked by one and forgotten by the other.
+struct Parts {
+  std::vector<DipoleSource> dipoles;
+  std::vector<PlaneWaveSource> plane_waves;
+  std::vector<ProbeRecorder> probes;
+  std::vector<FieldMapRecorder> maps;
+  std::vector<FluxRecorder> fluxes;
+  std::vector<CrossSectionRecorder> cross;
+  std::vector<FarFieldRecorder> far;
+  std::vector<DecayRateRecorder> decay;
+};
+
+Parts build_parts(const Scene& s, const Grid& g, const BlockLayout& L, const CurlCoefficients& curls,
+                  const ECoefficients& ec, const MaterialIndex& mi, double dt) {
+  Parts p;
+  for (const auto& d : s.dipoles) p.dipoles.emplace_back(d, g, L);
+  for (const auto& w : s.plane_waves) p.plane_waves.emplace_back(w, s, g, L, curls, ec, mi, dt);
+  for (const auto& x : s.probes) p.probes.emplace_back(x, g, L);
+  for (const auto& m : s.field_maps) p.maps.emplace_back(m, g, L);
+  for (const auto& f : s.fluxes) p.fluxes.emplace_back(f, g, L);
+  for (const auto& c : s.cross_sections) p.cross.emplace_back(c, s, g, L);
+  for (const auto& f : s.far_fields) p.far.emplace_back(f, s, g, L, mi);
+  for (const auto& d : s.decay_rates) p.decay.emplace_back(d, s, g, L, mi);
+  return p;
+}
+
 double choose_time_step(const Scene& s, const Grid& g) {
   const double limit = g.courant_limit();
   if (s.domain.time_step > 0) {
@@ -156,15 +184,16 @@ Simulation::Simulation(const Scene& scene)
     cpml_ = std::make_unique<Cpml>(grid_, absorbing, p, dt_, curls_);
   }
 
-  for (const auto& d : scene_.dipoles) dipoles_.emplace_back(d, grid_, fields_.layout);
-  for (const auto& w : scene_.plane_waves)
-    plane_waves_.emplace_back(w, scene_, grid_, fields_.layout, curls_, ecoef_, mindex_, dt_);
-  for (const auto& p : scene_.probes) probes_.emplace_back(p, grid_, fields_.layout);
-  for (const auto& m : scene_.field_maps) maps_.emplace_back(m, grid_, fields_.layout);
-  for (const auto& f : scene_.fluxes) fluxes_.emplace_back(f, grid_, fields_.layout);
-  for (const auto& c : scene_.cross_sections) cross_.emplace_back(c, scene_, grid_, fields_.layout);
-  for (const auto& f : scene_.far_fields) far_.emplace_back(f, scene_, grid_, fields_.layout, mindex_);
-  for (const auto& d : scene_.decay_rates) decay_.emplace_back(d, scene_, grid_, fields_.layout, mindex_);
+  // After the absorber: the plane-wave box reads the curl coefficients the CPML has set.
+  Parts parts = build_parts(scene_, grid_, fields_.layout, curls_, ecoef_, mindex_, dt_);
+  dipoles_ = std::move(parts.dipoles);
+  plane_waves_ = std::move(parts.plane_waves);
+  probes_ = std::move(parts.probes);
+  maps_ = std::move(parts.maps);
+  fluxes_ = std::move(parts.fluxes);
+  cross_ = std::move(parts.cross);
+  far_ = std::move(parts.far);
+  decay_ = std::move(parts.decay);
   std::set<double> omegas;
   for (const auto& m : scene_.field_maps) omegas.insert(m.omegas.begin(), m.omegas.end());
   for (const auto& f : scene_.fluxes) omegas.insert(f.omegas.begin(), f.omegas.end());
@@ -253,15 +282,8 @@ void Simulation::check_placements(const Scene& original) {
   const GapCells gap_cells(scene, g, L, mi);
   const CurlCoefficients curls = plain_curls(g, dt);
   const ECoefficients ec = e_coefficients(scene, dt);
-  // Each constructor throws what the run would; the objects are dropped at once.
-  for (const auto& d : scene.dipoles) [[maybe_unused]] const DipoleSource x(d, g, L);
-  for (const auto& w : scene.plane_waves) [[maybe_unused]] const PlaneWaveSource x(w, scene, g, L, curls, ec, mi, dt);
-  for (const auto& p : scene.probes) [[maybe_unused]] const ProbeRecorder x(p, g, L);
-  for (const auto& m : scene.field_maps) [[maybe_unused]] const FieldMapRecorder x(m, g, L);
-  for (const auto& f : scene.fluxes) [[maybe_unused]] const FluxRecorder x(f, g, L);
-  for (const auto& c : scene.cross_sections) [[maybe_unused]] const CrossSectionRecorder x(c, scene, g, L);
-  for (const auto& f : scene.far_fields) [[maybe_unused]] const FarFieldRecorder x(f, scene, g, L, mi);
-  for (const auto& d : scene.decay_rates) [[maybe_unused]] const DecayRateRecorder x(d, scene, g, L, mi);
+  // Each constructor throws what the run would; the parts are dropped at once.
+  [[maybe_unused]] const Parts parts = build_parts(scene, g, L, curls, ec, mi, dt);
 }
 
 double Simulation::sources_end_time() const {
