@@ -10,12 +10,19 @@
 namespace yeegap::solver {
 
 int material_at(const Scene& s, const Vec3& p) {
+  int on_faces = 0, last_on_face = -1;
   for (auto it = s.bodies.rbegin(); it != s.bodies.rend(); ++it) {
     const geometry::Aabb b = it->shape->bounds();
     if (p.x < b.lo.x || p.y < b.lo.y || p.z < b.lo.z || p.x > b.hi.x || p.y > b.hi.y || p.z > b.hi.z) continue;
-    if (it->shape->contains(p)) return it->material;
+    const double d = it->shape->signed_distance(p);
+    if (d < 0) return it->material;
+    if (d == 0 && on_faces++ == 0) last_on_face = it->material;
   }
-  return s.domain.background;
+  // A point exactly on a face that two bodies share (a film face on a grid node of a graded mesh,
+  // which pins nodes to slab faces) is strictly inside neither; the background there would put a
+  // cell of it between two touching layers. The later body takes it, as it would overlapping ones.
+  // A point on one body's face alone stays outside, as before.
+  return on_faces >= 2 ? last_on_face : s.domain.background;
 }
 
 void fill_material_index(const Scene& s, const Grid& g, const BlockLayout& L, MaterialIndex& mi) {

@@ -71,6 +71,38 @@ TEST(SubcellAverage, SlabFaceInsideACellGivesItsFillAndNormalShare) {
   EXPECT_EQ(ez, 16);
 }
 
+TEST(SubcellAverage, AFaceTwoSlabsShareOnANodeIsAveragedBetweenThemNotWithTheBackground) {
+  // Glass (z < 0) and gold (0 <= z < 3 nm) touching at z = 0, a node: Ex there lies exactly on both
+  // faces, strictly inside neither. The staircase gives it the later slab (not the background,
+  // which would put a cell of it between the layers) and the averaging pairs gold with glass, half
+  // and half. This once decided by round-off of the node coordinate and moved an SPR dip by 1 deg.
+  Scene s = periodic_box(6);
+  s.domain.center = {0, 0, 0};
+  materials::PoleSet glass;
+  glass.eps_inf = 2.25;
+  s.materials.push_back(material("glass", glass));
+  s.materials.push_back(material("gold", materials::find_material("Au")->poles));
+  s.bodies.push_back({geometry::make_slab(2, -10e-9, 0.0), 1, {}});
+  s.bodies.push_back({geometry::make_slab(2, 0.0, 3e-9), 2, {}});
+  const Grid g = Grid::uniform(s.domain);
+  const int k0 = g.nearest_node(2, 0.0);
+  ASSERT_EQ(g.nodes[2][static_cast<std::size_t>(k0)], 0.0);  // exactly on the faces
+  EXPECT_EQ(material_at(s, {0, 0, 0}), 2);
+  EXPECT_EQ(material_at(s, {0, 0, 3e-9}), 0);   // one body's face alone stays outside it
+  const BlockLayout L = BlockLayout::of(g.n);
+  MaterialIndex mi;
+  fill_material_index(s, g, L, mi);
+  int ex = 0;
+  for (const MixedCell& c : find_mixed_cells(s, g, L, mi)) {
+    if (c.component != Component::Ex || c.offset / L.sz - 1 != k0) continue;
+    ++ex;
+    EXPECT_EQ(c.inside, 2);
+    EXPECT_EQ(c.outside, 1);
+    EXPECT_NEAR(c.fill, 0.5, 1e-12);
+  }
+  EXPECT_EQ(ex, 36);  // one plane of 6 x 6 locations
+}
+
 // Drives every mixed location of a small gold (or glass) sphere in water with the same curl pulse
 // C(t), exactly as the bulk kernel would (E_k = ca E^n + cb C), and compares the DFT ratio E/D with
 //   1/eps_eff = n_c^2 (f/eps_in + (1-f)/eps_out) + (1 - n_c^2) / (f eps_in + (1-f) eps_out),
