@@ -9,32 +9,24 @@ Usage: example_gold_dimer_check.py YEEGAP_BINARY SOURCE_DIR [KEEP_DIR]
 With KEEP_DIR the results (dimer.h5) stay there instead of in a temporary folder."""
 import json
 import os
-import subprocess
 import sys
 import tempfile
 
 import h5py
 import numpy as np
 
+from example_checks import Checks, run_example
+
 yeegap, src = sys.argv[1], sys.argv[2]
-fails = 0
-
-
-def check(ok, what):
-    global fails
-    print(("ok   " if ok else "FAIL ") + what)
-    fails += 0 if ok else 1
+check = Checks()
 
 
 with tempfile.TemporaryDirectory() as scratch:
     work = sys.argv[3] if len(sys.argv) > 3 else scratch
     out = os.path.join(work, "dimer.h5")
-    cmd = [yeegap, "run", os.path.join(src, "examples", "gold_dimer_antenna.yaml"), "-o", out, "--json",
-           "--set", "domain.step=2 nm", "--set", "domain.absorber.cells=6",
-           "--set", "outputs[0].cross_sections.frequencies.count=23"]
-    done = subprocess.run(cmd, capture_output=True, text=True)
-    if done.returncode != 0:
-        sys.exit(f"run failed ({done.returncode}):\n{done.stderr}")
+    done = run_example(yeegap, src, "gold_dimer_antenna.yaml", out, "--json",
+                       overrides=["domain.step=2 nm", "domain.absorber.cells=6",
+                                  "outputs[0].cross_sections.frequencies.count=23"])
     summary = json.loads(done.stdout)
     check(summary["stop_reason"] == "decayed", "the run stops by decay")
     with h5py.File(out, "r") as f:
@@ -65,5 +57,4 @@ with tempfile.TemporaryDirectory() as scratch:
         stored = m["E_enhancement"][k, 0][np.argmin(np.abs(y)), np.argmin(np.abs(x))]
         check(abs(stored / enhancement - 1) < 1e-9,
               f"E_enhancement at the gap centre ({stored:.1f}) is |E|^2 / |E_inc|^2 from /sources")
-print(f"{5 + 2 - fails} passed, {fails} failed")
-sys.exit(1 if fails else 0)
+check.finish()

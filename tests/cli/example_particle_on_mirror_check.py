@@ -10,15 +10,16 @@ stronger than the incident one.
 Usage: example_particle_on_mirror_check.py YEEGAP_BINARY SOURCE_DIR"""
 import json
 import os
-import subprocess
 import sys
 import tempfile
 
 import h5py
 import numpy as np
 
+from example_checks import Checks, run_example
+
 yeegap, src = sys.argv[1], sys.argv[2]
-fails = 0
+check = Checks()
 
 COARSE = [
     "domain.step=3nm", "domain.grading=1.5", "domain.absorber.cells=6",
@@ -32,24 +33,13 @@ COARSE = [
 ]
 
 
-def check(ok, what):
-    global fails
-    print(("ok   " if ok else "FAIL ") + what)
-    fails += 0 if ok else 1
-
-
 with tempfile.TemporaryDirectory() as work:
     out = os.path.join(work, "pom.h5")
     # Point 5 of the scene's sweep: the 0.5 nm spacer, quantum-corrected.
     # One thread: on this small grid a second one mostly waits at the loop barriers, and CI shares
     # its cores with other tests.
-    cmd = [yeegap, "run", os.path.join(src, "examples", "particle_on_mirror.yaml"), "--point", "5", "-o", out,
-           "--json", "--threads", "1"]
-    for s in COARSE:
-        cmd += ["--set", s]
-    done = subprocess.run(cmd, capture_output=True, text=True)
-    if done.returncode != 0:
-        sys.exit(f"run failed ({done.returncode}):\n{done.stderr}")
+    done = run_example(yeegap, src, "particle_on_mirror.yaml", out, "--point", "5", "--json", "--threads", "1",
+                       overrides=COARSE)
     summary = json.loads(done.stdout)
     check(summary["stop_reason"] == "decayed", "the run stops by decay")
     with h5py.File(out, "r") as f:
@@ -78,5 +68,4 @@ with tempfile.TemporaryDirectory() as work:
         print(f"     largest |E|^2/|E_inc|^2 at the gap centre: {enhancement[k]:.3g} at {m['wavelength_nm'][k]:.0f} nm")
         check(enhancement[k] > 100, "the gap field intensity is more than 100 times the incident one")
 
-print("all checks passed" if fails == 0 else f"{fails} check(s) failed")
-sys.exit(1 if fails else 0)
+check.finish()

@@ -16,6 +16,8 @@ import tempfile
 import h5py
 import numpy as np
 
+from example_checks import Checks, run_example
+
 yeegap, src = sys.argv[1], sys.argv[2]
 WAVELENGTH = 632.8e-9
 N_PRISM, N_BUFFER, N_LAYER = 1.5151, 1.3317, 1.45  # the example's own values
@@ -60,22 +62,13 @@ def tmm_minimum(layers):
 chromium, gold = library_eps("Cr"), library_eps("Au_critical_points")
 after = [(chromium, 2e-9), (gold, 48e-9), (N_LAYER ** 2, 5e-9)]
 before = [(chromium, 2e-9), (gold, 48e-9)]
-fails = 0
-
-
-def check(ok, what):
-    global fails
-    print(("ok   " if ok else "FAIL ") + what)
-    fails += 0 if ok else 1
+check = Checks()
 
 
 with tempfile.TemporaryDirectory() as work:
     out = os.path.join(work, "chip.h5")
-    cmd = [yeegap, "run", os.path.join(src, "examples", "spr_sensor_chip.yaml"), "-o", out, "--json", "--plot",
-           "--set", "excitation[0].plane_wave.angles={from: 70 deg, to: 78 deg, count: 9}"]
-    done = subprocess.run(cmd, capture_output=True, text=True)
-    if done.returncode != 0:
-        sys.exit(f"run failed ({done.returncode}):\n{done.stderr}")
+    done = run_example(yeegap, src, "spr_sensor_chip.yaml", out, "--json", "--plot",
+                       overrides=["excitation[0].plane_wave.angles={from: 70 deg, to: 78 deg, count: 9}"])
     check("sensitivity" in done.stderr and "binding shift" in done.stderr, "the run prints the sensor figures")
     summary = json.loads(done.stdout)
     chip_json = summary["outputs"]["chip"][0] if isinstance(summary["outputs"]["chip"], list) else summary["outputs"]["chip"]
@@ -97,5 +90,4 @@ with tempfile.TemporaryDirectory() as work:
               "equivalent index = shift / sensitivity")
     pngs = [p for p in os.listdir(work) if p.endswith(".png") and "chip" in p]
     check(any(os.path.getsize(os.path.join(work, p)) > 10000 for p in pngs), f"--plot drew the R(theta) figure {pngs}")
-print(f"{1 if fails == 0 else 0} passed, {fails} failed")
-sys.exit(1 if fails else 0)
+check.finish()
