@@ -24,6 +24,20 @@ struct MixedCell {
   Vec3 normal{};               // unit surface normal (outward), or zero where it is undefined
 };
 
+/// What crosses a box: nothing (`clear`: one medium fills it), the surface of the topmost body
+/// between two media that can be averaged, or a surface with a perfect conductor, the tunnelling
+/// gap or the same medium on both sides (`foreign`: stays staircased).
+struct BoxCrossing {
+  enum class Kind { clear, averaged, foreign };
+  Kind kind = Kind::clear;
+  int inside = 0, outside = 0;  // the body's material, what lies under it beyond the surface
+  double fill = 0;              // fraction of the box inside the body
+  Vec3 normal{};                // outward unit normal at p, or zero
+};
+/// `bounds`: the bodies' bounding boxes; `p`: the point of the box where the normal is taken.
+BoxCrossing find_box_crossing(const Scene& s, const std::vector<geometry::Aabb>& bounds, const geometry::Aabb& box,
+                              const Vec3& p);
+
 /// Mixed E locations of the block in layout order, component by component. Locations held at zero
 /// (wall index in `mi`), perfect conductors and the tunnelling-gap medium stay staircased: a wall
 /// has no permittivity to average, and gap cells get their damping from their own position.

@@ -11,6 +11,7 @@
 // eps_inf, so the Courant bound of the bulk media holds (dispersive_stability.h).
 #include "solver/subcell_average.h"
 
+#include <algorithm>
 #include <map>
 
 #include <fmt/format.h>
@@ -18,50 +19,15 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
-#include "materials/discrete_permittivity.h"
 #include "solver/simulation_state.h"
 
 namespace yeegap::solver {
 
-SubcellAverage::Response SubcellAverage::response(const materials::PoleSet& p, double dt) {
-  Response r;
-  r.eps_inf = p.eps_inf;
-  r.loss = p.conductivity * dt / constants::eps0;
-  for (const materials::DrudePole& d : p.drude) {
-    const double half = 0.5 * d.gamma * dt, wdt = d.omega_p * dt;
-    PoleStep s;
-    s.cq = static_cast<real>((1 - half) / (1 + half));
-    s.ce = static_cast<real>(wdt * wdt / (1 + half));
-    r.poles.push_back(s);
-  }
-  for (const materials::LorentzPole& l : p.lorentz) {
-    const double den = 1 + 0.5 * l.gamma * dt, w0dt2 = l.omega_0 * dt * l.omega_0 * dt;
-    PoleStep s;
-    s.cq = static_cast<real>((1 - 0.5 * l.gamma * dt) / den);
-    s.cp = static_cast<real>(-w0dt2 / den);
-    s.ce = static_cast<real>(l.delta_eps * w0dt2 / den);
-    s.keeps_p = true;
-    r.poles.push_back(s);
-  }
-  for (const materials::CriticalPoint& cp : p.critical_points) {
-    const materials::CriticalPointAde a = materials::critical_point_ade(cp);
-    const double half = 0.5 * a.damping * dt, den = 1 + half;
-    PoleStep s;
-    s.cq = static_cast<real>((1 - half) / den);
-    s.cp = static_cast<real>(-a.omega0_sq * dt * dt / den);
-    s.ce = static_cast<real>(a.a0 * dt * dt / den);
-    s.cm = static_cast<real>(-0.5 * a.a1 * dt / den);
-    s.implicit = static_cast<real>(0.5 * a.a1 * dt / den);
-    s.keeps_p = true;
-    r.poles.push_back(s);
-  }
-  return r;
-}
-
 SubcellAverage::SubcellAverage(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi,
                                const ECoefficients& ec, double dt)
     : cells_(find_mixed_cells(s, g, L, mi)) {
-  for (const MaterialSpec& m : s.materials) responses_.push_back(response(m.poles, dt));
+  for (const MaterialSpec& m : s.materials) responses_.push_back(branch_response(m.poles, dt));
+  if (s.domain.averaging_cross_terms) plan_dispersive_cross_terms(s, g, L, mi, dt);
   // Group the cells by material pair, keeping each group's cells in layout order per component.
   std::map<std::pair<int, int>, std::vector<const MixedCell*>> pairs;
   for (const MixedCell& c : cells_) pairs[{c.inside, c.outside}].push_back(&c);
@@ -82,11 +48,13 @@ SubcellAverage::SubcellAverage(const Scene& s, const Grid& g, const BlockLayout&
         gr.fill.push_back(static_cast<real>(m->fill));
         gr.share.push_back(static_cast<real>(m->normal_share));
         gr.normal.push_back(m->normal);
+        gr.own_weight.push_back(1);
         ++q;
       }
     }
     gr.start[3] = q;
     gr.e_old.assign(q, real(0));
+    gr.increment.assign(q, real(0));
     for (int b = 0; b < 3; ++b) {
       gr.e[b].assign(q, real(0));
       gr.e_previous[b].assign(q, real(0));
@@ -108,12 +76,54 @@ SubcellAverage::SubcellAverage(const Scene& s, const Grid& g, const BlockLayout&
     add(2, false);
     groups_.push_back(std::move(gr));
   }
+  bind_dispersive_cross_terms();
   if (s.domain.averaging_cross_terms) build_cross_terms(s, g, L, mi, dt);
+}
+
+void SubcellAverage::plan_dispersive_cross_terms(const Scene& s, const Grid& g, const BlockLayout& L,
+                                                 const MaterialIndex& mi, double dt) {
+  auto dielectric = [&](int m) { return responses_[m].poles.empty() && responses_[m].loss == 0; };
+  std::map<std::pair<int, int>, bool> pairs;
+  for (const MixedCell& c : cells_)
+    if (!dielectric(c.inside) || !dielectric(c.outside)) pairs[{c.inside, c.outside}] = true;
+  const double room = g.courant_limit() / dt;
+  for (const auto& [pair, unused] : pairs) {
+    // Each pair sees the bulk locations earlier pairs took as theirs, so no location joins two.
+    SubcellDispersiveCrossTerms t(s, g, L, mi, cells_, pair.first, pair.second, dt, room * room);
+    if (t.empty()) continue;
+    for (const SubcellDispersiveCrossTerms::Site& st : t.sites())
+      if (st.joins) cells_.push_back({st.component, st.offset, pair.first, pair.second, st.fill, 0.0, Vec3{}});
+    dispersive_cross_.push_back(std::move(t));
+  }
+  // Back to layout order, component by component (mixed_cells.h).
+  std::sort(cells_.begin(), cells_.end(), [](const MixedCell& a, const MixedCell& b) {
+    return a.component != b.component ? a.component < b.component : a.offset < b.offset;
+  });
+}
+
+void SubcellAverage::bind_dispersive_cross_terms() {
+  for (SubcellDispersiveCrossTerms& t : dispersive_cross_) {
+    Group* gr = nullptr;
+    for (Group& candidate : groups_)
+      if (candidate.inside == t.inside() && candidate.outside == t.outside()) gr = &candidate;
+    YG_CHECK(gr != nullptr, "a coupled pair has averaged locations");
+    std::map<std::pair<int, std::ptrdiff_t>, std::size_t> where;
+    for (int c = 0; c < 3; ++c)
+      for (std::size_t i = gr->start[c]; i < gr->start[c + 1]; ++i) where[{c, gr->offset[i]}] = i;
+    std::vector<std::size_t> index;
+    for (const SubcellDispersiveCrossTerms::Site& st : t.sites()) {
+      const auto it = where.find({static_cast<int>(st.component), st.offset});
+      YG_CHECK(it != where.end(), "every coupled location is an averaged location of its pair");
+      index.push_back(it->second);
+      gr->own_weight[it->second] = static_cast<real>(1 - st.coupled);
+    }
+    t.bind(index);
+  }
 }
 
 void SubcellAverage::build_cross_terms(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi,
                                        double dt) {
-  auto dielectric = [&](const Response& r) { return r.poles.empty() && r.loss == 0; };
+  auto dielectric = [&](const BranchResponse& r) { return r.poles.empty() && r.loss == 0; };
   std::vector<SubcellCrossTerms::Site> sites;
   std::vector<std::ptrdiff_t> others;  // other mixed locations, as 3 offset + component
   for (std::size_t q = 0; q < groups_.size(); ++q) {
@@ -160,11 +170,15 @@ void SubcellAverage::keep(Fields& f) {
   // Fields given before the first step (a test's initial condition) start every branch there.
   for (Group& g : groups_)
     for (int b = 0; b < 3; ++b) g.e[b].assign(g.e_old.begin(), g.e_old.end());
+  for (SubcellDispersiveCrossTerms& t : dispersive_cross_) t.start(f);
   started_[0] = 1;
 }
 
 void SubcellAverage::apply(Fields& f) {
   for (Group& g : groups_) apply_group(g, f);
+  for (SubcellDispersiveCrossTerms& t : dispersive_cross_)
+    for (const Group& g : groups_)
+      if (g.inside == t.inside() && g.outside == t.outside()) t.add(g.increment, f);
   if (!cross_) return;
   // A dielectric branch advances eps_in (E^{n+1} - E^n) = dD, so it holds D / eps_in.
   for (std::size_t q = 0; q < site_cell_.size(); ++q) {
@@ -175,8 +189,8 @@ void SubcellAverage::apply(Fields& f) {
 }
 
 void SubcellAverage::apply_group(Group& g, Fields& f) {
-  const Response& in = responses_[g.inside];
-  const Response& out = responses_[g.outside];
+  const BranchResponse& in = responses_[g.inside];
+  const BranchResponse& out = responses_[g.outside];
   const std::size_t np = g.poles.size();
   for (int c = 0; c < 3; ++c) {
     real* field = f.c[c].data();
@@ -184,6 +198,7 @@ void SubcellAverage::apply_group(Group& g, Fields& f) {
     for_each_index(parallel_worth(static_cast<long long>(hi - lo) * 8), lo, hi, [&](std::size_t i) {
       const double fill = g.fill[i], rest = 1 - fill;
       const double dD = g.recover[i] * (field[g.offset[i]] - g.ca[i] * g.e_old[i]);
+      g.increment[i] = static_cast<real>(dD);
       double sum_q[3] = {0, 0, 0}, implicit[3] = {0, 0, 0};
       for (std::size_t k = 0; k < np; ++k) {
         BranchPole& bp = g.poles[k];
@@ -219,16 +234,17 @@ void SubcellAverage::apply_group(Group& g, Fields& f) {
         g.e[b][i] = static_cast<real>(e_new[b]);
       }
       const double share = g.share[i];
-      field[g.offset[i]] =
-          static_cast<real>(share * (fill * e_new[0] + rest * e_new[1]) + (1 - share) * e_new[2]);
+      const double own = share * (fill * e_new[0] + rest * e_new[1]) + (1 - share) * e_new[2];
+      field[g.offset[i]] = static_cast<real>(g.own_weight[i] * own);
     });
   }
 }
 
 std::size_t SubcellAverage::memory_bytes() const {
   std::size_t bytes = cells_.size() * sizeof(MixedCell) + (cross_ ? cross_->memory_bytes() : 0);
+  for (const SubcellDispersiveCrossTerms& t : dispersive_cross_) bytes += t.memory_bytes();
   for (const Group& g : groups_) {
-    bytes += g.offset.size() * (sizeof(std::ptrdiff_t) + 11 * sizeof(real));
+    bytes += g.offset.size() * (sizeof(std::ptrdiff_t) + 13 * sizeof(real));
     for (const BranchPole& bp : g.poles) bytes += (bp.q.size() + bp.p.size()) * sizeof(real);
   }
   return bytes;
@@ -237,6 +253,7 @@ std::size_t SubcellAverage::memory_bytes() const {
 void SubcellAverage::add_state(StateArrays& s, const std::string& prefix) {
   s.add_vector(prefix + "/started", started_);
   if (cross_) cross_->add_state(s, prefix);
+  for (SubcellDispersiveCrossTerms& t : dispersive_cross_) t.add_state(s, prefix);
   for (Group& g : groups_) {
     const std::string base = fmt::format("{}/pair{}_{}", prefix, g.inside, g.outside);
     for (int b = 0; b < 3; ++b) {

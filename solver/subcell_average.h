@@ -9,14 +9,12 @@
 // + (1 - n_c^2) E_mix. Each branch is the scheme of dispersive.h in D form, so no pole of an averaged
 // 1/eps is ever built (physics.md 3.8 warns against that), and a cell with f = 1 is the bulk update.
 // The off-diagonal terms n_c n_d (<1/eps> - 1/<eps>) D_d are added between lossless dielectrics in
-// a symmetric form (subcell_cross_terms.h); without them an oblique surface leaves a first-order
-// error (2D cylinder, E across the axis: 1.27 % at 10 cells per radius, 0.033 % with them). For
-// pairs with a dispersive or lossy material they are still dropped, and that error remains there
-// (tests/solver/*_convergence_slow_test.cpp, docs/scene.md). A trial, not kept, added to each mixed
-// E_c a quarter of n_c n_d (E_series - E_mix) of its mixed E_d neighbours (their own branches): the
-// gold sphere's peak came within 0.012 % of Mie at R/cell 10 (0.73 % without), but that coupling is
-// not symmetric, and a low-loss Drude sphere in a closed box grew 1e14-fold between steps 5e4 and
-// 1e5 (bounded without it): metals need the symmetric, passive form still to be built.
+// a symmetric form (subcell_cross_terms.h) and between a dispersive or lossy material and its
+// surroundings in a passive form (subcell_dispersive_cross_terms.h: per triple of components, each
+// location's share of its update; bulk locations of either material in those triples join the
+// averaged ones with fill 1 or 0). Without them an oblique surface leaves a first-order error (2D
+// cylinder, E across the axis: 1.27 % at 10 cells per radius, 0.033 % with them; gold sphere peak
+// 0.73 % at 10 cells per radius, 0.008 % with them).
 #pragma once
 
 #include <array>
@@ -29,7 +27,9 @@
 #include "solver/fields.h"
 #include "solver/mixed_cells.h"
 #include "solver/scene.h"
+#include "solver/subcell_branch.h"
 #include "solver/subcell_cross_terms.h"
+#include "solver/subcell_dispersive_cross_terms.h"
 #include "solver/yee_kernels.h"
 
 namespace yeegap::solver {
@@ -61,20 +61,12 @@ class SubcellAverage {
   std::size_t memory_bytes() const;
   /// The off-diagonal terms between dielectrics, or null (none, or switched off).
   const SubcellCrossTerms* cross_terms() const { return cross_.get(); }
+  /// The off-diagonal terms of the pairs with a dispersive or lossy material (none when switched off).
+  const std::vector<SubcellDispersiveCrossTerms>& dispersive_cross_terms() const { return dispersive_cross_; }
   /// The branch fields and pole currents, for checkpoints (simulation_state.h).
   void add_state(StateArrays& s, const std::string& prefix);
 
  private:
-  // One pole's update in the units of dispersive.h (Q = dt J / eps0, P / eps0, both V/m):
-  //   Q^{n+1/2} = cq Q + cp P + ce E^n + cm E^{n-1} (+ implicit E^{n+1});  P += Q
-  struct PoleStep {
-    real cq = 0, cp = 0, ce = 0, cm = 0, implicit = 0;
-    bool keeps_p = false;  // Lorentz and critical points
-  };
-  struct Response {
-    double eps_inf = 1, loss = 0;  // loss = sigma dt / eps0
-    std::vector<PoleStep> poles;
-  };
   struct BranchPole {
     int branch = 0;                // 0: inside, 1: outside, 2: mixture
     bool from_inside = true;       // in the mixture, weighted by f (inside) or 1 - f (outside)
@@ -87,17 +79,23 @@ class SubcellAverage {
     std::vector<std::ptrdiff_t> offset;
     std::vector<real> ca, recover;       // bulk ca of the staircase material, (dt/eps0)/cb
     std::vector<real> fill, share;
+    // The share of E that is the location's own average; the rest comes from the triples of
+    // subcell_dispersive_cross_terms.h (1 where none couples it).
+    std::vector<real> own_weight;
+    std::vector<real> increment;         // dD/eps0 of this step
     std::vector<Vec3> normal;            // kept for the cross terms' setup
     AlignedVector<real> e_old;
     std::array<AlignedVector<real>, 3> e, e_previous;  // per branch
     std::vector<BranchPole> poles;
   };
-  static Response response(const materials::PoleSet& p, double dt);
   void apply_group(Group& g, Fields& f);
+  void plan_dispersive_cross_terms(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi,
+                                   double dt);
+  void bind_dispersive_cross_terms();
   void build_cross_terms(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi, double dt);
 
   std::vector<MixedCell> cells_;
-  std::vector<Response> responses_;  // per material
+  std::vector<BranchResponse> responses_;  // per material
   std::vector<Group> groups_;
   // 1 once the branches hold a state (the first keep() starts them at the fields then present);
   // an array so a checkpoint carries it.
@@ -106,6 +104,8 @@ class SubcellAverage {
   std::unique_ptr<SubcellCrossTerms> cross_;
   std::vector<std::pair<std::size_t, std::size_t>> site_cell_;
   std::vector<double> site_d_;
+  // Off-diagonal terms of the pairs with a dispersive or lossy material, one per pair.
+  std::vector<SubcellDispersiveCrossTerms> dispersive_cross_;
 };
 
 }  // namespace yeegap::solver

@@ -16,34 +16,11 @@
 
 #include "base/errors.h"
 #include "solver/simulation_state.h"
+#include "solver/symmetric_3x3.h"
 
 namespace yeegap::solver {
 
 namespace {
-
-using Tensor = std::array<std::array<double, 3>, 3>;
-
-// Eigenvalues of a symmetric 3x3 matrix (trigonometric closed form), ascending.
-std::array<double, 3> eigenvalues(const Tensor& a) {
-  const double p1 = a[0][1] * a[0][1] + a[0][2] * a[0][2] + a[1][2] * a[1][2];
-  std::array<double, 3> e{a[0][0], a[1][1], a[2][2]};
-  if (p1 == 0) {
-    std::sort(e.begin(), e.end());
-    return e;
-  }
-  const double q = (a[0][0] + a[1][1] + a[2][2]) / 3;
-  const double p2 = (a[0][0] - q) * (a[0][0] - q) + (a[1][1] - q) * (a[1][1] - q) + (a[2][2] - q) * (a[2][2] - q) + 2 * p1;
-  const double p = std::sqrt(p2 / 6);
-  Tensor b;
-  for (int i = 0; i < 3; ++i)
-    for (int j = 0; j < 3; ++j) b[i][j] = (a[i][j] - (i == j ? q : 0)) / p;
-  const double det = b[0][0] * (b[1][1] * b[2][2] - b[1][2] * b[2][1]) - b[0][1] * (b[1][0] * b[2][2] - b[1][2] * b[2][0]) +
-                     b[0][2] * (b[1][0] * b[2][1] - b[1][1] * b[2][0]);
-  const double r = std::clamp(det / 2, -1.0, 1.0);
-  const double phi = std::acos(r) / 3;
-  const double hi = q + 2 * p * std::cos(phi), lo = q + 2 * p * std::cos(phi + 2.0943951023931957);
-  return {lo, 3 * q - hi - lo, hi};
-}
 
 bool lossless_dielectric(const MaterialSpec& m) {
   return !m.perfect_conductor && m.poles.drude.empty() && m.poles.lorentz.empty() && m.poles.critical_points.empty() &&
@@ -65,7 +42,7 @@ SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockL
     return std::array<int, 3>{static_cast<int>(r % L.sy) - 1, static_cast<int>(r / L.sy) - 1, k};
   };
   std::map<Key, int> node_of;
-  std::vector<Tensor> kappa;  // per node: the averaged inverse permittivity (bulk: diagonal)
+  std::vector<Matrix3> kappa;  // per node: the averaged inverse permittivity (bulk: diagonal)
   for (std::size_t q = 0; q < sites.size(); ++q) {
     const Site& st = sites[q];
     const int c = static_cast<int>(st.component);
@@ -75,7 +52,7 @@ SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockL
     // Farjadpour et al. (2006): kappa = <1/eps> n n^T + (1/<eps>) (1 - n n^T).
     const double a = st.fill / st.eps_in + (1 - st.fill) / st.eps_out;
     const double b = 1 / (st.fill * st.eps_in + (1 - st.fill) * st.eps_out);
-    Tensor t{};
+    Matrix3 t{};
     for (int x = 0; x < 3; ++x)
       for (int y = 0; y < 3; ++y) t[x][y] = (x == y ? b : 0) + (a - b) * st.normal[x] * st.normal[y];
     kappa.push_back(t);
@@ -118,7 +95,7 @@ SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockL
     p.node = static_cast<int>(nodes_.size());
     node_of[key] = p.node;
     nodes_.push_back({c, o, -1, eps});
-    Tensor t{};
+    Matrix3 t{};
     for (int x = 0; x < 3; ++x) t[x][x] = 1 / eps;
     kappa.push_back(t);
     return p;
@@ -159,7 +136,7 @@ SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockL
     const int bits = std::get<3>(t);
     if (!uniform_around(node)) continue;
     std::array<Place, 3> at;
-    std::array<Tensor, 3> k{};
+    std::array<Matrix3, 3> k{};
     bool any_site = false;
     for (int c = 0; c < 3; ++c) {
       std::array<int, 3> idx = node;
@@ -176,7 +153,7 @@ SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockL
     if (!any_site) continue;
     // The triple's tensor: each location's own diagonal, the off-diagonal terms averaged over the
     // two locations they join (an absent location sits decoupled at the smallest present diagonal).
-    Tensor diag{}, off{};
+    Matrix3 diag{}, off{};
     double lo = 1e300;
     for (int c = 0; c < 3; ++c)
       if (at[c].node >= 0) lo = std::min(lo, k[c][c][c]);
@@ -188,10 +165,10 @@ SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockL
     // Largest scale in [0, 1] keeping the eigenvalues in [lo/10, top] (bisection; the scale-0
     // matrix, the diagonal, qualifies: every diagonal is at most 1/eps_min <= 1 <= top).
     auto fits = [&](double sc) {
-      Tensor m = diag;
+      Matrix3 m = diag;
       for (int x = 0; x < 3; ++x)
         for (int y = 0; y < 3; ++y) m[x][y] += sc * off[x][y];
-      const auto e = eigenvalues(m);
+      const auto e = symmetric_eigenvalues(m);
       return e[0] >= 0.1 * lo && e[2] <= top;
     };
     double scale = 1;

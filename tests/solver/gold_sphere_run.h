@@ -37,9 +37,15 @@ inline std::pair<double, double> parabolic_peak(const std::vector<double>& x, co
   return {x[m] + shift * h, y1 - 0.25 * (y0 - y2) * shift};
 }
 
+/// How the sphere's surface cells are treated: staircase, the diagonal of the averaged tensor only,
+/// or the whole tensor (solver/subcell_dispersive_cross_terms.h).
+enum class Averaging { off, diagonal, full };
+inline const char* name(Averaging a) { return a == Averaging::off ? "off" : (a == Averaging::diagonal ? "diagonal" : "full"); }
+
 /// Runs the sphere at `cells_per_radius` (R / cell); the centre sits on the mirror planes and
 /// `z_offset` cells above a node along z.
-inline SpherePeak gold_sphere_peak(double cells_per_radius, bool averaging, double z_offset = 0.5, int absorber = 8) {
+inline SpherePeak gold_sphere_peak(double cells_per_radius, Averaging averaging, double z_offset = 0.5,
+                                   int absorber = 8) {
   using constants::c0;
   using constants::pi;
   constexpr double n_water = 1.333, radius = 30e-9;
@@ -53,7 +59,8 @@ inline SpherePeak gold_sphere_peak(double cells_per_radius, bool averaging, doub
   s.domain.edges[0] = EdgeKind::mirror_odd;
   s.domain.edges[2] = EdgeKind::mirror_even;
   s.domain.absorber.cells = absorber;
-  s.domain.averaging = averaging;
+  s.domain.averaging = averaging != Averaging::off;
+  s.domain.averaging_cross_terms = averaging == Averaging::full;
   s.materials[0].name = "water";
   s.materials[0].poles.eps_inf = n_water * n_water;
   const materials::PoleSet gold = materials::find_material("Au")->poles;
@@ -88,9 +95,9 @@ inline SpherePeak gold_sphere_peak(double cells_per_radius, bool averaging, doub
   std::tie(p.mie_wavelength, p.mie_extinction) = parabolic_peak(lambdas, mie);
   p.steps = r.summary.steps;
   p.mixed_cells = sim.summary().mixed_cells;
-  std::printf("R/cell %5.2f, absorber %d, averaging %-3s: peak %.2f nm (Mie %.2f nm), error %+.3f %%, extinction %.4f of Mie, "
+  std::printf("R/cell %5.2f, absorber %d, averaging %-8s: peak %.2f nm (Mie %.2f nm), error %+.3f %%, extinction %.4f of Mie, "
               "%lld mixed locations, %ld steps\n",
-              cells_per_radius, absorber, averaging ? "on" : "off", p.fdtd_wavelength * 1e9, p.mie_wavelength * 1e9,
+              cells_per_radius, absorber, name(averaging), p.fdtd_wavelength * 1e9, p.mie_wavelength * 1e9,
               100 * p.wavelength_error(), p.extinction_ratio(), p.mixed_cells, p.steps);
   std::fflush(stdout);
   return p;

@@ -2,10 +2,10 @@
 // water (index 1.333, dispersion-free here) lit by a TFSF plane wave: the dipolar plasmon
 // extinction peak against Mie theory for the same permittivity model (Bohren & Huffman 1983,
 // ch. 4; materials/mie_sphere.h). Tolerance from the issue: peak wavelength within 1.5 %.
-// The issue also asks the peak extinction within 5 %; staircased (no subcell averaging yet), the
-// peak height depends on how the staircase falls: measured 0.928 of Mie at 10 cells per radius and
-// 0.946 at 15 with the centre on a cell centre, 0.968 at 15 with the centre on a node (this run).
-// That check waits for subcell averaging of metals and is printed, not asserted.
+// The issue also asks the peak extinction within 5 %; staircased, as here, the peak height depends
+// on how the staircase falls: measured 0.928 of Mie at 10 cells per radius and 0.946 at 15 with the
+// centre on a cell centre, 0.968 at 15 with the centre on a node (this run), so it is printed, not
+// asserted. With subcell averaging it is asserted: gold_sphere_averaged_validation_test.cpp.
 #include <gtest/gtest.h>
 
 #include <cmath>
