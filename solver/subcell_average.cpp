@@ -1,11 +1,7 @@
-// Averaged update of mixed E locations (see subcell_average.h). In the units of dispersive.h
-// (Dt = D/eps0, Q = dt J/eps0, both V/m), a branch of relative eps_inf, loss s = sigma dt/eps0
-// and poles with weights w steps as
-//   eps_inf (E^{n+1} - E^n) = dDt - s (E^{n+1} + E^n)/2 - sum w Q^{n+1/2},
-// which is eps0 eps_inf dE/dt = dD/dt - sigma E - J of physics.md 3.4 with the same pole updates as
-// dispersive.cpp; the critical points' E^{n+1} share moves to the left side. The increment dDt is
-// recovered from the bulk kernel's result: E_k = ca E^n + cb C, so dDt = (dt/eps0) C
-// = (dt/eps0)/cb (E_k - ca E^n), exact for whatever the CPML and sources added with that cb.
+// Averaged update of mixed E locations (see subcell_average.h). Each location's three branches are
+// the media of subcell_branch.h, all driven by the same increment of D. That increment is recovered
+// from the bulk kernel's result: E_k = ca E^n + cb C, so dDt = (dt/eps0) C = (dt/eps0)/cb
+// (E_k - ca E^n), exact for whatever the CPML and sources added with that cb.
 // Passivity: each branch is a passive medium and 1/eps_eff a positive combination of their inverse
 // permittivities, so the cell stays passive; the instantaneous permittivity lies between the two
 // eps_inf, so the Courant bound of the bulk media holds (dispersive_stability.h).
@@ -55,25 +51,11 @@ SubcellAverage::SubcellAverage(const Scene& s, const Grid& g, const BlockLayout&
     gr.start[3] = q;
     gr.e_old.assign(q, real(0));
     gr.increment.assign(q, real(0));
-    for (int b = 0; b < 3; ++b) {
-      gr.e[b].assign(q, real(0));
-      gr.e_previous[b].assign(q, real(0));
-    }
-    auto add = [&](int branch, bool from_inside) {
-      for (const PoleStep& st : responses_[from_inside ? gr.inside : gr.outside].poles) {
-        BranchPole bp;
-        bp.branch = branch;
-        bp.from_inside = from_inside;
-        bp.step = st;
-        bp.q.assign(q, real(0));
-        if (st.keeps_p) bp.p.assign(q, real(0));
-        gr.poles.push_back(std::move(bp));
-      }
-    };
-    add(0, true);
-    add(1, false);
-    add(2, true);
-    add(2, false);
+    gr.slots = 2 * (responses_[gr.inside].poles.size() + responses_[gr.outside].poles.size());
+    gr.e.assign(3 * q, real(0));
+    gr.e_previous.assign(3 * q, real(0));
+    gr.q.assign(gr.slots * q, real(0));
+    gr.p.assign(gr.slots * q, real(0));
     groups_.push_back(std::move(gr));
   }
   bind_dispersive_cross_terms();
@@ -169,7 +151,8 @@ void SubcellAverage::keep(Fields& f) {
   if (started_[0] != 0) return;
   // Fields given before the first step (a test's initial condition) start every branch there.
   for (Group& g : groups_)
-    for (int b = 0; b < 3; ++b) g.e[b].assign(g.e_old.begin(), g.e_old.end());
+    for (std::size_t i = 0; i < g.e_old.size(); ++i)
+      for (int b = 0; b < 3; ++b) g.e[3 * i + b] = g.e_old[i];
   for (SubcellDispersiveCrossTerms& t : dispersive_cross_) t.start(f);
   started_[0] = 1;
 }
@@ -183,7 +166,7 @@ void SubcellAverage::apply(Fields& f) {
   // A dielectric branch advances eps_in (E^{n+1} - E^n) = dD, so it holds D / eps_in.
   for (std::size_t q = 0; q < site_cell_.size(); ++q) {
     const Group& g = groups_[site_cell_[q].first];
-    site_d_[q] = responses_[g.inside].eps_inf * g.e[0][site_cell_[q].second];
+    site_d_[q] = responses_[g.inside].eps_inf * g.e[3 * site_cell_[q].second];
   }
   cross_->add(f, site_d_);
 }
@@ -191,50 +174,23 @@ void SubcellAverage::apply(Fields& f) {
 void SubcellAverage::apply_group(Group& g, Fields& f) {
   const BranchResponse& in = responses_[g.inside];
   const BranchResponse& out = responses_[g.outside];
-  const std::size_t np = g.poles.size();
+  const std::size_t ni = in.poles.size(), pair = ni + out.poles.size();
   for (int c = 0; c < 3; ++c) {
     real* field = f.c[c].data();
     const std::size_t lo = g.start[c], hi = g.start[c + 1];
     for_each_index(parallel_worth(static_cast<long long>(hi - lo) * 8), lo, hi, [&](std::size_t i) {
-      const double fill = g.fill[i], rest = 1 - fill;
+      const double fill = g.fill[i];
       const double dD = g.recover[i] * (field[g.offset[i]] - g.ca[i] * g.e_old[i]);
       g.increment[i] = static_cast<real>(dD);
-      double sum_q[3] = {0, 0, 0}, implicit[3] = {0, 0, 0};
-      for (std::size_t k = 0; k < np; ++k) {
-        BranchPole& bp = g.poles[k];
-        const PoleStep& st = bp.step;
-        real* q = bp.q.data();
-        real* p = bp.p.data();
-        const real en = g.e[bp.branch][i], ep = g.e_previous[bp.branch][i];
-        real qn = st.cq * q[i] + st.ce * en + st.cm * ep;
-        if (st.keeps_p) qn += st.cp * p[i];
-        q[i] = qn;
-        if (st.keeps_p && st.implicit == 0) p[i] += qn;  // Lorentz: P^{n+1} now; critical points after E
-        const double w = bp.branch < 2 ? 1.0 : (bp.from_inside ? fill : rest);
-        sum_q[bp.branch] += w * qn;
-        implicit[bp.branch] += w * st.implicit;
-      }
-      const double eps[3] = {in.eps_inf, out.eps_inf, fill * in.eps_inf + rest * out.eps_inf};
-      const double loss[3] = {in.loss, out.loss, fill * in.loss + rest * out.loss};
-      double e_new[3];
-      for (int b = 0; b < 3; ++b) {
-        const double en = g.e[b][i];
-        e_new[b] = ((eps[b] - 0.5 * loss[b]) * en + dD - sum_q[b]) / (eps[b] + 0.5 * loss[b] + implicit[b]);
-      }
-      for (std::size_t k = 0; k < np; ++k) {
-        BranchPole& bp = g.poles[k];
-        if (bp.step.implicit == 0) continue;
-        real* q = bp.q.data();
-        real* p = bp.p.data();
-        q[i] += bp.step.implicit * static_cast<real>(e_new[bp.branch]);
-        p[i] += q[i];
-      }
-      for (int b = 0; b < 3; ++b) {
-        g.e_previous[b][i] = g.e[b][i];
-        g.e[b][i] = static_cast<real>(e_new[b]);
-      }
+      real* e = &g.e[3 * i];
+      real* ep = &g.e_previous[3 * i];
+      real* q = &g.q[g.slots * i];
+      real* p = &g.p[g.slots * i];
+      const double e_in = step_branch(in, nullptr, 1.0, e[0], ep[0], q, p, dD);
+      const double e_out = step_branch(out, nullptr, 1.0, e[1], ep[1], q + ni, p + ni, dD);
+      const double e_mix = step_branch(in, &out, fill, e[2], ep[2], q + pair, p + pair, dD);
       const double share = g.share[i];
-      const double own = share * (fill * e_new[0] + rest * e_new[1]) + (1 - share) * e_new[2];
+      const double own = share * (fill * e_in + (1 - fill) * e_out) + (1 - share) * e_mix;
       field[g.offset[i]] = static_cast<real>(g.own_weight[i] * own);
     });
   }
@@ -244,8 +200,8 @@ std::size_t SubcellAverage::memory_bytes() const {
   std::size_t bytes = cells_.size() * sizeof(MixedCell) + (cross_ ? cross_->memory_bytes() : 0);
   for (const SubcellDispersiveCrossTerms& t : dispersive_cross_) bytes += t.memory_bytes();
   for (const Group& g : groups_) {
-    bytes += g.offset.size() * (sizeof(std::ptrdiff_t) + 13 * sizeof(real));
-    for (const BranchPole& bp : g.poles) bytes += (bp.q.size() + bp.p.size()) * sizeof(real);
+    bytes += g.offset.size() * (sizeof(std::ptrdiff_t) + 8 * sizeof(real) + sizeof(Vec3)) +
+             (g.e.size() + g.e_previous.size() + g.q.size() + g.p.size()) * sizeof(real);
   }
   return bytes;
 }
@@ -256,14 +212,10 @@ void SubcellAverage::add_state(StateArrays& s, const std::string& prefix) {
   for (SubcellDispersiveCrossTerms& t : dispersive_cross_) t.add_state(s, prefix);
   for (Group& g : groups_) {
     const std::string base = fmt::format("{}/pair{}_{}", prefix, g.inside, g.outside);
-    for (int b = 0; b < 3; ++b) {
-      s.add_vector(fmt::format("{}/branch{}/e", base, b), g.e[b]);
-      s.add_vector(fmt::format("{}/branch{}/e_previous", base, b), g.e_previous[b]);
-    }
-    for (std::size_t k = 0; k < g.poles.size(); ++k) {
-      s.add_vector(fmt::format("{}/pole{}/q", base, k), g.poles[k].q);
-      if (!g.poles[k].p.empty()) s.add_vector(fmt::format("{}/pole{}/p", base, k), g.poles[k].p);
-    }
+    s.add_vector(base + "/branches/e", g.e);
+    s.add_vector(base + "/branches/e_previous", g.e_previous);
+    s.add_vector(base + "/branches/q", g.q);
+    s.add_vector(base + "/branches/p", g.p);
   }
 }
 

@@ -67,12 +67,6 @@ class SubcellAverage {
   void add_state(StateArrays& s, const std::string& prefix);
 
  private:
-  struct BranchPole {
-    int branch = 0;                // 0: inside, 1: outside, 2: mixture
-    bool from_inside = true;       // in the mixture, weighted by f (inside) or 1 - f (outside)
-    PoleStep step;
-    AlignedVector<real> q, p;
-  };
   struct Group {                   // the mixed cells of one (inside, outside) pair
     int inside = 0, outside = 0;
     std::array<std::size_t, 4> start{};  // cells of component c: [start[c], start[c+1])
@@ -85,8 +79,10 @@ class SubcellAverage {
     std::vector<real> increment;         // dD/eps0 of this step
     std::vector<Vec3> normal;            // kept for the cross terms' setup
     AlignedVector<real> e_old;
-    std::array<AlignedVector<real>, 3> e, e_previous;  // per branch
-    std::vector<BranchPole> poles;
+    // Three branches per location (subcell_branch.h): inside, outside, fill-weighted mixture; their
+    // pole slots: inside's poles, outside's, then both again for the mixture.
+    std::size_t slots = 0;
+    AlignedVector<real> e, e_previous, q, p;
   };
   void apply_group(Group& g, Fields& f);
   void plan_dispersive_cross_terms(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi,

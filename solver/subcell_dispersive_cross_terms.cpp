@@ -52,20 +52,6 @@ SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const G
     if (g.periodic[a]) return ((i % g.n[a]) + g.n[a]) % g.n[a];
     return outside_domain;
   };
-  // Equal cells on both sides of the node along every axis that varies (a graded mesh weighs the
-  // locations' energies by their volumes, which the 1/8 weights do not).
-  auto uniform_around = [&](const std::array<int, 3>& node) {
-    for (int a = 0; a < 3; ++a) {
-      if (g.invariant(a)) continue;
-      auto cell = [&](int i) {
-        if (g.periodic[a]) i = ((i % g.n[a]) + g.n[a]) % g.n[a];
-        return g.primal(a, std::clamp(i, 0, g.n[a] - 1));
-      };
-      const double lo = cell(node[a] - 1), hi = cell(node[a]);
-      if (std::abs(lo - hi) > 1e-9 * hi) return false;
-    }
-    return true;
-  };
   auto member = [&](int a, std::array<int, 3> idx) {
     Member m;
     for (int t = 0; t < 3; ++t) {
@@ -118,7 +104,6 @@ SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const G
   for (const auto& [key, unused] : around) {
     const std::array<int, 3> node{std::get<0>(key), std::get<1>(key), std::get<2>(key)};
     const int bits = std::get<3>(key);
-    if (!uniform_around(node)) continue;
     std::array<Member, 3> m;
     bool usable = true;
     Vec3 n{};
@@ -189,20 +174,37 @@ SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const G
       t.site[a] = it->second;
     }
     triples_.push_back(t);
+    // The cell the triple points into: each member's index along its own axis.
+    cell_of_.push_back({wrap(0, node[0] - (bits & 1)), wrap(1, node[1] - ((bits >> 1) & 1)), wrap(2, node[2] - ((bits >> 2) & 1))});
   }
 
-  site_weight_.resize(sites_.size());
+  // Each location's share of each of its triples: the energy weighs a location by its own box's
+  // volume V and a triple by an eighth of the cell it points into, so the share is (V_cell / 8) / V
+  // (1/8 on equal cells; this keeps the operator symmetric on a graded mesh too). On a mirror plane
+  // the image triples are not held and the plane's location counts its others twice.
+  std::vector<double> site_volume(sites_.size()), mirror_factor(sites_.size(), 1.0);
   for (std::size_t q = 0; q < sites_.size(); ++q) {
-    const int a = static_cast<int>(sites_[q].component);
+    const Component c = sites_[q].component;
     const auto idx = index_of(sites_[q].offset);
-    double w = 1.0 / 8;
+    const geometry::Aabb box = averaging_box(g, c, idx[0], idx[1], idx[2]);
+    site_volume[q] = (box.hi.x - box.lo.x) * (box.hi.y - box.lo.y) * (box.hi.z - box.lo.z);
     for (int b = 0; b < 3; ++b)
-      if (b != a && g.mirror_low[b] && !g.periodic[b] && idx[b] == 0) w *= 2;
-    site_weight_[q] = w;
+      if (b != static_cast<int>(c) && g.mirror_low[b] && !g.periodic[b] && idx[b] == 0) mirror_factor[q] *= 2;
   }
-  for (const Triple& t : triples_)
-    for (int a = 0; a < 3; ++a)
-      if (t.site[a] >= 0) sites_[t.site[a]].coupled += site_weight_[t.site[a]];
+  for (std::size_t t = 0; t < triples_.size(); ++t) {
+    Triple& tr = triples_[t];
+    double cell_volume = 1;
+    for (int a = 0; a < 3; ++a) cell_volume *= g.primal(a, cell_of_[t][a]);
+    for (int a = 0; a < 3; ++a) {
+      const int q = tr.site[a];
+      if (q < 0) continue;
+      const double w = mirror_factor[q] * cell_volume / 8 / site_volume[q];
+      tr.weight[a] = static_cast<real>(w);
+      sites_[q].coupled += w;
+    }
+  }
+  cell_of_.clear();
+  cell_of_.shrink_to_fit();
   for (const Site& st : sites_)
     YG_CHECK(st.coupled <= 1 + 1e-9, fmt::format("a location's triples hold {} of its update, above 1", st.coupled));
 }
@@ -265,12 +267,12 @@ void SubcellDispersiveCrossTerms::add(const std::vector<real>& increment, Fields
   for (std::size_t t = 0; t < nt; ++t)
     for (int a = 0; a < 3; ++a) {
       const int q = triples_[t].site[a];
-      if (q >= 0) f.c[a][sites_[q].offset] += static_cast<real>(site_weight_[q] * out_e_[3 * t + a]);
+      if (q >= 0) f.c[a][sites_[q].offset] += triples_[t].weight[a] * out_e_[3 * t + a];
     }
 }
 
 std::size_t SubcellDispersiveCrossTerms::memory_bytes() const {
-  return sites_.size() * (sizeof(Site) + sizeof(double) + sizeof(std::size_t)) + triples_.size() * sizeof(Triple) +
+  return sites_.size() * (sizeof(Site) + sizeof(std::size_t)) + triples_.size() * sizeof(Triple) +
          (e_.size() + e_previous_.size() + q_.size() + p_.size() + out_e_.size()) * sizeof(real);
 }
 

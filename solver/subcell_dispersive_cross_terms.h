@@ -7,7 +7,8 @@
 // imaginary part has the active sign): coupling neighbours with it, as a trial did, grew without
 // bound. Here each triple t (the E_x, E_y, E_z that meet at a node, E_c at N - bit_c e_c, as in
 // subcell_cross_terms.h) gets a 3x3 operator built only from passive scalar media times rank-one
-// positive matrices, and E = sum_t w B_t^T K_t B_t D (B_t picks the triple's three D, w = 1/8):
+// positive matrices, and E = sum_t W_t B_t^T K_t B_t D (B_t picks the triple's three D, W_t its
+// locations' shares, below):
 //   K_t = u u^T / eps_in + v v^T / eps_out + sum_{a<b} r_ab r_ab^T / <eps>_ab,
 //   u_c = sqrt(f_c) n_c,  v_c = sqrt(1 - f_c) n_c,  r_ab = n_b e_a - n_a e_b,
 // with f_c each location's own fill and n the triple's normal. Each term is a scalar passive branch
@@ -22,11 +23,12 @@
 // (the eps_inf parts) above what the time step allows; there the series fills are drawn toward the
 // triple's mean (where the bound always holds) until it fits. Bulk locations of either material in
 // a triple join the averaged ones (fill 1 inside, 0 outside). A triple with a third material, the
-// gap medium, another pair's averaged location, no defined normal or unequal cells around its node
-// (graded meshes) is not coupled: its share (1/8) of each of its locations stays with that
-// location's own diagonal update (subcell_average.h). On a mirror plane the triples with an image
+// gap medium, another pair's averaged location or no defined normal is not coupled: its share of
+// each of its locations stays with that location's own diagonal update (subcell_average.h). The
+// shares are 1/8 on equal cells and (V_cell / 8) / V_location on a graded mesh (the energy's
+// weights, which keep the operator symmetric there). On a mirror plane the triples with an image
 // location are left out and the plane's locations count their other triples twice (the plane's
-// locations weigh half in the energy, which keeps the operator symmetric).
+// locations weigh half in the energy).
 #pragma once
 
 #include <array>
@@ -84,13 +86,14 @@ class SubcellDispersiveCrossTerms {
     std::array<real, 3> u{}, v{};         // series vectors
     std::array<std::array<real, 3>, 3> r{};  // pair vectors, pairs (0,1), (0,2), (1,2)
     std::array<real, 3> pair_fill{};
+    std::array<real, 3> weight{};            // each location's share of this triple's E
   };
   void advance_triple(std::size_t t, const std::array<double, 3>& dD);
 
   int inside_ = 0, outside_ = 0;
   BranchResponse in_, out_;
   std::vector<Site> sites_;
-  std::vector<double> site_weight_;  // 1/8, times 2 per mirror plane the location lies on
+  std::vector<std::array<int, 3>> cell_of_;  // while planning: the cell each triple points into
   std::vector<std::size_t> index_;   // site -> averaged location of the pair
   std::vector<Triple> triples_;
   std::size_t drawn_in_ = 0;
