@@ -7,6 +7,7 @@
 #include <map>
 #include <tuple>
 #include <unordered_map>
+#include <utility>
 
 #include <fmt/format.h>
 
@@ -218,6 +219,18 @@ void SubcellDispersiveCrossTerms::bind(const std::vector<std::size_t>& index) {
   q_.assign(slots_ * triples_.size(), real(0));
   p_.assign(slots_ * triples_.size(), real(0));
   out_e_.assign(3 * triples_.size(), real(0));
+  // Per location, the (triple, component) outputs it sums: 3 t + a, with their shares.
+  std::vector<std::vector<std::pair<std::size_t, real>>> from(sites_.size());
+  for (std::size_t t = 0; t < triples_.size(); ++t)
+    for (int a = 0; a < 3; ++a)
+      if (triples_[t].site[a] >= 0) from[triples_[t].site[a]].push_back({3 * t + a, triples_[t].weight[a]});
+  gather_start_.assign(1, 0);
+  gather_from_.clear();
+  gather_weight_.clear();
+  for (const auto& list : from) {
+    for (const auto& [k, w] : list) gather_from_.push_back(k), gather_weight_.push_back(w);
+    gather_start_.push_back(gather_from_.size());
+  }
 }
 
 void SubcellDispersiveCrossTerms::start(const Fields& f) {
@@ -263,17 +276,20 @@ void SubcellDispersiveCrossTerms::add(const std::vector<real>& increment, Fields
       if (triples_[t].site[a] >= 0) dD[a] = increment[index_[triples_[t].site[a]]];
     advance_triple(t, dD);
   });
-  // Serial: neighbouring triples write the same locations.
-  for (std::size_t t = 0; t < nt; ++t)
-    for (int a = 0; a < 3; ++a) {
-      const int q = triples_[t].site[a];
-      if (q >= 0) f.c[a][sites_[q].offset] += triples_[t].weight[a] * out_e_[3 * t + a];
-    }
+  // Each location gathers its triples' shares (neighbouring triples share locations, so a scatter
+  // over triples could not run in parallel).
+  const std::size_t ns = sites_.size();
+  for_each_index(parallel_worth(static_cast<long long>(ns) * 8), std::size_t{0}, ns, [&](std::size_t q) {
+    double sum = 0;
+    for (std::size_t k = gather_start_[q]; k < gather_start_[q + 1]; ++k) sum += gather_weight_[k] * out_e_[gather_from_[k]];
+    f.c[static_cast<int>(sites_[q].component)][sites_[q].offset] += static_cast<real>(sum);
+  });
 }
 
 std::size_t SubcellDispersiveCrossTerms::memory_bytes() const {
   return sites_.size() * (sizeof(Site) + sizeof(std::size_t)) + triples_.size() * sizeof(Triple) +
-         (e_.size() + e_previous_.size() + q_.size() + p_.size() + out_e_.size()) * sizeof(real);
+         (e_.size() + e_previous_.size() + q_.size() + p_.size() + out_e_.size() + gather_weight_.size()) * sizeof(real) +
+         (gather_start_.size() + gather_from_.size()) * sizeof(std::size_t);
 }
 
 void SubcellDispersiveCrossTerms::add_state(StateArrays& s, const std::string& prefix) {

@@ -100,6 +100,8 @@ class SubcellDispersiveCrossTerms {
   std::size_t slots_ = 0;                       // pole slots per triple
   AlignedVector<real> e_, e_previous_, q_, p_;  // 5 branches per triple: series in, out; pairs
   std::vector<real> out_e_;                     // E of each triple this step, 3 per triple
+  std::vector<std::size_t> gather_start_, gather_from_;  // per location: its entries of out_e_
+  std::vector<real> gather_weight_;
 };
 
 }  // namespace yeegap::solver

@@ -46,8 +46,9 @@ std::string compiler_name() {
 
 int main(int argc, char** argv) {
   using namespace yeegap::benchmark;
-  CLI::App app{"yeegap_benchmark: STREAM triad bandwidth and the solver's vacuum update rate, for 1 thread and all threads"};
-  int cells = 256, steps = 10, batches = 8;
+  CLI::App app{"yeegap_benchmark: STREAM triad bandwidth and the solver's vacuum update rate, for 1 thread and all threads,\n"
+               "and the cost of subcell averaging at a metal surface"};
+  int cells = 256, steps = 10, batches = 8, sphere_cells = 96;
   int threads = omp_get_max_threads();
   bool json = false;
   app.add_option("--cells", cells, "cells per axis of the vacuum cube")->check(CLI::Range(4, 2048))->capture_default_str();
@@ -56,6 +57,8 @@ int main(int argc, char** argv) {
       ->check(CLI::PositiveNumber)->capture_default_str();
   app.add_option("--threads", threads, "the 'all threads' count (default: OpenMP's maximum)")
       ->check(CLI::PositiveNumber)->capture_default_str();
+  app.add_option("--sphere-cells", sphere_cells, "cells per axis of the averaging-cost box (0: skip it)")
+      ->check(CLI::Range(0, 1024))->capture_default_str();
   app.add_flag("--json", json, "print one JSON object on stdout instead of the table");
   CLI11_PARSE(app, argc, argv);
 
@@ -99,6 +102,11 @@ int main(int argc, char** argv) {
       row.field_hash = box.field_hash();
       row.ratio = bytes_per_cell_step * row.mcells_per_second.best * 1e6 / (row.triad_gb_per_second.best * 1e9);
       report.rows.push_back(row);
+    }
+    if (sphere_cells > 0) {
+      omp_set_num_threads(threads);
+      if (!json) std::fprintf(stderr, "measuring the cost of subcell averaging ...\n");
+      report.averaging = measure_averaging_cost(sphere_cells, steps, batches);
     }
     if (!triad.result_is_right()) throw std::runtime_error("the triad left wrong values in a[]");
     std::fputs((json ? json_text(report) + "\n" : table_text(report)).c_str(), stdout);

@@ -72,6 +72,13 @@ std::string table_text(const Report& r) {
   if (r.rows.size() > 1)
     t += fmt::format("\nfields after the run bit-identical for every thread count: {}\n",
                      r.fields_identical() ? "yes" : "NO");
+  const AveragingCost& a = r.averaging;
+  if (a.cells > 0)
+    t += fmt::format("\naveraging {}^3 water cells around a gold sphere of radius {} cells, all threads, best of {} batches:\n"
+                     "          staircase {:.0f}, diagonal average {:.0f}, whole tensor {:.0f} Mcells/s ({} averaged locations);\n"
+                     "          a step costs {:.2f} (diagonal) and {:.2f} (whole tensor) times the staircase's\n",
+                     a.cells, a.radius_cells, r.batches, a.staircase, a.diagonal, a.full, a.averaged_locations,
+                     a.staircase / a.diagonal, a.staircase / a.full);
   return t;
 }
 
@@ -88,10 +95,14 @@ std::string json_text(const Report& r) {
       R"({{"version": {}, "cpu_model": {}, "logical_cpus": {}, "real": {}, "compiler": {}, "flags": {}, "kernel_isa": {}, )"
       R"("triad": {{"elements_per_array": {}, "repeats": {}, "bytes_per_iteration": 24}}, )"
       R"("solver": {{"cells": {}, "warmup_steps": {}, "steps_per_batch": {}, "batches": {}, "bytes_per_cell_step": {}}}, )"
-      R"("rows": [{}], "fields_identical": {}}})",
+      R"("rows": [{}], "fields_identical": {}, )"
+      R"("averaging": {{"cells": {}, "radius_cells": {}, "averaged_locations": {}, "staircase_mcells_per_s": {:.4g}, )"
+      R"("diagonal_mcells_per_s": {:.4g}, "full_mcells_per_s": {:.4g}}}}})",
       json_string(r.version), json_string(r.cpu_model), r.logical_cpus, json_string(r.real_type),
       json_string(r.compiler), json_string(r.flags), json_string(r.kernel_isa), r.triad_elements, r.triad_repeats, r.cells, r.warmup_steps,
-      r.steps, r.batches, r.bytes_per_cell_step, rows, r.fields_identical() ? "true" : "false");
+      r.steps, r.batches, r.bytes_per_cell_step, rows, r.fields_identical() ? "true" : "false", r.averaging.cells,
+      r.averaging.radius_cells, r.averaging.averaged_locations, r.averaging.staircase, r.averaging.diagonal,
+      r.averaging.full);
 }
 
 }  // namespace yeegap::benchmark

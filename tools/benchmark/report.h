@@ -6,6 +6,7 @@
 #include <string>
 #include <vector>
 
+#include "tools/benchmark/averaging_cost.h"
 #include "tools/benchmark/timing.h"
 
 namespace yeegap::benchmark {
@@ -31,6 +32,7 @@ struct Report {
   int cells = 0, warmup_steps = 0, steps = 0, batches = 0;
   double bytes_per_cell_step = 0;
   std::vector<Row> rows;
+  AveragingCost averaging;          // with all threads; cells = 0 when not measured
   /// Whether every row left bit-identical fields.
   bool fields_identical() const;
 };
