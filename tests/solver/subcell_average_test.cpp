@@ -16,6 +16,7 @@
 #include "solver/simulation.h"
 #include "solver/simulation_state.h"
 #include "solver/subcell_average.h"
+#include "resume_check.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {
@@ -238,24 +239,7 @@ TEST(SubcellAverage, ARunResumedFromItsStateArraysMatchesAnUninterruptedOneBitFo
   dip.waveform.omega_min = 2 * pi * c0 / 900e-9;
   dip.waveform.omega_max = 2 * pi * c0 / 350e-9;
   s.dipoles.push_back(dip);
-  Simulation whole(s), first(s), resumed(s);
-  for (int n = 0; n < 600; ++n) whole.step(), first.step();
-  // Copy every state array of `first` into a fresh run, as a checkpoint file would.
-  const std::vector<StateArray> from = first.state_arrays().list(), to = resumed.state_arrays().list();
-  ASSERT_EQ(from.size(), to.size());
-  bool has_subcell = false;
-  for (std::size_t a = 0; a < from.size(); ++a) {
-    ASSERT_EQ(from[a].name, to[a].name);
-    ASSERT_EQ(from[a].bytes(), to[a].bytes());
-    std::memcpy(to[a].data, from[a].data, from[a].bytes());
-    has_subcell = has_subcell || from[a].name.rfind("subcell/", 0) == 0;
-  }
-  EXPECT_TRUE(has_subcell);
-  resumed.restore_counters(first.state_counters());
-  for (int n = 0; n < 600; ++n) whole.step(), resumed.step();
-  for (int c = 0; c < 6; ++c)
-    EXPECT_EQ(std::memcmp(whole.fields().c[c].data(), resumed.fields().c[c].data(), whole.fields().c[c].size() * sizeof(real)), 0)
-        << component_names[c];
+  testing::expect_resumed_run_matches(s, 600, "subcell/");
 }
 
 TEST(SubcellAverage, SwitchedOffLeavesThePlainStaircase) {

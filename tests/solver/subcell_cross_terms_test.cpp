@@ -18,6 +18,7 @@
 #include "solver/simulation.h"
 #include "solver/simulation_state.h"
 #include "solver/subcell_average.h"
+#include "resume_check.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {
@@ -113,23 +114,7 @@ TEST(SubcellCrossTerms, ARunResumedFromItsStateArraysMatchesAnUninterruptedOneBi
   dip.waveform.omega_min = 2 * pi * c0 / 200e-9;
   dip.waveform.omega_max = 2 * pi * c0 / 20e-9;
   s.dipoles.push_back(dip);
-  Simulation whole(s), first(s), resumed(s);
-  for (int n = 0; n < 300; ++n) whole.step(), first.step();
-  const std::vector<StateArray> from = first.state_arrays().list(), to = resumed.state_arrays().list();
-  ASSERT_EQ(from.size(), to.size());
-  bool has_cross = false;
-  for (std::size_t a = 0; a < from.size(); ++a) {
-    ASSERT_EQ(from[a].name, to[a].name);
-    ASSERT_EQ(from[a].bytes(), to[a].bytes());
-    std::memcpy(to[a].data, from[a].data, from[a].bytes());
-    has_cross = has_cross || from[a].name == "subcell/cross_diagonal";
-  }
-  EXPECT_TRUE(has_cross);
-  resumed.restore_counters(first.state_counters());
-  for (int n = 0; n < 300; ++n) whole.step(), resumed.step();
-  for (int c = 0; c < 6; ++c)
-    EXPECT_EQ(std::memcmp(whole.fields().c[c].data(), resumed.fields().c[c].data(), whole.fields().c[c].size() * sizeof(real)), 0)
-        << component_names[c];
+  testing::expect_resumed_run_matches(s, 300, "subcell/cross_diagonal");
 }
 
 }  // namespace

@@ -22,6 +22,7 @@
 #include "solver/subcell_average.h"
 #include "solver/subcell_dispersive_cross_terms.h"
 #include "metal_sphere_box.h"
+#include "resume_check.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {
@@ -120,7 +121,9 @@ TEST(SubcellDispersiveCrossTerms, AFaceParallelToTheGridGetsExactlyTheDiagonalAv
     s.bodies.push_back({geometry::make_slab(2, -3.3e-9, 4.6e-9), 1, {}});
     s.dipoles.push_back(kick({0.2e-9, 0.1e-9, 8.5e-9}));
     Simulation sim(s);
-    if (cross) EXPECT_FALSE(sim.subcell_average()->dispersive_cross_terms().empty());
+    if (cross) {
+      EXPECT_FALSE(sim.subcell_average()->dispersive_cross_terms().empty());
+    }
     for (int k = 0; k < 3000; ++k) sim.step();
     return std::array<std::vector<real>, 3>{
         std::vector<real>(sim.fields().c[0].begin(), sim.fields().c[0].end()),
@@ -142,23 +145,7 @@ TEST(SubcellDispersiveCrossTerms, AFaceParallelToTheGridGetsExactlyTheDiagonalAv
 TEST(SubcellDispersiveCrossTerms, ARunResumedFromItsStateArraysMatchesAnUninterruptedOneBitForBit) {
   Scene s = metal_sphere_box(10, materials::find_material("Au")->poles, 3.1);
   s.dipoles.push_back(kick({3.5e-9, 0.5e-9, 0}));
-  Simulation whole(s), first(s), resumed(s);
-  for (int n = 0; n < 300; ++n) whole.step(), first.step();
-  const std::vector<StateArray> from = first.state_arrays().list(), to = resumed.state_arrays().list();
-  ASSERT_EQ(from.size(), to.size());
-  bool has_cross = false;
-  for (std::size_t a = 0; a < from.size(); ++a) {
-    ASSERT_EQ(from[a].name, to[a].name);
-    ASSERT_EQ(from[a].bytes(), to[a].bytes());
-    std::memcpy(to[a].data, from[a].data, from[a].bytes());
-    has_cross = has_cross || from[a].name.find("dispersive_cross") != std::string::npos;
-  }
-  EXPECT_TRUE(has_cross);
-  resumed.restore_counters(first.state_counters());
-  for (int n = 0; n < 300; ++n) whole.step(), resumed.step();
-  for (int c = 0; c < 6; ++c)
-    EXPECT_EQ(std::memcmp(whole.fields().c[c].data(), resumed.fields().c[c].data(), whole.fields().c[c].size() * sizeof(real)), 0)
-        << component_names[c];
+  testing::expect_resumed_run_matches(s, 300, "dispersive_cross");
 }
 
 }  // namespace
