@@ -46,6 +46,11 @@ struct BlockLayout {
     return l;
   }
   std::ptrdiff_t at(int i, int j, int k) const { return (i + 1) + (j + 1) * sy + (k + 1) * sz; }
+  /// The cell index (i, j, k) of a flat offset: the inverse of at().
+  std::array<int, 3> index_of(std::ptrdiff_t o) const {
+    const std::ptrdiff_t r = o % sz;
+    return {static_cast<int>(r % sy) - 1, static_cast<int>(r / sy) - 1, static_cast<int>(o / sz) - 1};
+  }
   std::ptrdiff_t stride(int axis) const { return axis == 0 ? 1 : (axis == 1 ? sy : sz); }
 };
 

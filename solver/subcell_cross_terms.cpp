@@ -36,17 +36,12 @@ SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockL
   YG_CHECK(top >= 1, fmt::format("the cross terms' eigenvalue bound {} must be at least the vacuum's 1", top));
   const int materials = static_cast<int>(s.materials.size());
   using Key = std::tuple<int, int, int, int>;  // component, i, j, k
-  auto index_of = [&](std::ptrdiff_t o) {
-    const int k = static_cast<int>(o / L.sz) - 1;
-    const std::ptrdiff_t r = o % L.sz;
-    return std::array<int, 3>{static_cast<int>(r % L.sy) - 1, static_cast<int>(r / L.sy) - 1, k};
-  };
   std::map<Key, int> node_of;
   std::vector<Matrix3> kappa;  // per node: the averaged inverse permittivity (bulk: diagonal)
   for (std::size_t q = 0; q < sites.size(); ++q) {
     const Site& st = sites[q];
     const int c = static_cast<int>(st.component);
-    const auto ijk = index_of(st.offset);
+    const auto ijk = L.index_of(st.offset);
     node_of[{c, ijk[0], ijk[1], ijk[2]}] = static_cast<int>(nodes_.size());
     nodes_.push_back({c, st.offset, static_cast<int>(q), 1.0});
     // Farjadpour et al. (2006): kappa = <1/eps> n n^T + (1/<eps>) (1 - n n^T).
@@ -105,7 +100,7 @@ SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockL
   std::map<std::tuple<int, int, int, int>, bool> triples;  // (node i, j, k, bits)
   for (const Site& st : sites) {
     const int c = static_cast<int>(st.component);
-    const auto idx = index_of(st.offset);
+    const auto idx = L.index_of(st.offset);
     for (int bits = 0; bits < 8; ++bits) {
       std::array<int, 3> node = idx;
       node[c] += (bits >> c) & 1;  // E_c = E_c(N - bit_c e_c)

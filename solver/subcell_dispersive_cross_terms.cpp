@@ -24,7 +24,7 @@ constexpr int pair_a[3] = {0, 0, 1}, pair_b[3] = {1, 2, 2};
 
 // A triple's members before it is kept: each location's status and fill.
 struct Member {
-  enum class Kind { wall, mixed, bulk, image, other } kind = Kind::other;
+  enum class Kind { wall, mixed, bulk, other } kind = Kind::other;
   std::ptrdiff_t offset = 0;
   double fill = 0;
   Vec3 normal{};
@@ -43,11 +43,6 @@ SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const G
   std::unordered_map<std::ptrdiff_t, std::size_t> mixed_at;  // 3 offset + component -> index in `mixed`
   for (std::size_t q = 0; q < mixed.size(); ++q)
     mixed_at[3 * mixed[q].offset + static_cast<int>(mixed[q].component)] = q;
-  auto index_of = [&](std::ptrdiff_t o) {
-    const int k = static_cast<int>(o / L.sz) - 1;
-    const std::ptrdiff_t r = o % L.sz;
-    return std::array<int, 3>{static_cast<int>(r % L.sy) - 1, static_cast<int>(r / L.sy) - 1, k};
-  };
   auto wrap = [&](int a, int i) {
     if (i >= 0 && i < g.n[a]) return i;
     if (g.periodic[a]) return ((i % g.n[a]) + g.n[a]) % g.n[a];
@@ -57,11 +52,9 @@ SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const G
     Member m;
     for (int t = 0; t < 3; ++t) {
       const int w = wrap(t, idx[t]);
-      if (w == outside_domain) {
-        // E_a half a cell below a mirror plane is the image of the one above it.
-        if (t == a && idx[t] == -1 && g.mirror_low[t]) m.kind = Member::Kind::image;
-        return m;
-      }
+      // Beyond a bounded face, or half a cell below a mirror plane (the image of the location
+      // above it, whose triples the plane's locations stand in for, see the shares below).
+      if (w == outside_domain) return m;
       idx[t] = w;
     }
     m.offset = L.at(idx[0], idx[1], idx[2]);
@@ -87,7 +80,7 @@ SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const G
   for (const MixedCell& c : mixed) {
     if (c.inside != inside_ || c.outside != outside_) continue;
     const int a = static_cast<int>(c.component);
-    const auto idx = index_of(c.offset);
+    const auto idx = L.index_of(c.offset);
     for (int bits = 0; bits < 8; ++bits) {
       std::array<int, 3> node = idx;
       node[a] += (bits >> a) & 1;  // E_a = E_a(N - bit_a e_a)
@@ -186,7 +179,7 @@ SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const G
   std::vector<double> site_volume(sites_.size()), mirror_factor(sites_.size(), 1.0);
   for (std::size_t q = 0; q < sites_.size(); ++q) {
     const Component c = sites_[q].component;
-    const auto idx = index_of(sites_[q].offset);
+    const auto idx = L.index_of(sites_[q].offset);
     const geometry::Aabb box = averaging_box(g, c, idx[0], idx[1], idx[2]);
     site_volume[q] = (box.hi.x - box.lo.x) * (box.hi.y - box.lo.y) * (box.hi.z - box.lo.z);
     for (int b = 0; b < 3; ++b)

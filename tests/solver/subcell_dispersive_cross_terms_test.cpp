@@ -50,10 +50,8 @@ Symmetry weighted_symmetry(const Scene& s, const Grid& g, std::size_t stride) {
   std::vector<double> volume(n);
   for (std::size_t q = 0; q < n; ++q) {
     identity[q] = q;
-    const std::ptrdiff_t o = terms.sites()[q].offset;
-    const int k = static_cast<int>(o / L.sz) - 1, j = static_cast<int>((o % L.sz) / L.sy) - 1,
-              i = static_cast<int>(o % L.sy) - 1;
-    const geometry::Aabb box = averaging_box(g, terms.sites()[q].component, i, j, k);
+    const auto idx = L.index_of(terms.sites()[q].offset);
+    const geometry::Aabb box = averaging_box(g, terms.sites()[q].component, idx[0], idx[1], idx[2]);
     volume[q] = (box.hi.x - box.lo.x) * (box.hi.y - box.lo.y) * (box.hi.z - box.lo.z);
   }
   terms.bind(identity);

@@ -28,12 +28,11 @@ solver::Scene gold_sphere_box(int cells, double radius, bool averaging, bool cro
   s.domain.edges.fill(solver::EdgeKind::periodic);
   s.domain.averaging = averaging;
   s.domain.averaging_cross_terms = cross_terms;
-  solver::MaterialSpec water, gold;
-  water.name = "water";
-  water.poles.eps_inf = 1.333 * 1.333;
-  gold.name = "Au";
-  gold.poles = materials::find_material("Au")->poles;
-  s.materials = {water, gold};
+  s.materials.resize(2);
+  s.materials[0].name = "water";
+  s.materials[0].poles.eps_inf = 1.333 * 1.333;
+  s.materials[1].name = "Au";
+  s.materials[1].poles = materials::find_material("Au")->poles;
   // Off the nodes, so the surface cuts cells in every way.
   const Vec3 centre = s.domain.center + Vec3{0.23 * cell_size, -0.31 * cell_size, 0.17 * cell_size};
   s.bodies.push_back({geometry::make_sphere(centre, radius), 1, {}});
