@@ -8,6 +8,7 @@
 
 #include <fmt/format.h>
 
+#include "base/constants.h"
 #include "io/suggest.h"
 
 namespace yeegap::io {
@@ -131,6 +132,15 @@ double read_omega(const Node& v, bool allow_zero) {
   const double omega = read_quantity(v, Dimension::spectral, expected);
   if (!(omega > 0) && !(allow_zero && omega == 0)) v.fail(fmt::format("must be {}, got '{}'", expected, v.text()));
   return omega;
+}
+
+double read_energy(const Node& v) {
+  const std::string expected = "a positive energy like '5.1 eV'";
+  const std::string text = scalar_text(v, expected);
+  const auto q = split_number_unit(text);
+  if (!q || (q->unit != "eV" && q->unit != "meV") || !(q->value > 0))
+    v.fail(fmt::format("must be {} (units: eV, meV), got '{}'", expected, text));
+  return q->value * (q->unit == "eV" ? 1.0 : 1e-3) * constants::eV;
 }
 
 double read_conductivity(const Node& v) {

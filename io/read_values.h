@@ -38,6 +38,8 @@ double read_positive_length(const Node& v);
 double read_positive_time(const Node& v);
 /// A spectral value -> angular frequency, rad/s (> 0, or >= 0 with `allow_zero`, for dampings).
 double read_omega(const Node& v, bool allow_zero = false);
+/// An electron energy > 0 in eV or meV ("5.1 eV"), J.
+double read_energy(const Node& v);
 /// A conductivity >= 0, S/m.
 double read_conductivity(const Node& v);
 /// A dipole moment > 0, C m.

@@ -29,7 +29,8 @@ int body_index(const Node& v, const solver::Scene& scene) {
 }  // namespace
 
 void read_tunnelling(const Node& block, solver::Scene& scene) {
-  block.allow({"pairs", "model", "metal", "barrier", "gap_medium", "cutoff"});
+  block.allow({"pairs", "model", "metal", "work_function", "fermi_energy", "plasma_frequency", "damping", "barrier",
+               "join", "gap_medium", "cutoff"});
   if (!block.is_map()) block.fail(fmt::format("must be a block with pairs and model, got {}", block.found()));
   solver::TunnellingSpec t;
   t.where = block.where();
@@ -50,6 +51,13 @@ void read_tunnelling(const Node& block, solver::Scene& scene) {
   const materials::TunnelMetal* metal = materials::find_tunnel_metal(read_text(metal_node));
   if (!metal) metal_node.fail(fmt::format("no tunnelling preset '{}'{}", read_text(metal_node),
                                           suggestion(read_text(metal_node), metals)));
+  // A paper's own numbers in place of the preset's (docs/scene.md, tunnelling).
+  materials::TunnelMetalChanges changes;
+  if (auto w = block.get("work_function")) changes.work_function = read_energy(*w);
+  if (auto e = block.get("fermi_energy")) changes.fermi_energy = read_energy(*e);
+  if (auto wp = block.get("plasma_frequency")) changes.plasma_frequency = read_omega(*wp);
+  if (auto g = block.get("damping")) changes.damping = read_omega(*g);
+  const materials::TunnelMetal given = materials::with_changes(*metal, changes);
   materials::BarrierKind barrier = materials::BarrierKind::rectangular;
   if (auto b = block.get("barrier")) {
     const std::string w = read_word(*b, {"rectangular", "image_rounded", "exponential_fit"});
@@ -59,7 +67,19 @@ void read_tunnelling(const Node& block, solver::Scene& scene) {
   }
   materials::GapOptions options;
   if (auto eb = block.get("gap_medium")) options.background = read_positive_number(*eb);
-  t.model = materials::make_gap_model(*metal, barrier, options);
+  if (auto j = block.get("join")) {
+    if (j->is_scalar() && j->text() == "none") {
+      options.join_transmission = 0;
+    } else {
+      const double t_join = read_number(*j);
+      if (!(t_join > 0 && t_join < 1))
+        j->fail(fmt::format("must be a transmission T(E_F) between 0 and 1 (exclusive), or none, got '{}'", j->text()));
+      options.join_transmission = t_join;
+    }
+    if (barrier == materials::BarrierKind::exponential_fit)
+      j->fail("the exponential_fit barrier has no join (it is the exponential at every width); leave join out");
+  }
+  t.model = materials::make_gap_model(given, barrier, options);
   if (auto cutoff = block.get("cutoff")) t.cutoff = read_positive_length(*cutoff);
   block.done();
   scene.tunnelling.push_back(t);

@@ -107,8 +107,8 @@ double barrier_conductance_per_area(const GapModel& model, double gap) {
 GapModel make_gap_model(const TunnelMetal& metal, BarrierKind barrier, const GapOptions& options) {
   YG_CHECK(metal.work_function > 0 && metal.fermi_energy > 0 && metal.plasma_frequency > 0 && metal.damping > 0,
            fmt::format("metal '{}' needs positive W, E_F, omega_p and gamma_p", metal.name));
-  YG_CHECK(options.join_transmission > 0 && options.join_transmission < 1 && options.cutoff_damping_ratio > 1,
-           fmt::format("join transmission {} must lie in (0, 1) and the cut-off ratio {} exceed 1",
+  YG_CHECK(options.join_transmission >= 0 && options.join_transmission < 1 && options.cutoff_damping_ratio > 1,
+           fmt::format("join transmission {} must lie in [0, 1) and the cut-off ratio {} exceed 1",
                        options.join_transmission, options.cutoff_damping_ratio));
   GapModel model;
   model.metal = metal;
@@ -121,6 +121,25 @@ GapModel make_gap_model(const TunnelMetal& metal, BarrierKind barrier, const Gap
     model.cutoff_width = metal.fit_decay_length * log_ratio;
     return model;
   }
+  const double target = options.cutoff_damping_ratio * metal.damping;
+  // Bracket in 1 A steps: wide gaps cost most (the image profile has more slabs and the integrand
+  // spans more decades), so they are only evaluated when needed.
+  const double bracket_step = 1e-10;
+  if (options.join_transmission == 0) {
+    // No join: the barrier's damping at every width. It is infinite at contact (l G_A -> 0) and
+    // falls to a minimum within about an Angstrom, so the cut-off search starts beyond that.
+    double lo = bracket_step, hi = lo + bracket_step;
+    while (barrier_damping(model, hi) < target) {
+      lo = hi;
+      hi += bracket_step;
+      if (hi > options.max_width) {
+        model.cutoff_width = options.max_width;
+        return model;
+      }
+    }
+    model.cutoff_width = find_width([&](double l) { return barrier_damping(model, l); }, target, lo, hi);
+    return model;
+  }
   // l': T(E_F) falls monotonically from 1 at contact.
   const auto opacity = [&](double l) { return 1.0 / barrier_transmission_fermi(model, l); };
   model.join_width = find_width(opacity, 1.0 / options.join_transmission, 0.0, options.max_width);
@@ -129,14 +148,10 @@ GapModel make_gap_model(const TunnelMetal& metal, BarrierKind barrier, const Gap
            fmt::format("barrier damping {} rad/s at l' = {} m is not above the bulk {} rad/s", gamma_join,
                        model.join_width, metal.damping));
   model.join_decay_length = model.join_width / std::log(gamma_join / metal.damping);
-  const double target = options.cutoff_damping_ratio * metal.damping;
   if (target <= gamma_join) {
     model.cutoff_width = model.join_decay_length * log_ratio;
     return model;
   }
-  // Bracket in 1 A steps from l': wide gaps cost most (the image profile has more slabs and the
-  // integrand spans more decades), so they are only evaluated when needed.
-  const double bracket_step = 1e-10;
   double lo = model.join_width, hi = lo + bracket_step;
   while (barrier_damping(model, hi) < target) {
     lo = hi;

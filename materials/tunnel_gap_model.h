@@ -26,6 +26,7 @@ struct GapOptions {
   double barrier_permittivity = 1.0;   // K in Simmons' image force (image_rounded only)
   // Short-gap join (published QCM anchoring, physics.md 1.3): below the width l' where T(E_F)
   // falls to this value, gamma_g = gamma_p exp(l/l_c), l_c chosen to meet the barrier result at l'.
+  // 0 turns the join off: the barrier's own damping at every width (infinite at contact).
   double join_transmission = 1e-2;
   // The cut-off width is where gamma_g reaches this multiple of gamma_p. There the tunnelling term
   // adds omega_p^2/(omega gamma_g) ~ 1e-3 to Im eps at 1 eV for gold (omega_p 9 eV, gamma_p 0.07 eV),
@@ -41,8 +42,8 @@ struct GapModel {
   TunnelMetal metal;
   BarrierKind barrier = BarrierKind::rectangular;
   GapOptions options;
-  double join_width = 0;         // m: l' (0 for exponential_fit)
-  double join_decay_length = 0;  // m: l_c used below l' (metal.fit_decay_length for exponential_fit)
+  double join_width = 0;         // m: l' (0 for exponential_fit and without a join)
+  double join_decay_length = 0;  // m: l_c used below l' (metal.fit_decay_length for exponential_fit; 0 without a join)
   double cutoff_width = 0;       // m: gamma_g(cutoff_width) = cutoff_damping_ratio * gamma_p (max_width if never)
 };
 

@@ -10,6 +10,8 @@
 #include "base/constants.h"
 #include "base/units.h"
 
+#include <fmt/format.h>
+
 namespace yeegap::materials {
 
 namespace {
@@ -77,6 +79,19 @@ bool same_ignoring_case(std::string_view a, std::string_view b) {
 }
 
 }  // namespace
+
+TunnelMetal with_changes(TunnelMetal m, const TunnelMetalChanges& c) {
+  std::string changed;
+  auto note = [&](const char* what, double eV) { changed += fmt::format("{}{} {:.6g} eV", changed.empty() ? "" : ", ", what, eV); };
+  if (c.work_function) m.work_function = *c.work_function, note("W", *c.work_function / constants::eV);
+  if (c.fermi_energy) m.fermi_energy = *c.fermi_energy, note("E_F", *c.fermi_energy / constants::eV);
+  if (c.plasma_frequency) m.plasma_frequency = *c.plasma_frequency, note("hbar omega_p", units::omega_to_eV(*c.plasma_frequency));
+  if (c.damping) m.damping = *c.damping, note("hbar gamma_p", units::omega_to_eV(*c.damping));
+  if (changed.empty()) return m;
+  m.summary += "; given instead: " + changed;
+  m.sources += "; given by the user instead: " + changed;
+  return m;
+}
 
 const std::vector<TunnelMetal>& tunnel_metals() {
   static const std::vector<TunnelMetal> all = build();

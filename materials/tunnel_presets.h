@@ -3,6 +3,7 @@
 // Nat. Commun. 3, 825 (2012)). Each preset names where every number comes from (physics.md 1.1-1.8).
 #pragma once
 
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -19,6 +20,18 @@ struct TunnelMetal {
   double fit_decay_length = 0;  // m: l_c of the published fit gamma_g = gamma_p exp(l/l_c)
   std::string sources;          // where each number comes from, with its reliability
 };
+
+/// Values a user gives in place of a preset's, to reproduce a paper's parameters (SI; unset keeps the preset's).
+struct TunnelMetalChanges {
+  std::optional<double> work_function;     // J
+  std::optional<double> fermi_energy;      // J
+  std::optional<double> plasma_frequency;  // rad/s
+  std::optional<double> damping;           // rad/s
+};
+
+/// The preset with the given values replaced; its summary says which ones, so every table printed
+/// from it names the numbers it was made with.
+TunnelMetal with_changes(TunnelMetal metal, const TunnelMetalChanges& changes);
 
 /// Every preset, in a fixed order. Built once; never changes.
 const std::vector<TunnelMetal>& tunnel_metals();

@@ -72,5 +72,17 @@ expect bare_photon_energy 2 "--at: expected a photon energy" -- "$yeegap" gap --
 expect wrong_unit 2 "'fs' is not a spectral unit" -- "$yeegap" gap --at 3fs
 expect too_many_rows 2 "check the units" -- "$yeegap" gap --step 1e-6nm
 
+# A paper's numbers in place of the preset's, and the short-gap join moved or turned off.
+check_json given_numbers 5 -- "$yeegap" gap --fermi-energy 5.53eV --work-function 5.1eV --plasma-frequency 9eV \
+  --damping 0.07eV --from 0.3nm --to 0.7nm --step 0.1nm --json
+expect given_numbers_named 0 "given instead: W 5.1 eV, E_F 5.53 eV, hbar omega_p 9 eV" -- \
+  "$yeegap" gap --fermi-energy 5.53eV --work-function 5.1eV --plasma-frequency 9eV --from 0.3nm --to 0.4nm
+expect join_explained 0 "short-gap join: below l' = " -- "$yeegap" gap --from 0.3nm --to 0.4nm
+expect join_off 0 "no short-gap join" -- "$yeegap" gap --join none --from 0.3nm --to 0.4nm
+check_json join_moved 5 -- "$yeegap" gap --join 0.001 --from 0.3nm --to 0.7nm --step 0.1nm --json
+expect join_range 2 "--join: expected a transmission" -- "$yeegap" gap --join 2
+expect join_with_fit 2 "has no join" -- "$yeegap" gap --barrier fit --join none
+expect energy_unit 2 "--fermi-energy: expected a positive energy in eV" -- "$yeegap" gap --fermi-energy 5.53nm
+
 echo "$pass passed, $fails failed"
 [ "$fails" -eq 0 ]

@@ -68,7 +68,8 @@ TEST(MieSphere, MatchesWiscombeTestAtSizeHundred) {
   const MieSphere q = mie_sphere(100.0, 1.5);
   EXPECT_NEAR(q.q_ext, 2.094388, kTableTolerance);
   EXPECT_NEAR(q.q_sca, 2.094388, kTableTolerance);
-  // physics.md 4.1 lists Q_back = 1.736799 here, which this module does NOT reproduce. Two
+  // An earlier recalled Q_back of 1.736799 here is not reproduced by this module (physics.md 4.1
+  // now gives the corrected value). Two
   // independent computations give 1.736193 [V-calc]: the textbook Riccati-Bessel formulas in
   // 40-digit arithmetic (mpmath Bessel functions, 120 to 140 terms, all agreeing to 9 digits) and
   // the same formulas with double-precision library spherical Bessel functions. Starting the D_n(mx)

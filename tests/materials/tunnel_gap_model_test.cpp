@@ -32,6 +32,37 @@ TEST(GapDamping, ReproducesThePhysicsNotesCheck) {
   EXPECT_LT(relative(units::omega_to_eV(gamma), 74.5), 1e-3);
 }
 
+// With the join off and a paper's numbers given in place of the preset's, the model is the bare
+// rectangular barrier at every width: the gamma_g column of the table in physics.md 1.6 [V-calc]
+// (E_F = 5.53 eV, W = 5.1 eV, hbar omega_p = 9 eV; exact transmission, Griffiths/Merzbacher; G_A
+// from the Tsu-Esaki integral, physics.md 1.5), to its printed three digits (0.5 %).
+TEST(GapModel, WithoutTheJoinAndWithGivenNumbersReproducesTheBarrierTable) {
+  TunnelMetalChanges c;
+  c.fermi_energy = 5.53 * constants::eV;
+  c.work_function = 5.1 * constants::eV;
+  c.plasma_frequency = units::eV_to_omega(9.0);
+  const TunnelMetal metal = with_changes(gold(), c);
+  EXPECT_NE(metal.summary.find("E_F 5.53 eV"), std::string::npos) << metal.summary;
+  EXPECT_NE(metal.summary.find("hbar omega_p 9 eV"), std::string::npos) << metal.summary;
+  GapOptions none;
+  none.join_transmission = 0;
+  const GapModel model = make_gap_model(metal, BarrierKind::rectangular, none);
+  EXPECT_EQ(model.join_width, 0.0);
+  const double widths[] = {1, 2, 3, 5}, table[] = {1.13e17, 7.22e17, 6.37e18, 6.03e20};
+  for (int q = 0; q < 4; ++q) EXPECT_LT(relative(gap_damping(model, widths[q] * angstrom), table[q]), 5e-3) << widths[q];
+  // With the default join the 1 A value is tied to gamma_p instead (below l' where T(E_F) = 0.01),
+  // so the switch changes the answer there and nowhere beyond l'.
+  const GapModel joined = make_gap_model(metal, BarrierKind::rectangular);
+  EXPECT_GT(joined.join_width, 1 * angstrom);
+  EXPECT_GT(relative(gap_damping(joined, 1 * angstrom), table[0]), 0.1);
+  EXPECT_DOUBLE_EQ(gap_damping(joined, 5 * angstrom), gap_damping(model, 5 * angstrom));
+  // The cut-off (gamma_g = 1e6 gamma_p = 1.08e20 /s for the preset's gamma_p) lies between the
+  // table's 4 and 5 A rows, beyond l' either way, so the join does not move it.
+  EXPECT_GT(model.cutoff_width, 4 * angstrom);
+  EXPECT_LT(model.cutoff_width, 5 * angstrom);
+  EXPECT_NEAR(model.cutoff_width / joined.cutoff_width, 1.0, 1e-8);
+}
+
 TEST(ExponentialFit, GivesEighteenHundredAtThreeAngstrom) {
   // physics.md 1.3 [V-calc]: gamma_g(3 A)/gamma_p = exp(3/0.4) = 1808.0 within 1e-3, for
   // l_c = 0.4 A (the Au value widely quoted in QCM work, from memory).

@@ -48,8 +48,8 @@ TEST(TunnelPresets, FreeElectronPlasmaEnergyFollowsTheFermiEnergy) {
   }
   // physics.md 1.8 quotes "about 9.0 eV" for Au: the value rounds to it.
   EXPECT_NEAR(units::omega_to_eV(free_electron_plasma_frequency(5.53 * eV)), 9.0, 0.05);
-  // The Na preset uses exactly the free-electron value (6.04 eV; physics.md 1.8 quotes 5.9 eV, which
-  // this density does not give), and hbar/tau with tau = 3.2e-14 s (Ashcroft & Mermin Table 1.3,
+  // The Na preset uses exactly the free-electron value (6.04 eV; physics.md 1.8 gives 6.05 from r_s,
+  // the same within rounding), and hbar/tau with tau = 3.2e-14 s (Ashcroft & Mermin Table 1.3,
   // 273 K, from memory): 0.0206 eV.
   const TunnelMetal* na = find_tunnel_metal("Na");
   ASSERT_NE(na, nullptr);

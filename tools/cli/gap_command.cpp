@@ -2,6 +2,7 @@
 // width -> barrier transmission at E_F, conductance per area, sigma0, gap damping and the gap
 // permittivity at one photon energy. The table is the product, so it goes to stdout; notes to stderr.
 #include <cmath>
+#include <cstdlib>
 #include <complex>
 #include <cstdio>
 #include <string>
@@ -9,6 +10,7 @@
 
 #include <fmt/format.h>
 
+#include "base/constants.h"
 #include "base/errors.h"
 #include "base/units.h"
 #include "commands.h"
@@ -28,6 +30,9 @@ struct GapOptionsText {
   std::string step = "0.05nm";
   std::string at = "1.8eV";
   std::string barrier = "rectangular";
+  std::string join;  // a transmission T(E_F), or "none"; empty: the model's default (1e-2)
+  // A paper's numbers in place of the preset's; empty keeps the preset's.
+  std::string work_function, fermi_energy, plasma_frequency, damping;
   bool json = false;
 };
 
@@ -64,6 +69,41 @@ double parse_spectral(const std::string& option, const std::string& text) {
   return *omega;
 }
 
+// An electron energy in eV or meV, J.
+double parse_energy(const std::string& option, const std::string& text) {
+  const auto nu = io::split_number_unit(text);
+  if (!nu || (nu->unit != "eV" && nu->unit != "meV") || !(nu->value > 0))
+    option_error(option, fmt::format("expected a positive energy in eV or meV, such as '5.1eV', got '{}'", text));
+  return nu->value * (nu->unit == "eV" ? 1.0 : 1e-3) * constants::eV;
+}
+
+materials::TunnelMetal given_metal(const materials::TunnelMetal& preset, const GapOptionsText& o) {
+  materials::TunnelMetalChanges c;
+  if (!o.work_function.empty()) c.work_function = parse_energy("--work-function", o.work_function);
+  if (!o.fermi_energy.empty()) c.fermi_energy = parse_energy("--fermi-energy", o.fermi_energy);
+  if (!o.plasma_frequency.empty()) c.plasma_frequency = parse_spectral("--plasma-frequency", o.plasma_frequency);
+  if (!o.damping.empty()) c.damping = parse_spectral("--damping", o.damping);
+  return materials::with_changes(preset, c);
+}
+
+materials::GapOptions gap_options(const GapOptionsText& o, materials::BarrierKind kind) {
+  materials::GapOptions options;
+  if (o.join.empty()) return options;
+  if (kind == materials::BarrierKind::exponential_fit)
+    option_error("--join", "the exponential_fit barrier has no join (it is the exponential at every width)");
+  if (o.join == "none") {
+    options.join_transmission = 0;
+    return options;
+  }
+  char* end = nullptr;
+  const double t = std::strtod(o.join.c_str(), &end);
+  if (end == o.join.c_str() || *end != '\0' || !(t > 0 && t < 1))
+    option_error("--join", fmt::format("expected a transmission T(E_F) between 0 and 1 (exclusive), or none, got '{}'",
+                                       o.join));
+  options.join_transmission = t;
+  return options;
+}
+
 materials::BarrierKind parse_barrier(const std::string& word) {
   if (word == "rectangular") return materials::BarrierKind::rectangular;
   // The scene's words (io/scene_tunnelling.cpp) and their short forms.
@@ -98,11 +138,11 @@ std::vector<double> gap_widths(const GapOptionsText& o) {
 std::string cell(double v) { return std::isfinite(v) ? fmt::format("{:<12.4e}", v) : fmt::format("{:<12}", "-"); }
 
 int run_gap(const GapOptionsText& o) {
-  const materials::TunnelMetal& metal = parse_metal(o.metal);
+  const materials::TunnelMetal metal = given_metal(parse_metal(o.metal), o);
   const materials::BarrierKind kind = parse_barrier(o.barrier);
   const std::vector<double> widths = gap_widths(o);
   const double omega = parse_spectral("--at", o.at);
-  const materials::GapModel model = materials::make_gap_model(metal, kind);
+  const materials::GapModel model = materials::make_gap_model(metal, kind, gap_options(o, kind));
 
   const double photon_eV = units::omega_to_eV(omega);
   std::fprintf(stderr, "%s: %s\n", metal.name.c_str(), metal.summary.c_str());
@@ -111,10 +151,15 @@ int run_gap(const GapOptionsText& o) {
   if (kind == materials::BarrierKind::exponential_fit) {
     std::fprintf(stderr, "  gamma_g = gamma_p exp(l/l_c), l_c = %.4g nm; G/A and sigma0 follow from gamma_g\n",
                  model.join_decay_length / units::nm);
+  } else if (model.options.join_transmission == 0) {
+    std::fprintf(stderr, "  no short-gap join: sigma0 = l G/A at every width, so gamma_g grows without bound as l -> 0\n");
   } else {
+    // The join (docs/gaps.md, "The short-gap join"): l G/A -> 0 at contact, so the barrier alone
+    // would make the gap vacuum-like as it closes; the published anchoring ties gamma_g to gamma_p.
     std::fprintf(stderr,
-                 "  below l' = %.4g nm (T(E_F) = %g) gamma_g = gamma_p exp(l/l_c), l_c = %.4g nm, and sigma0 is\n"
-                 "  eps0 wp^2/gamma_g there; from l' on sigma0 = l G/A\n",
+                 "  short-gap join: below l' = %.4g nm, where T(E_F) falls to %g, gamma_g = gamma_p exp(l/l_c) with\n"
+                 "  l_c = %.4g nm (meets the barrier value at l'), and sigma0 = eps0 wp^2/gamma_g there; from l' on\n"
+                 "  sigma0 = l G/A. --join T moves l', --join none turns it off (docs/gaps.md)\n",
                  model.join_width / units::nm, model.options.join_transmission, model.join_decay_length / units::nm);
   }
   std::fprintf(stderr, "  cut-off %.4g nm: gamma_g = %g gamma_p, tunnelling negligible beyond\n",
@@ -160,6 +205,7 @@ void add_gap_command(CLI::App& app, int& exit_code) {
       "gap", "tunnelling gap model: gap width -> transmission, conductance, damping, gap permittivity");
   cmd->footer(
       "Example:\n  yeegap gap --metal Au --from 0.1nm --to 1.2nm --step 0.05nm --at 1.8eV --barrier image --json\n"
+      "  yeegap gap --metal Au --fermi-energy 5.53eV --work-function 5.31eV --plasma-frequency 9eV --join none\n"
       "Metals: Au, Au-jellium, Ag, Na. Barriers: rectangular (exact), image (Simmons image force), fit "
       "(gamma_p exp(l/l_c)).");
   cmd->add_option("--metal", opts->metal, "metal preset")->capture_default_str();
@@ -169,6 +215,13 @@ void add_gap_command(CLI::App& app, int& exit_code) {
   cmd->add_option("--at", opts->at, "photon energy or vacuum wavelength for eps_g (1.8eV, 700nm)")
       ->capture_default_str();
   cmd->add_option("--barrier", opts->barrier, "rectangular, image_rounded or exponential_fit (as in scenes; image and fit also accepted)")->capture_default_str();
+  cmd->add_option("--join", opts->join,
+                  "short-gap join: the T(E_F) at which gamma_g joins gamma_p exp(l/l_c) (default 0.01), or none");
+  cmd->add_option("--work-function", opts->work_function, "work function W in place of the preset's (5.1eV)");
+  cmd->add_option("--fermi-energy", opts->fermi_energy, "Fermi energy E_F in place of the preset's (5.53eV)");
+  cmd->add_option("--plasma-frequency", opts->plasma_frequency,
+                  "Drude plasma frequency omega_p of metal and gap medium in place of the preset's (9eV)");
+  cmd->add_option("--damping", opts->damping, "bulk Drude damping gamma_p in place of the preset's (0.07eV)");
   cmd->add_flag("--json", opts->json, "print a JSON array of rows on stdout");
   cmd->callback([opts, &exit_code] { exit_code = guarded([&] { return run_gap(*opts); }); });
 }
