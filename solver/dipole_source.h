@@ -1,8 +1,10 @@
 // A point electric dipole: its current moment I l(t) = p0 u dp/dt enters Ampere's law as a current
 // density J = I l / V at the E locations around the point, spread with trilinear weights so the
-// total moment is exact wherever the point sits (E^{n+1} = ... - cb J^{n+1/2}).
+// total moment is exact wherever the point sits (E^{n+1} = ... - cb J^{n+1/2}). Next to a metal or
+// mirror face the share of a location beyond the face goes to its image inside (dipole_source.cpp).
 #pragma once
 
+#include <array>
 #include <vector>
 
 #include "solver/fields.h"
@@ -14,7 +16,9 @@ namespace yeegap::solver {
 
 class DipoleSource {
  public:
-  DipoleSource(const DipoleSpec& spec, const Grid& g, const BlockLayout& L);
+  /// `edges` are the domain's faces (x-, x+, y-, y+, z-, z+): metal and mirror faces fold the
+  /// trilinear share of a location beyond them onto its image.
+  DipoleSource(const DipoleSpec& spec, const Grid& g, const BlockLayout& L, const std::array<EdgeKind, 6>& edges);
   /// Adds -cb J at time t (the half step n+1/2 of the E update that is running).
   void apply_e(Fields& f, const ECoefficients& ec, const MaterialIndex& mi, double t) const;
   /// Current moment I l(t) along the dipole direction, A m.
