@@ -25,11 +25,11 @@ struct Coefficients {
 };
 
 // Graded sigma, kappa, alpha at relative depth rho in [0, 1] (0 at the inner interface).
-Coefficients coefficients_at(double rho, const CpmlProfile& p, double dt) {
+Coefficients coefficients_at(double rho, const CpmlProfile& p, int face, double dt) {
   if (rho <= 0) return {1.0, 0.0, 1.0};
   const double g = std::pow(rho, p.order);
-  const double sigma = p.sigma_max * g;
-  const double kappa = 1.0 + (p.kappa_max - 1.0) * g;
+  const double sigma = p.sigma_max[face] * g;
+  const double kappa = 1.0 + (p.kappa_max[face] - 1.0) * g;
   const double alpha = p.alpha_max * (1.0 - rho);
   const double b = std::exp(-(sigma / kappa + alpha) * dt / constants::eps0);
   const double a = sigma > 0 ? sigma * (b - 1.0) / (kappa * (sigma + kappa * alpha)) : 0.0;
@@ -63,13 +63,13 @@ Cpml::Cpml(const Grid& g, const std::array<bool, 6>& absorber, const CpmlProfile
         const double rho_e = (side == 0 ? x_if - xe : xe - x_if) / thickness;
         const double rho_h = (side == 0 ? x_if - xh : xh - x_if) / thickness;
         if (rho_e > 0) {
-          const Coefficients c = coefficients_at(rho_e, p, dt);
+          const Coefficients c = coefficients_at(rho_e, p, 2 * a + side, dt);
           be_[a][i] = static_cast<real>(c.b);
           ae_[a][i] = static_cast<real>(c.a);
           curls.e[a][i] = static_cast<real>(curls.e[a][i] / c.kappa);
         }
         if (rho_h > 0) {
-          const Coefficients c = coefficients_at(rho_h, p, dt);
+          const Coefficients c = coefficients_at(rho_h, p, 2 * a + side, dt);
           bh_[a][i] = static_cast<real>(c.b);
           ah_[a][i] = static_cast<real>(c.a);
           curls.h[a][i] = static_cast<real>(curls.h[a][i] / c.kappa);

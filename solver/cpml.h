@@ -17,12 +17,13 @@ namespace yeegap::solver {
 
 class StateArrays;  // simulation_state.h
 
-/// Resolved layer settings (SI); sigma_max from the target reflection and background index.
+/// Resolved layer settings (SI); sigma_max per face (x-, x+, y-, y+, z-, z+) from the target
+/// reflection, the background index and, in a Bloch cell, the angle of the wave reaching the face.
 struct CpmlProfile {
   int cells = 12;
   double order = 3;
-  double sigma_max = 0;  // S/m
-  double kappa_max = 1;
+  std::array<double, 6> sigma_max{};  // S/m
+  std::array<double, 6> kappa_max{1, 1, 1, 1, 1, 1};
   double alpha_max = 0;  // S/m
 };
 

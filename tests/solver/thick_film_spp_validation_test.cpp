@@ -19,6 +19,7 @@
 #include "geometry/shapes.h"
 #include "materials/library.h"
 #include "materials/transfer_matrix.h"
+#include "film_stack_scene.h"
 #include "solver/reflectance_dip.h"
 #include "solver/run_scene.h"
 
@@ -65,19 +66,7 @@ double tmm_dip_omega(double k_par, double lo, double hi) {
 // the absorber, the film from z = 0, 2 um of air (the plasmon's field falls off in 330 nm there,
 // physics.md 4.3, so the absorber sees 1e-5 of its intensity).
 Scene film_scene(double k_par_angle, double reference, double lambda_lo, double lambda_hi, int count) {
-  Scene s;
-  s.file = "test";
-  const double step = 2 * nm, glass = 200 * nm, air = 2000 * nm;
-  const int absorber = 20;
-  s.domain.step = {step, step, step};
-  s.domain.size = {step, step, glass + air + 2 * absorber * step};
-  s.domain.center = {0, 0, 0.5 * (air - glass)};
-  s.domain.edges = {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                    EdgeKind::periodic, EdgeKind::absorber, EdgeKind::absorber};
-  s.domain.bloch = {true, true, false};
-  s.domain.absorber.cells = absorber;
-  s.domain.gap_cells = 0;
-  s.domain.averaging = true;
+  Scene s = testing::film_stack_domain(2 * nm, 200 * nm, 2000 * nm);
   MaterialSpec air_medium, glass_medium, au;
   air_medium.name = "air";
   glass_medium.name = "glass";
