@@ -18,6 +18,7 @@
 
 #include <fmt/format.h>
 
+#include "base/data_file.h"
 #include "base/errors.h"
 
 namespace yeegap::geometry {
@@ -256,9 +257,8 @@ TriangleMesh parse_stl(std::string_view bytes, const std::string& name, double u
 }
 
 TriangleMesh read_stl(const std::string& path, double unit, const Where& where) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw SceneError(where, fmt::format("cannot open the mesh file '{}'", path));
-  const std::string bytes((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+  // 1 GiB: about 20 million facets in binary STL, far past what voxelising in a scene's set-up can use.
+  const std::string bytes = read_data_file(path, "mesh file", std::uintmax_t{1} << 30, where);
   return parse_stl(bytes, path, unit, where);
 }
 

@@ -102,6 +102,7 @@ void write_summary(const h5::File& file, const solver::RunSummary& s) {
   g.set_attribute("cell_updates_per_second", s.cell_updates_per_second);
   g.set_attribute("stop_reason", s.stop_reason);
   g.set_attribute("final_energy_fraction", s.final_energy_fraction);
+  if (!s.divergence.empty()) g.set_attribute("divergence", s.divergence);
 }
 
 void write_grid(const h5::File& file, const solver::RunResults& r) {

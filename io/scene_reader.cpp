@@ -25,7 +25,19 @@ constexpr long scene_format_version = 1;
 
 YAML::Node parse_yaml(const std::string& text, const SceneSource& source) {
   try {
-    return YAML::Load(text);
+    const std::vector<YAML::Node> docs = YAML::LoadAll(text);
+    // A second document (after a '---' line) would be ignored, and with it whatever the user wrote
+    // there: refuse it. An empty one (a trailing '---') holds nothing to lose.
+    for (std::size_t d = 1; d < docs.size(); ++d)
+      if (docs[d].IsDefined() && !docs[d].IsNull()) {
+        const int line = docs[d].Mark().line;
+        int column = docs[d].Mark().column;
+        source.to_file_column(line, column);
+        throw SceneError(Where{source.file, line + 1, column + 1, ""},
+                         "a second YAML document starts here (after a '---' line); a scene file holds one document, "
+                         "and this one would be ignored: merge it into the first or move it to its own file");
+      }
+    return docs.empty() ? YAML::Node() : docs.front();
   } catch (const YAML::ParserException& e) {
     // e.msg is yaml-cpp's text without its own "error at line..." prefix; marks are 0-based.
     int column = e.mark.column;
@@ -97,7 +109,15 @@ void read_scene_block(const Node& block, solver::Scene& scene) {
     version.fail(fmt::format("this program reads scene format version {}, got '{}'", scene_format_version,
                              version.text()));
   scene.version = static_cast<int>(v);
-  if (auto title = block.get("title")) scene.title = read_text(*title);
+  if (auto title = block.get("title")) {
+    scene.title = read_text(*title);
+    // The title goes into the results file as an HDF5 attribute, which holds at most 64 KiB; a
+    // longer one would be found only after the run, when the results cannot be written.
+    constexpr std::size_t max_title = 4096;
+    if (scene.title.size() > max_title)
+      title->fail(fmt::format("is {} characters long; a title holds at most {} (put longer notes in comments)",
+                              scene.title.size(), max_title));
+  }
   block.done();
 }
 

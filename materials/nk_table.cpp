@@ -9,6 +9,7 @@
 
 #include <fmt/format.h>
 
+#include "base/data_file.h"
 #include "base/errors.h"
 #include "base/units.h"
 
@@ -166,11 +167,9 @@ NkTable parse_nk_table(std::string_view text, const std::string& file, size_t mi
 }
 
 NkTable read_nk_table(const std::string& path, size_t min_rows) {
-  std::ifstream in(path, std::ios::binary);
-  if (!in) throw SceneError(Where{path, 0, 0, ""}, "cannot open the table file");
-  std::ostringstream text;
-  text << in.rdbuf();
-  return parse_nk_table(text.str(), path, min_rows);
+  // 64 MiB: a million rows, far more than any measured n, k table.
+  const std::string text = read_data_file(path, "table file", std::uintmax_t{1} << 26, Where{path, 0, 0, ""});
+  return parse_nk_table(text, path, min_rows);
 }
 
 }  // namespace yeegap::materials

@@ -160,6 +160,9 @@ Scene incident_scene(const Scene& main, const Grid& g, BlochWavePlan& p, const s
   }
   MaterialSpec m = main.materials[p.material];
   s.materials = {m};
+  // Not run by this problem (the sheet is its source), but they give its absorber the band, and so
+  // the angle, to design for (absorber_angle.h): the fed wave must not carry the layer's echo.
+  s.bloch_waves = main.bloch_waves;
   s.fluxes = {plane_at("incident", Grid::from_nodes(d.nodes, d), p.axis, p.entry - p.aux_offset, omegas)};
   s.stop = main.stop;
   return s;
@@ -324,12 +327,16 @@ void BlochRun::step() {
   ++n_;
 }
 
-RunResults BlochRun::run(const std::function<void(const Progress&)>& progress,
-                         const std::function<bool()>& between_steps) {
+double BlochRun::sources_end_time() const {
   double source_end = 0;
   for (const auto& d : scene_.dipoles) source_end = std::max(source_end, SourceTime(d.waveform).end_time());
   for (const auto& w : scene_.bloch_waves) source_end = std::max(source_end, SourceTime(w.waveform).end_time());
-  run_time_loop({scene_.stop, re_->dt(), source_end, plan(scene_).steps, re_->grid().cell_count()},
+  return source_end;
+}
+
+RunResults BlochRun::run(const std::function<void(const Progress&)>& progress,
+                         const std::function<bool()>& between_steps) {
+  run_time_loop({scene_.stop, re_->dt(), sources_end_time(), plan(scene_).steps, re_->grid().cell_count()},
                 {n_, peak_energy_, last_energy_, wall_seconds_, stop_reason_}, [&] { step(); },
                 [&] { return re_->field_energy() + (im_ ? im_->field_energy() : 0.0); }, progress, between_steps);
   return results();
@@ -345,6 +352,8 @@ RunResults BlochRun::results() const {
       wall_seconds_ > 0 ? n_ * static_cast<double>(re_->grid().cell_count()) * (im_ ? 2 : 1) / wall_seconds_ : 0;
   r.summary.stop_reason = stop_reason_;
   r.summary.final_energy_fraction = peak_energy_ > 0 ? last_energy_ / peak_energy_ : 0;
+  r.summary.divergence = stop_reason_ == "diverged" ? re_->describe_largest_field() : "";
+  r.summary.sources_end_time = sources_end_time();
   if (!wave_) return r;
 
   const Grid& g = re_->grid();

@@ -56,6 +56,7 @@ class BlochRun : public Checkpointable {
   StateArrays state_arrays() override;
 
  private:
+  double sources_end_time() const;  // s: when the last dipole or wave has ended
   Scene scene_;
   bool wave_ = false;
   BlochWavePlan plan_;

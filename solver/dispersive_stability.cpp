@@ -48,7 +48,10 @@ double nyquist_permittivity(const materials::PoleSet& poles, double dt) {
 namespace {
 
 // Frequencies at which passivity is checked: log-spaced over six decades below pi/dt (about 680 per
-// decade) plus every pole's own frequency, where a narrow feature could hide between samples.
+// decade), every pole's own frequency, where a narrow feature could hide between samples, and three
+// decades either side of each pole's scales (frequency, plasma frequency, damping). The last keep
+// gain visible at any dt: six decades below pi/dt alone start above the model's scales once dt is
+// small enough, where the gain term is too small to see, and the step search would settle there.
 std::vector<double> passivity_samples(const materials::PoleSet& poles, double dt) {
   const double top = constants::pi / dt;
   std::vector<double> w;
@@ -56,6 +59,17 @@ std::vector<double> passivity_samples(const materials::PoleSet& poles, double dt
   for (int q = 0; q < count; ++q) w.push_back(top * std::pow(10.0, -6.0 * (count - 0.5 - q) / count));
   for (const auto& l : poles.lorentz) w.push_back(l.omega_0);
   for (const auto& cp : poles.critical_points) w.push_back(cp.omega);
+  std::vector<double> scales;
+  for (const auto& d : poles.drude) scales.insert(scales.end(), {d.omega_p, std::abs(d.gamma)});
+  for (const auto& l : poles.lorentz) scales.insert(scales.end(), {l.omega_0, std::abs(l.gamma)});
+  for (const auto& cp : poles.critical_points) scales.insert(scales.end(), {cp.omega, std::abs(cp.gamma)});
+  constexpr int per_scale = 121;  // 20 per decade over 1e-3 .. 1e3
+  for (double scale : scales)
+    if (scale > 0)
+      for (int q = 0; q < per_scale; ++q) {
+        const double x = scale * std::pow(10.0, -3.0 + 6.0 * q / (per_scale - 1));
+        if (x < top) w.push_back(x);
+      }
   return w;
 }
 
@@ -112,7 +126,15 @@ double stable_time_step(const std::vector<MaterialSpec>& materials, double coura
     const double mid = 0.5 * (lo + hi);
     (stable(mid) ? lo : hi) = mid;
   }
-  return lo;
+  if (lo > 0) return lo;
+  // Not stable even at 1e-18 of the Courant limit: a model with gain, or a negative eps_inf, which
+  // no time step cures. Name the material and the rule it breaks rather than run with dt = 0.
+  for (const MaterialSpec& m : materials) {
+    const std::string why = dispersive_instability(m, hi, courant_limit);
+    if (!why.empty())
+      throw RunError(fmt::format("{}: material '{}' cannot run at any time step: {}", m.where.location(), m.name, why));
+  }
+  throw RunError("no time step makes the scene's materials stable");
 }
 
 void check_dispersive_stability(const Scene& s, double dt, double courant_limit) {

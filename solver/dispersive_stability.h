@@ -18,7 +18,8 @@ double nyquist_permittivity(const materials::PoleSet& poles, double dt);
 /// `courant_limit` (s); empty when it can.
 std::string dispersive_instability(const MaterialSpec& m, double dt, double courant_limit);
 
-/// Largest time step, at most `courant_limit`, at which every material is stable.
+/// Largest time step, at most `courant_limit`, at which every material is stable; throws RunError
+/// naming the material when none is (gain, a negative eps_inf).
 double stable_time_step(const std::vector<MaterialSpec>& materials, double courant_limit);
 
 /// Throws RunError, naming the material and the largest stable step, when dt is not stable.

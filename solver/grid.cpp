@@ -7,15 +7,39 @@
 #include "base/constants.h"
 #include "base/errors.h"
 
+#include <fmt/format.h>
+
 namespace yeegap::solver {
+
+void check_grid_size(const std::array<double, 3>& cells) {
+  // Counts are formed in double first, so a domain of metres at a nanometre step is caught here and
+  // never wraps an int (each axis) or the 64-bit array size (the product).
+  for (int a = 0; a < 3; ++a)
+    if (!(cells[a] <= max_cells_per_axis))
+      throw RunError(fmt::format("domain: {:.4g} cells along {}, more than the {} one axis may hold; check the units "
+                                 "of domain.size and domain.step",
+                                 cells[a], "xyz"[a], max_cells_per_axis));
+  const double total = cells[0] * cells[1] * cells[2];
+  if (!(total <= max_cells_total))
+    throw RunError(fmt::format("domain: {:.4g} x {:.4g} x {:.4g} = {:.4g} cells, more than the {:.4g} one run may hold "
+                               "(about {:.3g} TB of fields); check the units of domain.size and domain.step, or refine "
+                               "only where needed (domain.refine)",
+                               cells[0], cells[1], cells[2], total, max_cells_total,
+                               total * 6 * sizeof(float) / 1e12));
+}
 
 Grid Grid::uniform(const DomainSpec& d) {
   Grid g;
+  std::array<double, 3> counts{};
   for (int a = 0; a < 3; ++a) {
     YG_CHECK(d.size[a] > 0 && d.step[a] > 0, "domain size and step must be positive");
+    counts[a] = std::max(1.0, std::round(d.size[a] / d.step[a]));
+  }
+  check_grid_size(counts);
+  for (int a = 0; a < 3; ++a) {
     // Round the cell count to the nearest integer so the requested size is kept exactly and the
     // step changes by at most half a cell over the whole axis.
-    const int cells = std::max(1, static_cast<int>(std::lround(d.size[a] / d.step[a])));
+    const int cells = static_cast<int>(counts[a]);
     g.n[a] = cells;
     g.periodic[a] = d.edges[2 * a] == EdgeKind::periodic;
     g.mirror_low[a] = is_mirror(d.edges[2 * a]);
@@ -28,6 +52,7 @@ Grid Grid::uniform(const DomainSpec& d) {
 }
 
 Grid Grid::from_nodes(std::array<std::vector<double>, 3> nodes, const DomainSpec& d) {
+  check_grid_size({nodes[0].size() - 1.0, nodes[1].size() - 1.0, nodes[2].size() - 1.0});
   Grid g;
   for (int a = 0; a < 3; ++a) {
     YG_CHECK(nodes[a].size() >= 2, "a grid axis needs at least two nodes");

@@ -44,6 +44,13 @@ struct Grid {
   int cell_of(int a, double x) const;
 };
 
+/// Hard limits on the grid (RunError beyond them): an axis in an int with room for halos and index
+/// arithmetic, and the whole grid well inside 64-bit array sizes (2^40 cells: 26 TB of fields).
+inline constexpr double max_cells_per_axis = 1 << 24;
+inline constexpr double max_cells_total = 1099511627776.0;
+/// Throws RunError when cell counts per axis (as doubles, before any integer conversion) exceed them.
+void check_grid_size(const std::array<double, 3>& cells);
+
 /// Whether a field component sits half a cell off the nodes along axis a.
 constexpr bool staggered(Component c, int a) {
   switch (c) {

@@ -36,6 +36,16 @@ MeshPlan plan_mesh(const Scene& s) {
   const DomainSpec& d = s.domain;
   // Given nodes (an auxiliary problem that must share another run's cells) are the grid as they are.
   if (!d.nodes[0].empty() && !d.nodes[1].empty() && !d.nodes[2].empty()) return {Grid::from_nodes(d.nodes, d), {}, {}};
+  // Before any node is made: the base step and each refine zone give an upper estimate of the
+  // cells per axis, so a slip of units (metres at a nanometre step) is refused, not allocated.
+  std::array<double, 3> estimate{};
+  for (int a = 0; a < 3; ++a) {
+    YG_CHECK(d.size[a] > 0 && d.step[a] > 0, "domain size and step must be positive");
+    estimate[a] = d.size[a] / d.step[a];
+    for (const RefineZone& z : d.refine)
+      if (z.step[a] > 0) estimate[a] += std::min(z.box.hi[a] - z.box.lo[a], d.size[a]) / z.step[a];
+  }
+  check_grid_size(estimate);
   geometry::MeshRequest q;
   q.domain = {d.center - 0.5 * d.size, d.center + 0.5 * d.size};
   q.base_step = d.step;

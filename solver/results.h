@@ -165,8 +165,14 @@ struct RunSummary {
   double simulated_time = 0;               // s
   double wall_seconds = 0;
   double cell_updates_per_second = 0;
-  std::string stop_reason;                 // "time", "decayed", "max_steps"; "interrupted" (run's hook)
+  std::string stop_reason;                 // "time", "decayed", "max_steps"; "interrupted" (run's hook);
+                                           // "diverged" (fields not finite or growing without bound)
   double final_energy_fraction = 0;        // field energy at the end / its peak
+  double sources_end_time = 0;             // s: when the last source has ended (a pulse's tail, or
+                                           // infinity for a continuous wave); spectra of a run stopped
+                                           // before it are not those of the structure
+  std::string divergence;                  // with "diverged": where the largest field sits (component,
+                                           // cell, position, material)
 };
 
 struct RunResults {

@@ -10,6 +10,7 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
+#include "solver/absorber_angle.h"
 #include "solver/bloch_halos.h"
 #include "solver/dispersive_stability.h"
 #include "solver/material_map.h"
@@ -37,7 +38,7 @@ struct Parts {
 Parts build_parts(const Scene& s, const Grid& g, const BlockLayout& L, const CurlCoefficients& curls,
                   const ECoefficients& ec, const MaterialIndex& mi, double dt) {
   Parts p;
-  for (const auto& d : s.dipoles) p.dipoles.emplace_back(d, g, L);
+  for (const auto& d : s.dipoles) p.dipoles.emplace_back(d, g, L, s.domain.edges);
   for (const auto& w : s.plane_waves) p.plane_waves.emplace_back(w, s, g, L, curls, ec, mi, dt);
   for (const auto& x : s.probes) p.probes.emplace_back(x, g, L);
   for (const auto& m : s.field_maps) p.maps.emplace_back(m, g, L);
@@ -171,13 +172,20 @@ Simulation::Simulation(const Scene& scene)
     CpmlProfile p;
     p.cells = a.cells;
     p.order = a.grading_order;
-    p.kappa_max = a.kappa_max;
     // The thinnest absorbing layer's actual thickness sets sigma_max (on a graded grid a layer's
     // cells may be smaller than the base step, see mesh_plan.h).
     double thickness = std::numeric_limits<double>::infinity();
     for (int f = 0; f < 6; ++f)
       if (absorbing[f]) thickness = std::min(thickness, absorber_thickness(grid_, f, a.cells));
-    p.sigma_max = cpml_sigma_max(p.order, a.reflection, thickness, n_bg);
+    // In a Bloch cell each face is made to reach the target reflection for the waves that arrive
+    // there, at an angle or evanescent (absorber_angle.h); elsewhere every face gets the
+    // normal-incidence design.
+    for (int f = 0; f < 6; ++f)
+      if (absorbing[f]) {
+        const FaceDesign face = absorber_face_design(scene_, grid_, f, thickness);
+        p.sigma_max[f] = cpml_sigma_max(p.order, a.reflection, thickness, n_bg) * face.sigma_factor;
+        p.kappa_max[f] = face.kappa_max;
+      }
     // CFS shift: alpha/eps0 a tenth of the lowest source frequency keeps propagating waves absorbed
     // over the band while damping the late-time low-frequency tail (common practice).
     p.alpha_max = a.alpha_max > 0 ? a.alpha_max : 0.1 * lowest_source_omega(scene_) * constants::eps0;
@@ -439,6 +447,49 @@ double Simulation::field_energy() const {
   return total;
 }
 
+std::string Simulation::describe_largest_field() const {
+  // Non-finite values spread one cell per step along each axis, so by the time the guard sees them
+  // they fill a box around where they started: report the box and its centre. Finite runaway growth
+  // peaks where it started: report the largest value.
+  static constexpr const char* names[6] = {"Ex", "Ey", "Ez", "Hx", "Hy", "Hz"};
+  const BlockLayout& L = fields_.layout;
+  double largest = -1;
+  int big_c = 0;
+  std::array<int, 3> big{}, lo{L.n[0], L.n[1], L.n[2]}, hi{-1, -1, -1};
+  std::array<int, 6> bad_count{};
+  for (int c = 0; c < 6; ++c) {
+    const double scale = c < 3 ? 1.0 : constants::eta0;  // H in the units of E
+    for (int k = 0; k < L.n[2]; ++k)
+      for (int j = 0; j < L.n[1]; ++j)
+        for (int i = 0; i < L.n[0]; ++i) {
+          const double v = fields_.c[c][L.at(i, j, k)];
+          if (!std::isfinite(v)) {
+            ++bad_count[c];
+            const std::array<int, 3> idx{i, j, k};
+            for (int a = 0; a < 3; ++a) lo[a] = std::min(lo[a], idx[a]), hi[a] = std::max(hi[a], idx[a]);
+          } else if (std::abs(v) * scale > largest) {
+            largest = std::abs(v) * scale, big_c = c, big = {i, j, k};
+          }
+        }
+  }
+  auto material_name = [&](const Vec3& at) { return scene_.materials[static_cast<std::size_t>(material_at(scene_, at))].name; };
+  if (hi[0] >= 0) {
+    const int first = static_cast<int>(std::find_if(bad_count.begin(), bad_count.end(), [](int n) { return n > 0; }) -
+                                       bad_count.begin());
+    std::array<int, 3> mid{};
+    for (int a = 0; a < 3; ++a) mid[a] = (lo[a] + hi[a]) / 2;
+    const Vec3 at = yee_position(grid_, static_cast<Component>(first), mid[0], mid[1], mid[2]);
+    return fmt::format("non-finite fields ({} first) over cells ({}..{}, {}..{}, {}..{}), centred at cell ({}, {}, {}), "
+                       "position ({:.4g}, {:.4g}, {:.4g}) nm, in '{}'",
+                       names[first], lo[0], hi[0], lo[1], hi[1], lo[2], hi[2], mid[0], mid[1], mid[2], at[0] * 1e9,
+                       at[1] * 1e9, at[2] * 1e9, material_name(at));
+  }
+  const Vec3 at = yee_position(grid_, static_cast<Component>(big_c), big[0], big[1], big[2]);
+  return fmt::format("largest field {} = {:.4g} at cell ({}, {}, {}), position ({:.4g}, {:.4g}, {:.4g}) nm, in '{}'",
+                     names[big_c], fields_.c[big_c][L.at(big[0], big[1], big[2])], big[0], big[1], big[2], at[0] * 1e9,
+                     at[1] * 1e9, at[2] * 1e9, material_name(at));
+}
+
 RunResults Simulation::run(const std::function<void(const Progress&)>& progress,
                            const std::function<bool()>& between_steps) {
   run_time_loop({scene_.stop, dt_, sources_end_time(), summary().steps, grid_.cell_count()},
@@ -458,6 +509,8 @@ RunResults Simulation::results(const Simulation* imaginary) const {
   r.summary.cell_updates_per_second = wall_seconds_ > 0 ? n_ * static_cast<double>(grid_.cell_count()) / wall_seconds_ : 0;
   r.summary.stop_reason = stop_reason_;
   r.summary.final_energy_fraction = peak_energy_ > 0 ? last_energy_ / peak_energy_ : 0;
+  if (stop_reason_ == "diverged") r.summary.divergence = describe_largest_field();
+  r.summary.sources_end_time = sources_end_time();
   r.grid_x = grid_.nodes[0];
   r.grid_y = grid_.nodes[1];
   r.grid_z = grid_.nodes[2];

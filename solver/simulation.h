@@ -110,6 +110,10 @@ class Simulation : public Checkpointable {
   /// invariant axes scaled by their cell size).
   /// The polarisation (kinetic and bound-charge) energy of dispersive media is not included.
   double field_energy() const;
+  /// Where the fields have gone wrong: the first location holding a non-finite value, else the
+  /// largest |E| or |H| (scaled by the impedance of free space): component, cell, position in nm,
+  /// material. For the message of a diverged run.
+  std::string describe_largest_field() const;
   /// Polarisation currents of the dispersive materials (per-cell damping of gap cells goes here).
   DispersiveCurrents& dispersive() { return *dispersive_; }
   /// The averaged update of mixed E locations, or null (averaging off, or no mixed location).

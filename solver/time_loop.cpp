@@ -10,6 +10,13 @@ namespace {
 // How often (in steps) the field energy is measured for the decay stop rule; a full pass over
 // the fields costs about half a step, so every 20th step adds 2.5 %.
 constexpr long energy_interval = 20;
+// Without the decay rule the energy is still measured every 50 steps (1 %), to catch a run
+// going unstable: a non-finite energy, or after the sources have ended a field energy 1000 times
+// any seen before. A passive scene cannot do that: with no source its total energy only falls, and
+// the field's share can exceed its earlier peak only by what the media's polarisation held, a
+// factor of a few, not a thousand.
+constexpr long guard_interval = 50;
+constexpr double runaway_factor = 1e3;
 
 }  // namespace
 
@@ -31,11 +38,17 @@ void run_time_loop(const TimeLoopSetup& setup, TimeLoopCounters c, const std::fu
     const long n = c.step;
     if (after_steps >= 0 && n >= after_steps) c.stop_reason = "time";
     else if (n >= st.max_steps) c.stop_reason = "max_steps";
-    else if (st.decayed > 0 && n % energy_interval == 0) {
+    else if ((st.decayed > 0 && n % energy_interval == 0) || n % guard_interval == 0) {
       c.last_energy = field_energy();
-      c.peak_energy = std::max(c.peak_energy, c.last_energy);
-      if (n * setup.dt > setup.source_end && c.peak_energy > 0 && c.last_energy < st.decayed * c.peak_energy)
-        c.stop_reason = "decayed";
+      const bool sources_over = n * setup.dt > setup.source_end;
+      if (!std::isfinite(c.last_energy) ||
+          (sources_over && c.peak_energy > 0 && c.last_energy > runaway_factor * c.peak_energy)) {
+        c.stop_reason = "diverged";
+      } else {
+        c.peak_energy = std::max(c.peak_energy, c.last_energy);
+        if (st.decayed > 0 && sources_over && c.peak_energy > 0 && c.last_energy < st.decayed * c.peak_energy)
+          c.stop_reason = "decayed";
+      }
     }
     if (progress && (n & 15) == 0) {
       const auto now = clock::now();
@@ -57,9 +70,10 @@ void run_time_loop(const TimeLoopSetup& setup, TimeLoopCounters c, const std::fu
     }
   }
   c.wall_seconds = wall();
-  if (c.stop_reason != "interrupted" && (st.decayed > 0 || c.peak_energy == 0)) {
+  if (c.stop_reason != "interrupted" && c.stop_reason != "diverged") {
     c.last_energy = field_energy();
-    c.peak_energy = std::max(c.peak_energy, c.last_energy);
+    if (!std::isfinite(c.last_energy)) c.stop_reason = "diverged";  // between two checks, at the very end
+    else c.peak_energy = std::max(c.peak_energy, c.last_energy);
   }
 }
 

@@ -1,6 +1,6 @@
 // The time loop shared by every kind of run (Simulation, BlochRun): steps until a stop rule holds
 // (a time, a step cap, or the field energy decayed by a factor after the sources have ended),
-// reports progress at most twice a second, and lets the caller stop between steps (checkpoints,
+// stops a run whose fields diverge (energy not finite, or runaway growth after the sources), reports progress at most twice a second, and lets the caller stop between steps (checkpoints,
 // signals). The run keeps its own counters; the loop only reads and updates them.
 #pragma once
 
@@ -26,7 +26,7 @@ struct TimeLoopCounters {
   double& peak_energy;
   double& last_energy;
   double& wall_seconds;            // summed over the segments
-  std::string& stop_reason;        // "time", "max_steps", "decayed" or "interrupted"
+  std::string& stop_reason;        // "time", "max_steps", "decayed", "interrupted" or "diverged"
 };
 
 void run_time_loop(const TimeLoopSetup& setup, TimeLoopCounters counters, const std::function<void()>& step,

@@ -53,5 +53,19 @@ expect version 0 "yeegap [0-9]+\.[0-9]+" -- "$yeegap" --version
 # An unwritable results path fails before running and says which path.
 expect unwritable_output 1 "$work/no/such/dir/out.h5" -- "$yeegap" run "$src/examples/dipole_near_sphere.yaml" -o "$work/no/such/dir/out.h5"
 
+# A results file that would replace the scene (or its sidecar or checkpoint would) is refused, exit 2,
+# and the scene is left as it was.
+cp "$src/examples/dipole_near_sphere.yaml" "$work/scene.yaml"
+expect output_is_the_scene 2 "would write '.*scene.yaml', which is the scene file" -- "$yeegap" run "$work/scene.yaml" -o "$work/scene.yaml"
+cmp -s "$src/examples/dipole_near_sphere.yaml" "$work/scene.yaml" || { echo "FAIL: the scene was changed"; fails=$((fails + 1)); }
+cp "$work/scene.yaml" "$work/scene.xmf"
+expect sidecar_would_replace_the_scene 2 "would write '.*scene.xmf', which is the scene file" -- "$yeegap" run "$work/scene.xmf" -o "$work/scene.h5"
+
+# A source whose amplitude overflows single precision: the guard stops the run within 50 steps of the
+# first non-finite value, says where, writes the results as they stood and exits with code 4.
+expect diverged_run 4 "the fields diverged by step [0-9]+: non-finite fields" -- \
+  "$yeegap" run "$work/scene.yaml" -o "$work/diverged.h5" --set "excitation[0].dipole.moment=1e40 C m"
+[ -e "$work/diverged.h5" ] || { echo "FAIL: a diverged run wrote no results file"; fails=$((fails + 1)); }
+
 echo "$pass passed, $fails failed"
 [ "$fails" -eq 0 ]

@@ -183,6 +183,19 @@ TEST(StlMesh, HoleIsRefusedNamingTheFacetsAroundIt) {
   EXPECT_NE(msg.find(fmt::format("facets {}, {}, {}", around[0], around[1], around[2])), std::string::npos) << msg;
 }
 
+TEST(StlMesh, ADirectoryOrADeviceIsRefusedByWhatItIs) {
+  // A directory used to fail with "basic_filebuf::underflow error", and /dev/zero read forever.
+  const std::string dir = temp_file("a_directory");
+  std::filesystem::create_directories(dir);
+  std::string msg = error_of([&] { read_stl(dir, 1.0, here); });
+  EXPECT_NE(msg.find("is a directory, not a file"), std::string::npos) << msg;
+  EXPECT_NE(msg.find("scene.yaml:12:5"), std::string::npos) << msg;
+  msg = error_of([&] { read_stl("/dev/zero", 1.0, here); });
+  EXPECT_NE(msg.find("is not a regular file"), std::string::npos) << msg;
+  msg = error_of([&] { read_stl(temp_file("missing.stl"), 1.0, here); });
+  EXPECT_NE(msg.find("no such file"), std::string::npos) << msg;
+}
+
 TEST(StlMesh, FlippedFacetIsRefusedByItsIndex) {
   auto soup = test::icosphere({0, 0, 0}, 1, 1);
   std::swap(soup.facets[7][1], soup.facets[7][2]);

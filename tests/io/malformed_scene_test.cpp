@@ -190,6 +190,30 @@ stop: {after: 100 fs}
   expect_at(f, 4, 7);
 }
 
+TEST(MalformedScene, ASecondYamlDocumentIsRefusedWhereItStarts) {
+  // Everything after '---' used to be ignored without a word (a stop rule, an output, ...).
+  const auto f = failure_of(R"(scene: {version: 1}
+domain: {size: 400 nm, step: 5 nm}
+excitation: {dipole: {position: [0, 0, 0], direction: z, frequency: 600 nm}}
+stop: {after: 100 fs}
+---
+outputs:
+  - probe: {name: p, position: [0, 0, 0]}
+)");
+  EXPECT_THAT(f.what, HasSubstr("a second YAML document starts here"));
+  expect_at(f, 6, 1);
+}
+
+TEST(MalformedScene, ATitleTooLongForTheResultsFileIsRefusedBeforeTheRun) {
+  const auto f = failure_of("scene: {version: 1, title: " + std::string(5000, 'x') + R"(}
+domain: {size: 400 nm, step: 5 nm}
+excitation: {dipole: {position: [0, 0, 0], direction: z, frequency: 600 nm}}
+stop: {after: 100 fs}
+)");
+  EXPECT_THAT(f.what, HasSubstr("is 5000 characters long; a title holds at most 4096"));
+  expect_at(f, 1, 28);
+}
+
 TEST(MalformedScene, TextWhereANumberIsExpectedIsRefused) {
   const auto f = failure_of(R"(scene: {version: 1}
 domain:

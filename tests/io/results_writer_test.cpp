@@ -117,7 +117,8 @@ std::complex<double> map_value(std::size_t f, std::size_t c, std::size_t i) {
 solver::RunResults make_results(long steps = 1234) {
   solver::RunResults r;
   r.summary = {.steps = steps, .time_step = dt, .simulated_time = double(steps) * dt, .wall_seconds = 2.5,
-               .cell_updates_per_second = 1e8, .stop_reason = "decayed", .final_energy_fraction = 1e-5};
+               .cell_updates_per_second = 1e8, .stop_reason = "decayed", .final_energy_fraction = 1e-5,
+               .sources_end_time = 0, .divergence = {}};
   r.grid_x = {0, 1e-9, 2e-9, 3e-9};          // 3 cells
   r.grid_y = {0, 1e-9, 2.5e-9, 4e-9, 5e-9};  // 4 cells, graded
   r.grid_z = {-1e-9, 1e-9};                  // 1 cell

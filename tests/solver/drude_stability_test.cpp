@@ -186,5 +186,33 @@ TEST(DrudeStability, UnresolvedLorentzPoleIsRefused) {
   }
 }
 
+// Active poles of every kind: no time step makes them stable, so the automatic step search must
+// refuse them by name (before, it settled on dt = 0 and check printed a step count of -9.2e18).
+// Gain is Im eps < 0 at some frequency (exp(-i omega t), physics.md 0).
+TEST(DrudeStability, ActivePolesOfEveryKindAreRefusedWhateverTheStep) {
+  materials::PoleSet drude_gain;
+  drude_gain.drude.push_back({1.4e16, -1e14});        // negative damping
+  materials::PoleSet lorentz_gain;
+  lorentz_gain.lorentz.push_back({-2.0, 4e15, 1e14});  // negative strength
+  materials::PoleSet critical_gain;
+  critical_gain.eps_inf = 2;
+  critical_gain.critical_points.push_back({-1.5, 0.5, 4e15, 1e15});  // negative amplitude
+  const char* kinds[] = {"Drude", "Lorentz", "critical point"};
+  int kind = 0;
+  for (const materials::PoleSet& p : {drude_gain, lorentz_gain, critical_gain}) {
+    SCOPED_TRACE(kinds[kind++]);
+    Scene s = periodic_column(p);
+    s.domain.time_step = 0;  // let the program choose: it must find that none works
+    try {
+      Simulation refused(s);
+      FAIL() << "an active pole set must be refused";
+    } catch (const RunError& e) {
+      const std::string what = e.what();
+      EXPECT_NE(what.find("material 'medium' cannot run at any time step"), std::string::npos) << what;
+      EXPECT_NE(what.find("gain"), std::string::npos) << what;
+    }
+  }
+}
+
 }  // namespace
 }  // namespace yeegap::solver

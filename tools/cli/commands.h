@@ -14,6 +14,8 @@ inline constexpr int exit_ok = 0;
 inline constexpr int exit_failure = 1;
 inline constexpr int exit_user_error = 2;
 inline constexpr int exit_interrupted = 3;
+// The fields diverged (not finite, or growing without bound): results written as they stood.
+inline constexpr int exit_diverged = 4;
 
 /// `command_line` is the program's arguments joined by spaces, stored with the results.
 void add_run_command(CLI::App& app, int& exit_code, const std::string& command_line);

@@ -19,6 +19,7 @@
 #include "commands.h"
 #include "io/results_writer.h"
 #include "io/scene_reader.h"
+#include "io/xdmf_writer.h"
 #include "io/sweep_table.h"
 #include "json.h"
 #include "progress.h"
@@ -241,6 +242,22 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
   return outs.str();
 }
 
+// The files a run writes (results, checkpoint, viewer sidecar) must not be files it reads: `-o
+// scene.yaml` used to replace the scene with HDF5. Compared as files (same inode), so another
+// spelling of the same path is caught too.
+void refuse_overwriting_inputs(const std::string& output, const std::string& scene_path, const solver::Scene& scene) {
+  std::vector<std::pair<std::string, std::string>> inputs{{scene_path, "the scene file"}};
+  for (const solver::InputFile& f : scene.input_files) inputs.push_back({f.path, "the file of " + f.key_path});
+  for (const std::string& written : {output, io::checkpoint_path(output), io::xdmf_path(output)})
+    for (const auto& [path, what] : inputs) {
+      std::error_code ec;
+      if (std::filesystem::equivalent(written, path, ec) && !ec)
+        throw SceneError(Where{}, fmt::format("--output {}: the run would write '{}', which is {} ('{}'); choose "
+                                              "another results file (they end in .h5)",
+                                              output, written, what, path));
+    }
+}
+
 int run_scene(const RunOptions& o) {
   io::SweepPlan sweep;
   solver::Scene scene;
@@ -252,6 +269,7 @@ int run_scene(const RunOptions& o) {
     scene = io::read_scene_file(o.scene, o.overrides);
   }
   const std::string output = o.output.empty() ? default_output(o.scene, o.point) : o.output;
+  refuse_overwriting_inputs(output, o.scene, scene);
   io::check_writable(output);  // fail now, not after hours of computing
   if (o.threads > 0) omp_set_num_threads(o.threads);
   const int threads = omp_get_max_threads();
@@ -297,7 +315,8 @@ int run_scene(const RunOptions& o) {
     ProgressLine progress;
     run = run_with_checkpoints(*state, run_function, scene, checkpoint, progress);
   }
-  if (scan && !scene.sensors.empty() && !run.interrupted) {
+  const bool diverged = run.results.summary.stop_reason == "diverged";
+  if (scan && !scene.sensors.empty() && !run.interrupted && !diverged) {
     // The sensor's repeats of the scan (sensing medium's index raised; bound layer taken away): not
     // checkpointed (a stop during them loses only these; the first is in the checkpoint until the end).
     const solver::SensorSpec& spec = scene.sensors.front();
@@ -316,14 +335,29 @@ int run_scene(const RunOptions& o) {
   // With its /sweep record the file counts as a finished point for `yeegap sweep` (if named
   // point_NNNN.h5 in the sweep's folder); written after the results, so a failure here loses none.
   // Partial results of an interrupted run get none: the point is not finished.
-  if (o.point && !interrupted) io::write_point_record(output, sweep, *o.point, io::compute_figures(results, scene), o.overrides);
+  if (o.point && !interrupted && !diverged) io::write_point_record(output, sweep, *o.point, io::compute_figures(results, scene), o.overrides);
   write_viewer_file(output);  // a failure is reported; the results are safe either way
-  if (!interrupted) std::filesystem::remove(checkpoint.path, ec);  // finished: nothing left to resume
+  // Finished: nothing left to resume. A diverged run keeps its last periodic checkpoint (from
+  // before the divergence), which shows the state of a run that was still sound.
+  if (!interrupted && !diverged) std::filesystem::remove(checkpoint.path, ec);
   const auto& s = results.summary;
   std::fprintf(stderr, "yeegap: %ld steps (%s) in %.1f s, %.1f Mcells/s; %sresults in %s\n", s.steps, s.stop_reason.c_str(),
                s.wall_seconds, s.cell_updates_per_second / 1e6, interrupted ? "partial " : "", output.c_str());
   if (interrupted && !checkpoint_failed)
     std::fprintf(stderr, "yeegap: to finish the run: the same command with --resume\n");
+  // A run stopped by its time or step limit while a source still runs holds spectra of a
+  // truncated excitation, finite and plausible-looking: say so beside them.
+  if (!interrupted && !diverged && s.simulated_time < s.sources_end_time && std::isfinite(s.sources_end_time))
+    std::fprintf(stderr,
+                 "yeegap: warning: the run stopped at %.4g fs, before its sources ended (%.4g fs): the spectra below "
+                 "are those of a cut-off pulse, not of the structure; lengthen stop.after or use stop.decayed\n",
+                 s.simulated_time * 1e15, s.sources_end_time * 1e15);
+  if (diverged)
+    std::fprintf(stderr,
+                 "yeegap: error: the fields diverged by step %ld: %s. The results file holds what was recorded "
+                 "(spectra are not valid). Usual causes: a time step set above the stability bound, a material "
+                 "with gain, or a source far beyond the scene's scale (docs/running.md, exit codes)\n",
+                 s.steps, s.divergence.c_str());
   const std::string outs = headlines(results, scene);
   if (o.json) {
     JsonObject j;
@@ -338,6 +372,7 @@ int run_scene(const RunOptions& o) {
     std::printf("%s\n", j.str().c_str());
   }
   if (interrupted) return checkpoint_failed ? exit_failure : exit_interrupted;
+  if (diverged) return exit_diverged;
   if (o.plot) make_plots(output);  // a failure is reported but leaves the exit code alone
   return exit_ok;
 }
