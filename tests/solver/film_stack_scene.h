@@ -4,6 +4,9 @@
 // so the film faces see the mean of their two media. Materials and bodies are the caller's.
 #pragma once
 
+#include <utility>
+#include <vector>
+
 #include "solver/scene.h"
 
 namespace yeegap::solver::testing {
@@ -21,6 +24,19 @@ inline Scene film_stack_domain(double step, double below, double above, int abso
   s.domain.gap_cells = 0;
   s.domain.averaging = true;
   return s;
+}
+
+/// A p-polarised plane wave scanned over `angles` (rad) at one angular frequency: one R, T, A row
+/// per angle, each run with a pulse narrowed around omega (the program picks its band).
+inline BlochWaveSpec p_angle_scan(double omega, std::vector<double> angles) {
+  BlochWaveSpec w;
+  w.p_polarised = true;
+  w.reference_omega = omega;
+  w.omegas = {omega};
+  w.single_frequency = true;
+  w.scan_angles = std::move(angles);
+  w.angle = w.scan_angles.front();
+  return w;
 }
 
 }  // namespace yeegap::solver::testing

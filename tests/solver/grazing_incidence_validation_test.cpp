@@ -51,14 +51,7 @@ Scene stack_scene(double step, bool with_gold, std::vector<double> angles, doubl
   s.materials = {medium("water", water_n), medium("glass", glass_n), au};
   s.bodies.push_back({geometry::make_slab(2, -1.0, 0.0), 1, {}, "prism"});
   if (with_gold) s.bodies.push_back({geometry::make_slab(2, 0.0, 50 * nm), 2, {}, "gold"});
-  BlochWaveSpec w;
-  w.p_polarised = true;
-  w.reference_omega = omega0;
-  w.omegas = {omega0};
-  w.single_frequency = true;
-  w.scan_angles = std::move(angles);
-  w.angle = w.scan_angles.front();
-  s.bloch_waves = {w};
+  s.bloch_waves = {testing::p_angle_scan(omega0, std::move(angles))};
   s.stop.decayed = 1e-6;
   return s;
 }

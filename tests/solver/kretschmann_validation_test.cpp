@@ -87,14 +87,7 @@ Scene kretschmann_scene(const Stack& k, double step, std::vector<double> angles)
   s.bodies.push_back({geometry::make_slab(2, -1.0, 0.0), 1, {}, "prism"});
   s.bodies.push_back({geometry::make_slab(2, 0.0, 50 * nm), 2, {}, "gold"});
   if (k.layer_thickness > 0) s.bodies.push_back({geometry::make_slab(2, 50 * nm, 50 * nm + k.layer_thickness), 3, {}, "layer"});
-  BlochWaveSpec w;
-  w.p_polarised = true;
-  w.reference_omega = omega0;
-  w.omegas = {omega0};
-  w.single_frequency = true;
-  w.scan_angles = std::move(angles);
-  w.angle = w.scan_angles.front();
-  s.bloch_waves = {w};
+  s.bloch_waves = {testing::p_angle_scan(omega0, std::move(angles))};
   s.stop.decayed = 1e-6;
   return s;
 }
