@@ -123,10 +123,15 @@ std::optional<Gap> find_gap(const Shape& a, const Shape& b, const GapSearch& sea
         const Vec3 p = box.lo + Vec3{(i + 0.5) * cell.x, (j + 0.5) * cell.y, (k + 0.5) * cell.z};
         samples.push_back({a.signed_distance(p) + b.signed_distance(p), p});
       }
-  std::sort(samples.begin(), samples.end(), [](const Sample& u, const Sample& v) { return u.f < v.f; });
   // d_A + d_B <= gap + 2 |p - p*| near the nearest points p*, so the best sample is at most one
-  // cell diagonal above the gap.
+  // cell diagonal above the gap. Only samples that close to a reportable gap can seed (or mark an
+  // overlap): sorting just those keeps a scene of hundreds of bodies fast.
   const double slack = norm(cell);
+  samples.erase(std::partition(samples.begin(), samples.end(),
+                               [&](const Sample& s) { return s.f <= search.max_width + slack; }),
+                samples.end());
+  if (samples.empty()) return std::nullopt;
+  std::sort(samples.begin(), samples.end(), [](const Sample& u, const Sample& v) { return u.f < v.f; });
   if (samples.front().f > search.max_width + slack) return std::nullopt;
   if (samples.front().f < 0) {  // overlapping: a point inside both
     Gap g;
@@ -158,15 +163,34 @@ std::optional<Gap> find_gap(const Shape& a, const Shape& b, const GapSearch& sea
 }
 
 std::vector<Gap> find_gaps(const std::vector<ShapePtr>& bodies, const GapSearch& search) {
+  // Sweep along x: with the boxes (grown by the widest gap) sorted by their low x, a pair can only
+  // hold a gap while the second starts before the first ends, so an array of n bodies costs about
+  // n neighbours each, not n^2 searches.
+  const std::size_t n = bodies.size();
+  std::vector<Aabb> boxes(n);
+  for (std::size_t i = 0; i < n; ++i) boxes[i] = grown(bodies[i]->bounds(), search.max_width);
+  std::vector<std::size_t> order(n);
+  for (std::size_t i = 0; i < n; ++i) order[i] = i;
+  std::sort(order.begin(), order.end(), [&](std::size_t u, std::size_t v) { return boxes[u].lo.x < boxes[v].lo.x; });
+  auto overlap = [&](std::size_t u, std::size_t v) {
+    for (int a = 0; a < 3; ++a)
+      if (boxes[u].hi[a] < boxes[v].lo[a] || boxes[v].hi[a] < boxes[u].lo[a]) return false;
+    return true;
+  };
   std::vector<Gap> out;
-  for (std::size_t i = 0; i < bodies.size(); ++i)
-    for (std::size_t j = i + 1; j < bodies.size(); ++j) {
+  for (std::size_t p = 0; p < n; ++p)
+    for (std::size_t q = p + 1; q < n && !(boxes[order[q]].lo.x > boxes[order[p]].hi.x); ++q) {
+      const std::size_t i = std::min(order[p], order[q]), j = std::max(order[p], order[q]);
+      if (!overlap(i, j)) continue;
       auto g = find_gap(*bodies[i], *bodies[j], search);
       if (!g || !(g->width > 0)) continue;
       g->body_a = static_cast<int>(i);
       g->body_b = static_cast<int>(j);
       out.push_back(*g);
     }
+  // In body order, as before: the listing and the mesh do not depend on the sweep.
+  std::sort(out.begin(), out.end(),
+            [](const Gap& u, const Gap& v) { return u.body_a != v.body_a ? u.body_a < v.body_a : u.body_b < v.body_b; });
   return out;
 }
 
@@ -177,11 +201,13 @@ void add_gap_refinement(MeshRequest& request, const Gap& gap, int cells_across) 
     z.box.lo[a] = std::min(gap.point_a[a], gap.point_b[a]);
     z.box.hi[a] = std::max(gap.point_a[a], gap.point_b[a]);
     const double extent = z.box.hi[a] - z.box.lo[a];
-    // An axis nearly along the gap's faces needs no cells across it.
+    // An axis nearly along the gap's faces needs no cells across it. Along a tilted axis the gap
+    // is wider than its width (width / |cos| between the faces, width^2 / extent), so its cells are
+    // too: a diagonal gap gets no finer cells than a straight one of the same width.
     if (extent > 0.2 * gap.width) {
-      z.step[a] = extent / cells_across;
-      request.interfaces[a].push_back(gap.point_a[a]);
-      request.interfaces[a].push_back(gap.point_b[a]);
+      z.step[a] = gap.width * gap.width / extent / cells_across;
+      request.gap_interfaces[a].push_back(gap.point_a[a]);
+      request.gap_interfaces[a].push_back(gap.point_b[a]);
     } else {
       z.step[a] = inf;
     }

@@ -37,8 +37,10 @@ std::optional<Gap> find_gap(const Shape& a, const Shape& b, const GapSearch& sea
 std::vector<Gap> find_gaps(const std::vector<ShapePtr>& bodies, const GapSearch& search);
 
 /// Adds what a gap needs to a mesh request: on every axis along which the gap spans more than a
-/// fifth of its width, a zone over the gap's extent with `cells_across` cells, and the two
-/// nearest points' coordinates as interfaces (cell edges on the gap's faces).
+/// fifth of its width, a zone over the gap's extent with `cells_across` cells across the gap as
+/// measured along that axis (width / |cos|: never finer than width / cells_across), and the two
+/// nearest points' coordinates as gap interfaces (cell edges on the gap's faces, merged where
+/// neighbouring gaps put them within half a cell of each other).
 void add_gap_refinement(MeshRequest& request, const Gap& gap, int cells_across);
 
 }  // namespace yeegap::geometry

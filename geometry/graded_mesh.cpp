@@ -27,6 +27,10 @@ constexpr int substeps = 16;
 constexpr int max_rebuilds = 200;
 // An optional interface is kept only this many allowed cells away from every other interface.
 constexpr double optional_clearance = 4.0;
+// A gap face within this many allowed cells of another edge merges into it. Neighbouring gaps of an
+// array find the same face up to rounding (1e-16 m apart), and two forced edges that close made
+// cells of 1e-7 nm; the two faces of one gap are gap_cells allowed cells apart and never merge.
+constexpr double gap_clearance = 0.5;
 
 std::string nm(double x) { return fmt::format("{:.4g} nm", x * 1e9); }
 
@@ -127,6 +131,17 @@ AxisMesh build_axis(const AxisRequest& r) {
     }
     std::sort(pins.begin(), pins.end());
     pins.erase(std::unique(pins.begin(), pins.end(), [&](double u, double v) { return v - u <= merge; }), pins.end());
+    // Gap faces, in order along the axis so that a run of near twins keeps its first member.
+    std::vector<double> gap_faces = r.gap_interfaces;
+    std::sort(gap_faces.begin(), gap_faces.end());
+    for (double x : gap_faces) {
+      if (!(x > A && x < B)) continue;
+      const double clear = gap_clearance * b.allowed(x);
+      const auto at = std::lower_bound(pins.begin(), pins.end(), x);
+      const bool near_next = at != pins.end() && *at - x < clear;
+      const bool near_previous = at != pins.begin() && x - *(at - 1) < clear;
+      if (!near_next && !near_previous) pins.insert(at, x);
+    }
     // Optional interfaces, zone edges among them, where they cost no extra cells.
     std::vector<double> optional = r.optional_interfaces;
     for (std::size_t z = 0; z < user_zones; ++z) {
@@ -220,6 +235,7 @@ GradedMesh build_graded_mesh(const MeshRequest& q) {
       if (z.step[a] > 0 && std::isfinite(z.step[a])) r.zones.push_back({z.box.lo[a], z.box.hi[a], z.step[a]});
     r.interfaces = q.interfaces[a];
     r.optional_interfaces = q.optional_interfaces[a];
+    r.gap_interfaces = q.gap_interfaces[a];
     r.absorber_lo = q.absorber_cells[2 * a];
     r.absorber_hi = q.absorber_cells[2 * a + 1];
     r.periodic = q.periodic[a];

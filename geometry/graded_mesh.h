@@ -35,6 +35,8 @@ struct MeshRequest {
                                                      // faces, gap faces); those inside an absorber are dropped
   std::array<std::vector<double>, 3> optional_interfaces;  // made cell edges only where that forces
                                                      // no extra refinement (body box extremes)
+  std::array<std::vector<double>, 3> gap_interfaces; // gap faces: cell edges, except that one within
+                                                     // half an allowed cell of another edge merges into it
   std::array<int, 6> absorber_cells{};               // per face x-, x+, y-, y+, z-, z+; 0 = none
   std::array<bool, 3> periodic{};                    // the last cell neighbours the first
   double ratio = 1.2;                                // largest allowed neighbour-cell ratio, > 1
@@ -67,7 +69,7 @@ struct AxisRequest {
     double from, to, step;
   };
   std::vector<Zone> zones;
-  std::vector<double> interfaces, optional_interfaces;
+  std::vector<double> interfaces, optional_interfaces, gap_interfaces;
   int absorber_lo = 0, absorber_hi = 0;
   bool periodic = false;
 };

@@ -47,7 +47,18 @@ void check_status(herr_t status, std::string_view action, std::string_view objec
 }
 
 /// The library prints every error stack to stderr by default; our exceptions carry the message.
-void silence_hdf5() { H5Eset_auto2(H5E_DEFAULT, nullptr, nullptr); }
+/// Its clean-up at exit is switched off too: HDF5 1.10 keeps a file whose close failed (a full
+/// disk) half-closed in its tables and that clean-up then crashes (exit code 139 instead of the
+/// program's own). Every file here is closed explicitly, so nothing is lost by skipping it.
+/// H5dont_atexit works only before the library starts, so the first file opened calls it.
+void silence_hdf5() {
+  static const bool once = [] {
+    H5dont_atexit();
+    return true;
+  }();
+  (void)once;
+  H5Eset_auto2(H5E_DEFAULT, nullptr, nullptr);
+}
 
 hsize_t product(const Shape& shape) {
   return std::accumulate(shape.begin(), shape.end(), hsize_t{1}, std::multiplies<>());

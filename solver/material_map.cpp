@@ -5,31 +5,28 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
+#include "solver/body_lookup.h"
 #include "materials/discrete_permittivity.h"
 
 namespace yeegap::solver {
 
-int material_at(const Scene& s, const Vec3& p) {
-  int on_faces = 0, last_on_face = -1;
-  for (auto it = s.bodies.rbegin(); it != s.bodies.rend(); ++it) {
-    const geometry::Aabb b = it->shape->bounds();
-    if (p.x < b.lo.x || p.y < b.lo.y || p.z < b.lo.z || p.x > b.hi.x || p.y > b.hi.y || p.z > b.hi.z) continue;
-    const double d = it->shape->signed_distance(p);
-    if (d < 0) return it->material;
-    if (d == 0 && on_faces++ == 0) last_on_face = it->material;
-  }
-  // A point exactly on a face that two bodies share (a film face on a grid node of a graded mesh,
-  // which pins nodes to slab faces) is strictly inside neither; the background there would put a
-  // cell of it between two touching layers. The later body takes it, as it would overlapping ones.
-  // A point on one body's face alone stays outside, as before.
-  return on_faces >= 2 ? last_on_face : s.domain.background;
+namespace {
+
+geometry::Aabb extent(const Grid& g) {
+  return {{g.nodes[0].front(), g.nodes[1].front(), g.nodes[2].front()},
+          {g.nodes[0].back(), g.nodes[1].back(), g.nodes[2].back()}};
 }
+
+}  // namespace
+
+int material_at(const Scene& s, const Vec3& p) { return BodyLookup(s, {}).material_at(p); }
 
 void fill_material_index(const Scene& s, const Grid& g, const BlockLayout& L, MaterialIndex& mi) {
   YG_CHECK(s.materials.size() < 255, "at most 254 materials fit the 8-bit material index");
   const auto wall = static_cast<std::uint8_t>(s.materials.size());
   std::vector<std::uint8_t> is_pec(s.materials.size() + 1, 0);
   for (std::size_t m = 0; m < s.materials.size(); ++m) is_pec[m] = s.materials[m].perfect_conductor;
+  const BodyLookup bodies(s, extent(g));
   for (int c = 0; c < 3; ++c) {
     const auto comp = static_cast<Component>(c);
     auto& out = mi.e[c];
@@ -43,7 +40,7 @@ void fill_material_index(const Scene& s, const Grid& g, const BlockLayout& L, Ma
           for (int a = 0; a < 3; ++a)
             // Tangential E on a bounded low face is held at zero, except on an even mirror plane.
             if (a != c && !g.periodic[a] && idx[a] == 0 && s.domain.edges[2 * a] != EdgeKind::mirror_even) on_wall = true;
-          const int m = on_wall ? wall : material_at(s, yee_position(g, comp, i, j, k));
+          const int m = on_wall ? wall : bodies.material_at(yee_position(g, comp, i, j, k));
           out[L.at(i, j, k)] = is_pec[m] ? wall : static_cast<std::uint8_t>(m);
         }
   }
@@ -72,11 +69,12 @@ ECoefficients e_coefficients(const Scene& s, double dt) {
 
 std::vector<std::uint8_t> cell_material_map(const Scene& s, const Grid& g) {
   std::vector<std::uint8_t> map(static_cast<std::size_t>(g.cell_count()));
+  const BodyLookup bodies(s, extent(g));
   for (int k = 0; k < g.n[2]; ++k)
     for (int j = 0; j < g.n[1]; ++j)
       for (int i = 0; i < g.n[0]; ++i) {
         const Vec3 p{g.position(0, i, true), g.position(1, j, true), g.position(2, k, true)};
-        map[(static_cast<std::size_t>(k) * g.n[1] + j) * g.n[0] + i] = static_cast<std::uint8_t>(material_at(s, p));
+        map[(static_cast<std::size_t>(k) * g.n[1] + j) * g.n[0] + i] = static_cast<std::uint8_t>(bodies.material_at(p));
       }
   return map;
 }

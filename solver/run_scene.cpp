@@ -58,25 +58,32 @@ AngleScanCurve curve_of(const RunResults& r) {
 
 }  // namespace
 
-void add_sensor_results(const Scene& scene, RunResults& results,
-                        const std::function<void(const Progress&)>& progress) {
-  if (scene.sensors.empty()) return;
+bool add_sensor_results(const Scene& scene, RunResults& results, const std::function<void(const Progress&)>& progress,
+                        const std::function<bool()>& between_steps) {
+  if (scene.sensors.empty()) return true;
   require_scan_for_sensors(scene);
   const AngleScanCurve reference = curve_of(results);
-  for (const SensorSpec& spec : scene.sensors) {
-    int scan = 0;
-    results.sensors.push_back(run_sensor(scene, spec, reference, [&](const Scene& changed) {
-      const RunResults repeat = run_angle_scan(changed, scan_progress(progress, scene, ++scan));
-      // The summary counts every scan: the run's cost is theirs together.
-      results.summary.steps += repeat.summary.steps;
-      results.summary.simulated_time += repeat.summary.simulated_time;
-      results.summary.wall_seconds += repeat.summary.wall_seconds;
-      return curve_of(repeat);
-    }));
-    results.summary.stop_reason = fmt::format("{} and its repeat with {} raised by {:g}{} (sensor)",
-                                              results.summary.stop_reason, results.sensors.back().medium, spec.delta_n,
-                                              spec.binding >= 0 ? " and before binding" : "");
+  struct RepeatStopped {};
+  try {
+    for (const SensorSpec& spec : scene.sensors) {
+      int scan = 0;
+      results.sensors.push_back(run_sensor(scene, spec, reference, [&](const Scene& changed) {
+        const RunResults repeat = AngleScan(changed).run(scan_progress(progress, scene, ++scan), between_steps);
+        if (repeat.summary.stop_reason == "interrupted") throw RepeatStopped{};
+        // The summary counts every scan: the run's cost is theirs together.
+        results.summary.steps += repeat.summary.steps;
+        results.summary.simulated_time += repeat.summary.simulated_time;
+        results.summary.wall_seconds += repeat.summary.wall_seconds;
+        return curve_of(repeat);
+      }));
+      results.summary.stop_reason = fmt::format("{} and its repeat with {} raised by {:g}{} (sensor)",
+                                                results.summary.stop_reason, results.sensors.back().medium, spec.delta_n,
+                                                spec.binding >= 0 ? " and before binding" : "");
+    }
+  } catch (const RepeatStopped&) {
+    return false;
   }
+  return true;
 }
 
 bool is_bloch_scene(const Scene& s) { return !s.bloch_waves.empty() || needs_imaginary_part(s.domain); }
@@ -111,13 +118,15 @@ ModelSummary plan_scene(const Scene& scene) {
   return m;
 }
 
-RunResults run_scene(const Scene& scene, const std::function<void(const Progress&)>& progress) {
+RunResults run_scene(const Scene& scene, const std::function<void(const Progress&)>& progress,
+                     const std::function<bool()>& between_steps) {
   require_scan_for_sensors(scene);
-  if (!is_bloch_scene(scene)) return Simulation(scene).run(progress);
+  if (!is_bloch_scene(scene)) return Simulation(scene).run(progress, between_steps);
   const Scene s = reduced(scene, nullptr);
-  if (!is_angle_scan(s)) return BlochRun(s).run(progress);
-  RunResults r = run_angle_scan(s, scan_progress(progress, s, 0));
-  add_sensor_results(s, r, progress);
+  if (!is_angle_scan(s)) return BlochRun(s).run(progress, between_steps);
+  RunResults r = AngleScan(s).run(scan_progress(progress, s, 0), between_steps);
+  if (r.summary.stop_reason == "interrupted") return r;
+  if (!add_sensor_results(s, r, progress, between_steps)) r.summary.stop_reason = "interrupted";
   return r;
 }
 

@@ -23,9 +23,15 @@ bool is_angle_scan(const Scene& scene);
 /// The figures of the scene's sensor output (if any) added to `results`, the run's own angle scan:
 /// the scan again with the sensing medium's index raised by delta_n (sensor_scan.h), its steps and
 /// time added to the summary. RunError if the scene has a sensor but no angle scan.
-void add_sensor_results(const Scene& scene, RunResults& results,
-                        const std::function<void(const Progress&)>& progress = {});
+/// `between_steps` as for AngleScan::run: when it stops a repeat, no sensor figures are added and
+/// the result is false (the finished repeats' steps stay counted in the summary).
+bool add_sensor_results(const Scene& scene, RunResults& results,
+                        const std::function<void(const Progress&)>& progress = {},
+                        const std::function<bool()>& between_steps = {});
 /// Builds and runs the scene to its stop rule (an angle scan with a sensor output runs twice).
-RunResults run_scene(const Scene& scene, const std::function<void(const Progress&)>& progress = {});
+/// `between_steps` is called between time steps; returning true stops the run: its stop_reason is
+/// then "interrupted" and the results are partial.
+RunResults run_scene(const Scene& scene, const std::function<void(const Progress&)>& progress = {},
+                     const std::function<bool()>& between_steps = {});
 
 }  // namespace yeegap::solver

@@ -15,6 +15,7 @@
 #include "solver/dispersive_stability.h"
 #include "solver/material_map.h"
 #include "solver/mesh_plan.h"
+#include "solver/placement_notes.h"
 #include "solver/time_loop.h"
 
 namespace yeegap::solver {
@@ -101,6 +102,32 @@ CurlCoefficients plain_curls(const Grid& g, double dt) {
 }
 
 // The refined gaps with the number of cells across each, counted along the axis the gap spans most.
+// Dispersive currents: per E location of a dispersive material its field offset, the previous E and
+// two numbers per pole (dispersive.cpp). Counted over each dispersive body's box clipped to the
+// grid (exact for slabs, about 1.9x a sphere): an upper bound, so a memory check errs on the safe side.
+std::size_t dispersive_bytes_bound(const Scene& s, const Grid& g) {
+  auto per_location = [&](int material) -> std::size_t {
+    const materials::PoleSet& p = s.materials.at(static_cast<std::size_t>(material)).poles;
+    const std::size_t poles = p.drude.size() + p.lorentz.size() + p.critical_points.size();
+    return poles == 0 ? 0 : sizeof(std::ptrdiff_t) + sizeof(real) + 2 * sizeof(real) * poles;
+  };
+  double bytes = 3.0 * static_cast<double>(g.cell_count()) * static_cast<double>(per_location(s.domain.background));
+  for (const BodySpec& b : s.bodies) {
+    const std::size_t each = per_location(b.material);
+    if (each == 0) continue;
+    const geometry::Aabb box = b.shape->bounds();
+    double locations = 3;
+    for (int a = 0; a < 3; ++a) {
+      const double lo = std::clamp(box.lo[a], g.nodes[a].front(), g.nodes[a].back());
+      const double hi = std::clamp(box.hi[a], g.nodes[a].front(), g.nodes[a].back());
+      const auto r = node_range(g, a, lo, hi);
+      locations *= std::max(1, r[1] - r[0] + 1);
+    }
+    bytes += locations * static_cast<double>(each);
+  }
+  return static_cast<std::size_t>(std::min(bytes, 1e18));
+}
+
 std::vector<ModelSummary::RefinedGap> refined_gaps(const MeshPlan& mesh) {
   std::vector<ModelSummary::RefinedGap> out;
   for (const geometry::Gap& gap : mesh.gaps) {
@@ -236,6 +263,7 @@ ModelSummary Simulation::plan(const Scene& original) {
   }
   m.gaps = refined_gaps(mesh);
   m.mesh_notes = mesh.notes;
+  for (std::string& note : placement_notes(scene, g)) m.mesh_notes.push_back(std::move(note));
   const BlockLayout L = BlockLayout::of(g.n);
   std::size_t bytes = 6 * L.total * sizeof(real) + 3 * L.total;
   // CPML: four psi arrays per absorbing face over its slab.
@@ -262,6 +290,7 @@ ModelSummary Simulation::plan(const Scene& original) {
     area = 2 * (ext[0] * ext[1] + ext[1] * ext[2] + ext[0] * ext[2]);
     bytes += 4 * area * f.omegas.size() * sizeof(Complex);
   }
+  bytes += dispersive_bytes_bound(scene, g);
   m.memory_bytes = bytes;
   const StopSpec& st = scene.stop;
   double source_end = 0;
@@ -276,6 +305,14 @@ ModelSummary Simulation::plan(const Scene& original) {
     m.steps = std::min<long>(st.max_steps, static_cast<long>(std::ceil(t / dt)));
     m.steps_estimated = true;
   }
+  // The cap stops a run that needs more steps; say so now, with what sets the step.
+  const double span = st.after > 0 ? st.after : source_end, needed = std::ceil(span / dt);
+  if (std::isfinite(span) && needed >= static_cast<double>(st.max_steps))
+    m.warnings.push_back(fmt::format("{} {:.4g} steps of {:.4g} fs, beyond the cap of {} steps: the run would stop "
+                                     "early. The smallest cell ({:.4g} nm) sets the step; coarser gap cells "
+                                     "(domain.gap_cells) or a wider gap would help",
+                                     st.after > 0 ? "stop.after asks for" : "the sources alone last", needed, dt * 1e15,
+                                     st.max_steps, m.smallest_cell * 1e9));
   return m;
 }
 

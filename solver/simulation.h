@@ -50,6 +50,7 @@ struct ModelSummary {
   };
   std::vector<RefinedGap> gaps;      // gaps between bodies found and refined by the mesh builder
   std::vector<std::string> mesh_notes;  // what the mesh builder dropped or changed
+  std::vector<std::string> warnings;    // settings that run but will disappoint (a step cap reached)
   long long mixed_cells = -1;      // E locations with an averaged permittivity; -1 = not counted
 };
 

@@ -67,5 +67,40 @@ expect diverged_run 4 "the fields diverged by step [0-9]+: non-finite fields" --
   "$yeegap" run "$work/scene.yaml" -o "$work/diverged.h5" --set "excitation[0].dipole.moment=1e40 C m"
 [ -e "$work/diverged.h5" ] || { echo "FAIL: a diverged run wrote no results file"; fails=$((fails + 1)); }
 
+# A plane-wave box in a dispersive background (library water, a Sellmeier model with poles) is refused
+# at the box with the constant index that stands in for it; the example's constant index runs.
+expect tfsf_dispersive_background 2 "gold_dimer_antenna.yaml:[0-9]+:[0-9]+: .*background 'water' .*poles.*'water: \{index: 1\.33[0-9]*\}'" -- \
+  "$yeegap" check "$src/examples/gold_dimer_antenna.yaml" --set "materials.water={library: water}"
+
+# A run stopped before its pulse reaches the box: the cross sections (normalised by an incident
+# intensity of zero) print as "undefined" with a note, never as "-nan"; JSON gives null.
+cat > "$work/early.yaml" <<'EOF2'
+scene: {version: 1, title: stopped before the pulse arrives}
+materials: {metal: {poles: {eps_inf: 1, drude: [{plasma_frequency: 8 eV, damping: 0.1 eV}]}}}
+domain: {size: [300 nm, 300 nm, 300 nm], step: 10 nm, edges: absorber, absorber: {cells: 6}}
+bodies:
+  - {shape: sphere, material: metal, center: [0, 0, 0], radius: 20 nm}
+excitation:
+  - tfsf: {box: {from: [-40 nm, -40 nm, -40 nm], to: [40 nm, 40 nm, 40 nm]}, direction: z, polarization: x,
+           band: {from: 450 nm, to: 900 nm}}
+outputs:
+  - cross_sections: {name: sphere, frequencies: [500 nm, 600 nm]}
+stop: {after: 0.02 fs}
+EOF2
+expect stopped_before_the_pulse 0 "500.00 nm  undefined  undefined  undefined" -- "$yeegap" run "$work/early.yaml" -o "$work/early.h5"
+expect stopped_before_the_pulse_note 0 "'undefined' values are normalised by light" -- "$yeegap" run "$work/early.yaml" -o "$work/early.h5"
+"$yeegap" run "$work/early.yaml" -o "$work/early.h5" 2>&1 | grep -q -- "-nan" && { echo "FAIL: -nan printed"; fails=$((fails + 1)); }
+
+# Memory: a run over the --memory limit (or over what the machine has free) is refused before it
+# allocates anything, exit 2, no results file; `check` prints the same as a warning; a bad size is an
+# option error.
+expect over_memory_limit 2 "needs about [0-9.]+ MB .*more than --memory 1 MB allows" -- \
+  "$yeegap" run "$work/scene.yaml" -o "$work/too_big.h5" --memory 1MB
+[ -e "$work/too_big.h5" ] && { echo "FAIL: a refused run wrote results"; fails=$((fails + 1)); }
+expect check_over_memory 0 "warning .*more than --memory 1 MB allows" -- "$yeegap" check "$work/scene.yaml" --memory 1MB
+expect over_machine_memory 2 "but this machine has .* free" -- \
+  "$yeegap" run "$work/scene.yaml" -o "$work/too_big.h5" --set "domain.size=[40 um, 40 um, 40 um]"
+expect bad_memory_size 2 "expected a size like 8GB" -- "$yeegap" run "$work/scene.yaml" --memory lots
+
 echo "$pass passed, $fails failed"
 [ "$fails" -eq 0 ]

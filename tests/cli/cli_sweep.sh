@@ -183,6 +183,28 @@ script="$work/batch/sweep.sbatch"
 if [ -f "$script" ] && grep -q -- "--array=0-2$" "$script" && grep -q -- "--cpus-per-task=2" "$script" &&
    grep -q -- "--point \"\$SLURM_ARRAY_TASK_ID\"" "$script" && bash -n "$script"; then ok; else fail "slurm script"; cat "$script"; fi
 ls "$work/batch"/point_* >/dev/null 2>&1 && fail "--batch ran points" || ok
+# A newline and a quote in the scene's and the folder's names: the script stays valid shell, the
+# names appear only quoted (or escaped in comments), and running it as a task (a fake sbatch
+# environment, the program replaced by a stub that prints its arguments) passes the names unbroken.
+odd="$work/odd
+name's"
+mkdir -p "$odd"
+cp "$work/cyl.yaml" "$odd/cyl.yaml"
+expect batch_odd_names 0 "sbatch --dependency=afterok" -- "$yeegap" sweep "$odd/cyl.yaml" --batch slurm -o "$odd/batch
+dir" --threads 2
+script="$odd/batch
+dir/sweep.sbatch"
+# In the comments the newline shows as \x0a (a raw one would end the comment and run the rest).
+if [ -f "$script" ] && bash -n "$script" && grep -q '^#   .*odd\\x0aname' "$script"; then ok; else fail "odd names"; cat "$script"; fi
+stub="$work/stub"
+printf '#!/bin/bash\nfor a in "$@"; do printf "[%%s]\\n" "$a"; done\n' >"$stub" && chmod +x "$stub"
+sed "s|^exec '[^']*' sweep|exec '$stub' sweep|; s|^exec [^ ]*/yeegap sweep|exec '$stub' sweep|" "$script" >"$work/task.sh"
+SLURM_ARRAY_JOB_ID=7 SLURM_ARRAY_TASK_ID=1 SLURM_CPUS_PER_TASK=2 bash "$work/task.sh"
+log="$odd/batch
+dir/slurm_7_1.txt"
+want=$(printf '[%s]\n' sweep "$odd/cyl.yaml" -o "$odd/batch
+dir" --point 1 --threads 2)
+if [ -f "$log" ] && [ "$(cat "$log")" = "$want" ]; then ok; else fail "task arguments"; cat "$log" "$work/task.sh"; fi
 
 # Errors point at the text: an unknown ${name}, a zip of unequal lengths.
 sed 's/radius: ${radius}, length/radius: ${raduis}, length/' "$work/cyl.yaml" | sed 's/title: "cylinder, radius ${radius}"/title: "r ${radius}"/' >"$work/typo.yaml"

@@ -93,8 +93,8 @@ TEST(GapFinder, RefinementPutsTheGapFacesOnInterfacesAcrossOnly) {
   EXPECT_NEAR(q.zones[0].step.x, 0.125 * nm, 1e-24);
   EXPECT_TRUE(std::isinf(q.zones[0].step.y));
   EXPECT_TRUE(std::isinf(q.zones[0].step.z));
-  EXPECT_EQ(q.interfaces[0].size(), 2u);
-  EXPECT_TRUE(q.interfaces[1].empty());
+  EXPECT_EQ(q.gap_interfaces[0].size(), 2u);
+  EXPECT_TRUE(q.gap_interfaces[1].empty());
 }
 
 }  // namespace

@@ -44,6 +44,28 @@ TEST(GradedMesh, AxisWithoutRefinementIsTheUniformGrid) {
   EXPECT_FALSE(is_node(m.nodes, 1.7 * nm, 1e-3 * nm));  // left between nodes: the layer keeps its thickness
 }
 
+// Gap faces: the two faces of a gap stay nodes; a face that a neighbouring gap found again up to
+// rounding (1e-16 m off) merges into the first instead of forcing a cell of 1e-16 m; a required
+// interface (a slab face) wins over a gap face within half a cell of it.
+TEST(GradedMesh, GapFacesWithinHalfACellMerge) {
+  AxisRequest r;
+  r.lo = -100 * nm, r.hi = 100 * nm, r.base = 5 * nm;
+  r.absorber_lo = r.absorber_hi = 8;
+  r.zones = {{-1 * nm, 1 * nm, 0.5 * nm}, {20 * nm, 22 * nm, 0.5 * nm}};
+  r.gap_interfaces = {-1 * nm, 1 * nm, 1 * nm + 1e-16, -1 * nm - 3e-17, 20 * nm, 22 * nm + 0.1 * nm};
+  r.interfaces = {22 * nm};
+  const AxisMesh m = build_axis(r);
+  EXPECT_TRUE(is_node(m.nodes, -1 * nm, 1e-6 * nm));  // one of the twins, 3e-17 m apart
+  EXPECT_TRUE(is_node(m.nodes, 1 * nm, 1e-6 * nm));
+  EXPECT_TRUE(is_node(m.nodes, 20 * nm, 1e-9 * nm));
+  EXPECT_TRUE(is_node(m.nodes, 22 * nm, 1e-12 * nm));
+  EXPECT_FALSE(is_node(m.nodes, 22.1 * nm, 1e-3 * nm));
+  double smallest = 1;
+  for (std::size_t i = 0; i + 1 < m.nodes.size(); ++i) smallest = std::min(smallest, m.nodes[i + 1] - m.nodes[i]);
+  EXPECT_GT(smallest, 0.4 * nm);  // 4 cells of 0.5 nm across each 2 nm gap, within the rounding
+  EXPECT_LE(worst_ratio(m.nodes, false), 1.2 * (1 + 1e-9));
+}
+
 TEST(GradedMesh, OffGridInterfaceBecomesANodeWithinTheRatio) {
   AxisRequest r;
   r.lo = -200 * nm, r.hi = 200 * nm, r.base = 5 * nm;

@@ -2,6 +2,7 @@
 // on cell edges, refine zones and detected gaps honoured, and the absorbers' actual thickness.
 #include "solver/mesh_plan.h"
 
+#include <algorithm>
 #include <cmath>
 
 #include <gtest/gtest.h>
@@ -112,6 +113,52 @@ TEST(MeshPlan, ThinLayerOfAStackIsNotAGapButAJunctionBetweenMetalFilmsIs) {
   ASSERT_EQ(pm.gaps.size(), 1u);
   EXPECT_NEAR(pm.gaps[0].width, 1 * nm, 1e-6 * nm);
   EXPECT_NEAR(pm.grid.min_spacing(2), 0.25 * nm, 1e-6 * nm);
+}
+
+// An n x n array of 10 nm spheres 2 nm apart (22 nm pitch) on 5 nm cells: 2n(n-1) gaps of 2 nm and
+// 2(n-1)^2 diagonal ones of 11.1 nm (both below gap_cells x 5 nm = 20 nm). Neighbouring gaps find the
+// same faces up to rounding; before those were merged, the 3 x 3 array got cells of 1.1e-7 nm.
+Scene sphere_array(int n) {
+  const double pitch = 22 * nm, extent = n * pitch + 60 * nm;
+  Scene s = testing::vacuum_box({static_cast<int>(extent / (5 * nm)), static_cast<int>(extent / (5 * nm)), 20}, 5 * nm,
+                                testing::all_edges(EdgeKind::absorber));
+  s.domain.absorber.cells = 8;
+  for (int i = 0; i < n; ++i)
+    for (int j = 0; j < n; ++j)
+      s.bodies.push_back({geometry::make_sphere({(i - 0.5 * (n - 1)) * pitch, (j - 0.5 * (n - 1)) * pitch, 0}, 10 * nm), 0, {}});
+  return s;
+}
+
+TEST(MeshPlan, AnArrayOfNarrowGapsGetsASaneGrid) {
+  for (int n : {3, 10}) {
+    const MeshPlan p = plan_mesh(sphere_array(n));
+    ASSERT_EQ(p.gaps.size(), static_cast<std::size_t>(2 * n * (n - 1) + 2 * (n - 1) * (n - 1))) << n;
+    int straight = 0;
+    for (const auto& g : p.gaps) {
+      if (std::abs(g.width - 2 * nm) < 1e-6 * nm) ++straight;
+      else EXPECT_NEAR(g.width, (22 * std::sqrt(2.0) - 20) * nm, 1e-6 * nm);
+    }
+    EXPECT_EQ(straight, 2 * n * (n - 1));
+    // The bound: no cell below a tenth of the narrowest gap; and each 2 nm gap keeps
+    // gap_cells (4) cells across it (at most 0.5 nm each, within the grading's rounding).
+    for (int a = 0; a < 2; ++a) {
+      EXPECT_GE(p.grid.min_spacing(a), 0.2 * nm) << n << " axis " << a;
+      EXPECT_LE(p.grid.min_spacing(a), 0.5 * nm * 1.001) << n << " axis " << a;
+    }
+    EXPECT_EQ(p.grid.n[2], 20);  // the array lies in one plane: nothing to refine along z
+  }
+}
+
+// A gap narrower than an atom is refined as asked, and noted.
+TEST(MeshPlan, SubAtomicGapIsNoted) {
+  Scene s = testing::vacuum_box({40, 30, 30}, 5 * nm, testing::all_edges(EdgeKind::absorber));
+  s.bodies.push_back({geometry::make_sphere({-20.025 * nm, 0, 0}, 20 * nm), 0, {}});
+  s.bodies.push_back({geometry::make_sphere({20.025 * nm, 0, 0}, 20 * nm), 0, {}});
+  const MeshPlan p = plan_mesh(s);
+  ASSERT_EQ(p.gaps.size(), 1u);
+  EXPECT_NEAR(p.gaps[0].width, 0.05 * nm, 1e-6 * nm);
+  EXPECT_TRUE(std::any_of(p.notes.begin(), p.notes.end(),
+                          [](const std::string& n) { return n.find("less than an atom") != std::string::npos; }));
 }
 
 }  // namespace

@@ -11,6 +11,7 @@
 #include "commands.h"
 #include "io/scene_reader.h"
 #include "json.h"
+#include "machine_memory.h"
 #include "solver/run_scene.h"
 
 namespace yeegap::cli {
@@ -20,11 +21,14 @@ namespace {
 // Cell updates per second assumed for the time estimate until the benchmark figure of this
 // machine is known: a conservative figure for two cores (docs/performance.md).
 constexpr double assumed_cell_updates_per_second = 1.0e8;
+// Gaps listed one per line before the rest are summed up.
+constexpr std::size_t gaps_listed = 12;
 
 struct CheckOptions {
   std::string scene;
   std::vector<std::string> overrides;
   bool json = false;
+  std::string memory;
 };
 
 std::vector<std::string> gap_rows(const solver::ModelSummary& m) {
@@ -48,6 +52,12 @@ std::vector<std::string> note_rows(const solver::ModelSummary& m) {
 
 // Cells a uniform grid of the smallest cell would need over the same domain (invariant axes stay
 // one cell): what the graded mesh saves.
+std::vector<std::string> warning_rows(const solver::ModelSummary& m) {
+  std::vector<std::string> rows;
+  for (const auto& w : m.warnings) rows.push_back(json_string(w));
+  return rows;
+}
+
 double uniform_cells_at(const solver::Scene& scene, const solver::ModelSummary& m) {
   double n = 1;
   for (int a = 0; a < 3; ++a)
@@ -134,6 +144,7 @@ int run_check(const CheckOptions& o) {
         .number("uniform_cells_at_smallest", uniform)
         .add("gaps", json_array(gap_rows(m)))
         .add("mesh_notes", json_array(note_rows(m)))
+        .add("warnings", json_array(warning_rows(m)))
         .number("memory_bytes", static_cast<double>(m.memory_bytes))
         .number("time_step_s", m.time_step)
         .number("courant_limit_s", m.courant_limit)
@@ -158,19 +169,39 @@ int run_check(const CheckOptions& o) {
   for (int a = 0; a < 3; ++a)
     std::fprintf(stderr, "  %c axis      %d cells, %.4g to %.4g nm\n", "xyz"[a], m.cells[a], m.min_cell[a] * 1e9,
                  m.max_cell[a] * 1e9);
-  for (const auto& g : m.gaps) {
+  // Every gap up to a screenful; an array of bodies has hundreds: the rest summed up (all in --json).
+  const std::size_t shown = m.gaps.size() <= 2 * gaps_listed ? m.gaps.size() : gaps_listed;
+  for (std::size_t i = 0; i < shown; ++i) {
+    const auto& g = m.gaps[i];
     // Rounding leaves 1e-16 m where the middle lies on an axis: print it as 0.
     auto nm = [&](double v) { return std::abs(v) < 1e-4 * g.width ? 0.0 : v * 1e9; };
     std::fprintf(stderr, "  gap         bodies %d and %d: %.4g nm wide at (%.4g, %.4g, %.4g) nm, %d cells across\n",
                  g.body_a, g.body_b, g.width * 1e9, nm(g.middle.x), nm(g.middle.y), nm(g.middle.z), g.cells_across);
   }
+  if (shown < m.gaps.size()) {
+    double narrowest = m.gaps[shown].width, widest = narrowest;
+    for (std::size_t i = shown; i < m.gaps.size(); ++i) {
+      narrowest = std::min(narrowest, m.gaps[i].width);
+      widest = std::max(widest, m.gaps[i].width);
+    }
+    std::fprintf(stderr, "  gaps        and %zu more, %.4g to %.4g nm wide (all of them with --json)\n",
+                 m.gaps.size() - shown, narrowest * 1e9, widest * 1e9);
+  }
   if (uniform > static_cast<double>(m.cell_count))
     std::fprintf(stderr, "  uniform     a uniform grid of %.4g nm cells would need %.4g cells, %.0fx more\n",
                  m.smallest_cell * 1e9, uniform, uniform / static_cast<double>(m.cell_count));
   for (const auto& note : m.mesh_notes) std::fprintf(stderr, "  note        %s\n", note.c_str());
+  for (const auto& w : m.warnings) std::fprintf(stderr, "  warning     %s\n", w.c_str());
   std::fprintf(stderr, "  time step   %.4g fs (Courant limit %.4g fs)\n", m.time_step * 1e15, m.courant_limit * 1e15);
   std::fprintf(stderr, "  steps       %s%ld (%.4g fs)\n", m.steps_estimated ? "about " : "", m.steps, m.steps * m.time_step * 1e15);
-  std::fprintf(stderr, "  memory      %.1f MB\n", m.memory_bytes / 1e6);
+  const auto available = available_memory_bytes();
+  std::fprintf(stderr, "  memory      %.1f MB%s\n", m.memory_bytes / 1e6,
+               available ? fmt::format(" (this machine has {} free)", format_bytes(*available)).c_str() : "");
+  try {
+    refuse_if_over_memory(static_cast<double>(m.memory_bytes), o.memory.empty() ? std::nullopt : parse_memory_size(o.memory));
+  } catch (const RunError& e) {
+    std::fprintf(stderr, "  warning     %s: `run` here would refuse it\n", e.what());
+  }
   std::fprintf(stderr, "  cost        about %.3g cell updates, %.0f s at %.0f Mcells/s\n",
                static_cast<double>(m.cell_count) * m.steps, cost_seconds, assumed_cell_updates_per_second / 1e6);
   return exit_ok;
@@ -186,6 +217,7 @@ void add_check_command(CLI::App& app, int& exit_code) {
   cmd->add_option("scene", opts->scene, "scene file (YAML)")->required();
   cmd->add_option("--set", opts->overrides, "override a scene value, e.g. --set domain.step=2nm (repeatable)");
   cmd->add_flag("--json", opts->json, "print one JSON object on stdout");
+  add_memory_option(*cmd, opts->memory);
   cmd->callback([opts, &exit_code] { exit_code = guarded([&] { return run_check(*opts); }); });
 }
 

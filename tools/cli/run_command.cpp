@@ -6,6 +6,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <csignal>
 #include <cstdio>
 #include <ctime>
 #include <filesystem>
@@ -17,11 +18,13 @@
 #include "base/constants.h"
 #include "base/errors.h"
 #include "commands.h"
+#include "io/checkpoint.h"
 #include "io/results_writer.h"
 #include "io/scene_reader.h"
 #include "io/xdmf_writer.h"
 #include "io/sweep_table.h"
 #include "json.h"
+#include "machine_memory.h"
 #include "progress.h"
 #include "checkpointed_run.h"
 #include "run_control.h"
@@ -46,6 +49,7 @@ struct RunOptions {
   bool plot = false;
   std::string checkpoint_every = "30min";
   bool resume = false;
+  std::string memory;  // --memory: the most the run may use (default: what the machine has free)
   std::string command_line;
 };
 
@@ -69,6 +73,16 @@ double dipole_power_in_background(double omega, double il, double n) {
   return n * constants::eta0 * k0 * k0 * il * il / (12 * constants::pi);
 }
 
+// A figure for the terminal. A normalised value is not defined when its normaliser is zero (a run
+// stopped before any incident light or source spectrum was recorded): shown as "undefined", with
+// one line saying why at the end, instead of "-nan". JSON gives null for these (json.h).
+bool undefined_shown = false;
+std::string shown(double v, const char* spec = "{:.5g}") {
+  if (std::isfinite(v)) return fmt::format(fmt::runtime(spec), v);
+  undefined_shown = true;
+  return "undefined";
+}
+
 // Headline figures of each output, as JSON, and one human line each on stderr.
 std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
   JsonObject outs;
@@ -88,13 +102,13 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
         const double il = std::abs(r.source_spectra[0][it - r.source_omegas.begin()]);
         const double rel_power = f.power[q] / dipole_power_in_background(f.omegas[q], il, n_bg);
         row.number("relative_to_dipole_alone", rel_power);
-        rel = fmt::format("  ({:.4f} x the dipole alone)", rel_power);
+        rel = fmt::format("  ({} x the dipole alone)", shown(rel_power, "{:.4f}"));
       }
       if (!f.fraction.empty()) {
         row.number("fraction_of_incident", f.fraction[q]);
-        rel += fmt::format("  ({:.5f} of the incident power)", f.fraction[q]);
+        rel += fmt::format("  ({} of the incident power)", shown(f.fraction[q], "{:.5f}"));
       }
-      std::fprintf(stderr, "    %8.2f nm  %.5g%s\n", lambda_nm, f.power[q], rel.c_str());
+      std::fprintf(stderr, "    %8.2f nm  %s%s\n", lambda_nm, shown(f.power[q]).c_str(), rel.c_str());
       rows.push_back(row.str());
     }
     outs.add(f.name, json_array(rows));
@@ -110,8 +124,9 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
       row.number("wavelength_nm", lambda_nm).number("angle_deg", angle_deg).number("R", t.reflectance[q])
           .number("T", t.transmittance[q]).number("A", t.absorptance[q]);
       rows.push_back(row.str());
-      std::fprintf(stderr, "    %8.2f nm  %7.3f deg  %.5f  %.5f  %.5f\n", lambda_nm, angle_deg, t.reflectance[q],
-                   t.transmittance[q], t.absorptance[q]);
+      std::fprintf(stderr, "    %8.2f nm  %7.3f deg  %s  %s  %s\n", lambda_nm, angle_deg,
+                   shown(t.reflectance[q], "{:.5f}").c_str(), shown(t.transmittance[q], "{:.5f}").c_str(),
+                   shown(t.absorptance[q], "{:.5f}").c_str());
     }
     outs.add(t.name, json_array(rows));
   }
@@ -126,7 +141,7 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
         const double angle_deg = o.angle[e] * 180 / constants::pi;
         const std::string order = o.diffracting[1] ? fmt::format("{},{}", o.order_b[e], o.order_c[e])
                                                    : fmt::format("{:+d}", o.order_b[e]);
-        line += fmt::format("  {}{}: {:.4f} at {:.1f} deg", o.side[e] < 0 ? "r" : "t", order, o.efficiency[e], angle_deg);
+        line += fmt::format("  {}{}: {} at {:.1f} deg", o.side[e] < 0 ? "r" : "t", order, shown(o.efficiency[e], "{:.4f}"), angle_deg);
         JsonObject row;
         row.number("wavelength_nm", lambda_nm).number("side", o.side[e]).number("order_0", o.order_b[e])
             .number("order_1", o.order_c[e]).number("angle_deg", angle_deg).number("efficiency", o.efficiency[e]);
@@ -155,8 +170,8 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
       row.number("wavelength_nm", lambda_nm).number("extinction", c.extinction[q]).number("scattering", c.scattering[q])
           .number("absorption", c.absorption[q]);
       rows.push_back(row.str());
-      std::fprintf(stderr, "    %8.2f nm  %.5g  %.5g  %.5g\n", lambda_nm, c.extinction[q] * scale, c.scattering[q] * scale,
-                   c.absorption[q] * scale);
+      std::fprintf(stderr, "    %8.2f nm  %s  %s  %s\n", lambda_nm, shown(c.extinction[q] * scale).c_str(),
+                   shown(c.scattering[q] * scale).c_str(), shown(c.absorption[q] * scale).c_str());
     }
     outs.add(c.name, json_array(rows));
   }
@@ -171,19 +186,19 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
       for (double d : f.directivity[q]) peak = std::max(peak, d);
       JsonObject row;
       row.number("wavelength_nm", lambda_nm).number("power", f.power[q]).number("peak_directivity", peak);
-      double shown = f.power[q];
+      double value = f.power[q];
       if (r.source_spectra.size() == 1) {
         const auto it = std::find(r.source_omegas.begin(), r.source_omegas.end(), f.omegas[q]);
         const double il = std::abs(r.source_spectra[0][it - r.source_omegas.begin()]);
-        shown = f.power[q] / dipole_power_in_background(f.omegas[q], il, n_bg);
-        row.number("relative_to_dipole_alone", shown);
+        value = f.power[q] / dipole_power_in_background(f.omegas[q], il, n_bg);
+        row.number("relative_to_dipole_alone", value);
       }
       std::string collected;
       if (!f.collected.empty()) {
         row.number("collected_fraction", f.collected[q] / f.power[q]);
-        collected = fmt::format("  {:.4f}", f.collected[q] / f.power[q]);
+        collected = "  " + shown(f.collected[q] / f.power[q], "{:.4f}");
       }
-      std::fprintf(stderr, "    %8.2f nm  %.5g  %.3f%s\n", lambda_nm, shown, peak, collected.c_str());
+      std::fprintf(stderr, "    %8.2f nm  %s  %s%s\n", lambda_nm, shown(value).c_str(), shown(peak, "{:.3f}").c_str(), collected.c_str());
       rows.push_back(row.str());
     }
     outs.add(f.name, json_array(rows));
@@ -199,9 +214,9 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
       std::string more;
       if (!d.radiative.empty()) {
         row.number("radiative", d.radiative[q]).number("efficiency", d.efficiency[q]);
-        more = fmt::format("  {:.5g}  {:.4f}", d.radiative[q], d.efficiency[q]);
+        more = "  " + shown(d.radiative[q]) + "  " + shown(d.efficiency[q], "{:.4f}");
       }
-      std::fprintf(stderr, "    %8.2f nm  %.5g%s\n", lambda_nm, d.total[q], more.c_str());
+      std::fprintf(stderr, "    %8.2f nm  %s%s\n", lambda_nm, shown(d.total[q]).c_str(), more.c_str());
       rows.push_back(row.str());
     }
     outs.add(d.name, json_array(rows));
@@ -239,6 +254,9 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
     outs.add(p.name, json_array(rows));
   }
   for (const auto& x : r.sensors) outs.add(x.name, report_sensor(x));
+  if (undefined_shown)
+    std::fprintf(stderr, "yeegap: note: 'undefined' values are normalised by light or a source spectrum that was not "
+                 "recorded yet: the run stopped before the pulse reached them (see stop in docs/scene.md)\n");
   return outs.str();
 }
 
@@ -282,6 +300,9 @@ int run_scene(const RunOptions& o) {
   // Three kinds of run, each Checkpointable: an ordinary Simulation, a Bloch run (complex fields
   // and/or a plane wave in a Bloch cell: several Simulations in lock step) and an angle scan of
   // Bloch runs (checkpointed by whole angles: an unfinished angle runs again on resume).
+  // Before anything is allocated: a run that cannot fit is refused, not started.
+  refuse_if_over_memory(static_cast<double>(solver::plan_scene(scene).memory_bytes),
+                        o.memory.empty() ? std::nullopt : parse_memory_size(o.memory));
   std::optional<solver::Simulation> sim;
   std::unique_ptr<solver::BlochRun> bloch;
   std::unique_ptr<solver::AngleScan> scan;
@@ -308,6 +329,7 @@ int run_scene(const RunOptions& o) {
   std::fprintf(stderr, "yeegap: %s: %d x %d x %d cells, dt %.4g fs, %s%ld steps, %.1f MB, %d thread%s\n", o.scene.c_str(),
                plan.cells[0], plan.cells[1], plan.cells[2], plan.time_step * 1e15, plan.steps_estimated ? "about " : "",
                plan.steps, plan.memory_bytes / 1e6, threads, threads == 1 ? "" : "s");
+  for (const auto& w : plan.warnings) std::fprintf(stderr, "yeegap: warning: %s\n", w.c_str());
   if (plan.mixed_cells > 0)
     std::fprintf(stderr, "yeegap: %lld E locations on body surfaces averaged (domain.averaging)\n", plan.mixed_cells);
   CheckpointedResults run;
@@ -317,16 +339,33 @@ int run_scene(const RunOptions& o) {
   }
   const bool diverged = run.results.summary.stop_reason == "diverged";
   if (scan && !scene.sensors.empty() && !run.interrupted && !diverged) {
-    // The sensor's repeats of the scan (sensing medium's index raised; bound layer taken away): not
-    // checkpointed (a stop during them loses only these; the first is in the checkpoint until the end).
+    // The sensor's repeats of the scan (sensing medium's index raised; bound layer taken away). The
+    // finished scan is checkpointed first; a signal during the repeats stops them, writes the scan's
+    // results as partial ones and exits 3, and --resume runs the repeats again (they are not
+    // checkpointed themselves).
+    try {
+      io::write_checkpoint(checkpoint.path, *state, scene, checkpoint.info);
+    } catch (const std::exception& e) {
+      std::fprintf(stderr, "yeegap: warning: %s; the sensor's repeats go on without it\n", e.what());
+    }
     const solver::SensorSpec& spec = scene.sensors.front();
     std::fprintf(stderr, "yeegap: sensor: the scan again with the index of '%s' raised by %g%s%s\n",
                  scene.materials[static_cast<std::size_t>(spec.medium)].name.c_str(), spec.delta_n,
                  spec.binding >= 0 ? ", then with the bound layer taken away: " : "",
                  spec.binding >= 0 ? scene.materials[static_cast<std::size_t>(spec.binding)].name.c_str() : "");
     ProgressLine progress;
-    solver::add_sensor_results(solver::bloch_scene_as_run(scene), run.results,
-                               [&](const solver::Progress& p) { progress.update(p); });
+    StopSignals signals;
+    const bool complete = solver::add_sensor_results(solver::bloch_scene_as_run(scene), run.results,
+                                                     [&](const solver::Progress& p) { progress.update(p); },
+                                                     [&] { return signals.received() != 0; });
+    if (!complete) {
+      progress.break_line();
+      run.interrupted = true;
+      run.results.summary.stop_reason = "interrupted";
+      std::fprintf(stderr, "yeegap: stopped by %s during the sensor's repeats of the scan; the finished scan is in %s "
+                   "(its reflectance is written below as partial results)\n",
+                   signals.received() == SIGINT ? "SIGINT" : "SIGTERM", checkpoint.path.c_str());
+    }
   }
   const solver::RunResults& results = run.results;
   const bool interrupted = run.interrupted, checkpoint_failed = run.checkpoint_failed;
@@ -406,6 +445,7 @@ void add_run_command(CLI::App& app, int& exit_code, const std::string& command_l
       });
   cmd->add_flag("--resume", opts->resume,
                 "continue from the checkpoint next to the results file (same scene, --set values and program version)");
+  add_memory_option(*cmd, opts->memory);
   opts->command_line = command_line;
   cmd->callback([opts, &exit_code] {
     exit_code = guarded([&] { return run_scene(*opts); });

@@ -1,6 +1,9 @@
 // The Slurm array script of sweep_batch.h. Paths are made absolute (a job starts in the submit
-// folder, not necessarily here); values are single-quoted for the shell. The job's shape (array
-// tasks, one node each, OMP_NUM_THREADS from the CPUs per task) is the one checked on Slurm 22.05.
+// folder, not necessarily here); values are single-quoted for the shell, and no path goes into an
+// #SBATCH line (Slurm reads those without the shell's quoting): each task sends its own output to
+// the sweep folder. Comments show control characters escaped, so a newline in a file name cannot end
+// a comment and run as a command. The job's shape (array tasks, one node each, OMP_NUM_THREADS
+// from the CPUs per task) is the one checked on Slurm 22.05.
 #include "sweep_batch.h"
 
 #include <omp.h>
@@ -30,6 +33,13 @@ std::string shell_quote(const std::string& s) {
   return out + "'";
 }
 
+// Text for a comment line: control characters (a newline above all) shown as \xNN.
+std::string commented(const std::string& s) {
+  std::string out;
+  for (unsigned char c : s) out += c < 0x20 || c == 0x7f ? fmt::format("\\x{:02x}", c) : std::string(1, static_cast<char>(c));
+  return out;
+}
+
 std::string this_program() {
   std::error_code ec;
   const fs::path self = fs::read_symlink("/proc/self/exe", ec);
@@ -57,19 +67,20 @@ int write_slurm_script(const std::string& scene, const std::string& folder, cons
   std::string s;
   s += "#!/bin/bash\n";
   s += fmt::format("# Written by `yeegap sweep --batch slurm`: one array task per point of the sweep in\n#   {}\n",
-                   scene_abs);
+                   commented(scene_abs));
   s += fmt::format("# ({} point{}; each task runs one point on one node with {} CPU{}). Submit, then merge\n", n,
                    n == 1 ? "" : "s", cpus, cpus == 1 ? "" : "s");
   s += "# once every task has finished:\n";
-  s += fmt::format("#   jid=$(sbatch --parsable {})\n", shell_quote(script_path));
-  s += fmt::format("#   sbatch --dependency=afterok:$jid --wrap {}\n", shell_quote(merge));
+  s += fmt::format("#   jid=$(sbatch --parsable {})\n", commented(shell_quote(script_path)));
+  s += fmt::format("#   sbatch --dependency=afterok:$jid --wrap {}\n", commented(shell_quote(merge)));
   s += "# A task whose point is already finished (same scene text) returns at once, so submitting the\n";
   s += "# script again runs only the points that failed. Points are not spread over MPI ranks.\n";
   s += "#SBATCH --job-name=yeegap-sweep\n";
   s += fmt::format("#SBATCH --array=0-{}{}\n", n - 1, jobs > 1 ? fmt::format("%{}", jobs) : "");
   s += "#SBATCH --nodes=1\n#SBATCH --ntasks=1\n";
   s += fmt::format("#SBATCH --cpus-per-task={}\n", cpus);
-  s += fmt::format("#SBATCH --output={}/slurm_%A_%a.txt\n", folder_abs);
+  s += "#SBATCH --output=/dev/null\n";
+  s += fmt::format("exec >>{}/slurm_\"${{SLURM_ARRAY_JOB_ID}}_${{SLURM_ARRAY_TASK_ID}}\".txt 2>&1\n", shell_quote(folder_abs));
   s += "export OMP_NUM_THREADS=\"${SLURM_CPUS_PER_TASK:-1}\"\n";
   s += fmt::format("exec {} sweep {} -o {} --point \"$SLURM_ARRAY_TASK_ID\" --threads \"$OMP_NUM_THREADS\"{}\n",
                    shell_quote(program), shell_quote(scene_abs), shell_quote(folder_abs), sets);

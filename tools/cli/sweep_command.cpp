@@ -8,6 +8,7 @@
 #include <algorithm>
 #include <atomic>
 #include <chrono>
+#include <csignal>
 #include <ctime>
 #include <cstdio>
 #include <exception>
@@ -25,7 +26,9 @@
 #include "io/scene_reader.h"
 #include "io/sweep_table.h"
 #include "json.h"
+#include "machine_memory.h"
 #include "progress.h"
+#include "run_control.h"
 #include "solver/run_scene.h"
 #include "solver/simulation.h"
 #include "sweep_batch.h"
@@ -48,6 +51,7 @@ struct SweepOptions {
   bool merge_only = false;
   bool json = false;
   bool plot = false;
+  std::string memory;  // --memory: the most all points running at once may use together
   std::string command_line;
 };
 
@@ -85,7 +89,19 @@ struct Point {
 // Runs one point and publishes its file: results and /sweep record go to a side name, which is
 // renamed to point_NNNN.h5 only when both are complete, so a killed sweep never leaves a file that
 // a re-run would take for finished.
-double run_point(const Point& p, const io::SweepPlan& plan, const SweepOptions& o, int threads, bool show_progress) {
+// A signal stops the points in progress between two steps; they are not published (a re-run runs
+// them again from their start) and no new point starts.
+struct PointStopped {};
+
+double run_point(const Point& p, const io::SweepPlan& plan, const SweepOptions& o, int threads, bool show_progress,
+                 const StopSignals& signals) {
+  // Points running at once share the memory: each gets its share of the limit.
+  const int jobs = std::max(1, o.jobs);
+  std::optional<double> limit = o.memory.empty() ? std::nullopt : parse_memory_size(o.memory);
+  if (!limit && jobs > 1)
+    if (const auto free = available_memory_bytes()) limit = 0.9 * *free;
+  if (limit) *limit /= jobs;
+  refuse_if_over_memory(static_cast<double>(solver::plan_scene(p.scene).memory_bytes), limit);
   omp_set_num_threads(threads);
   const std::string started = now_iso8601();
   const auto start = std::chrono::steady_clock::now();
@@ -94,10 +110,12 @@ double run_point(const Point& p, const io::SweepPlan& plan, const SweepOptions& 
     std::optional<ProgressLine> progress;
     if (show_progress) progress.emplace();
     // Any kind of run: a plain Simulation, a Bloch run or an angle scan (a plane_wave scene).
-    results = solver::run_scene(p.scene, [&](const solver::Progress& pr) {
-      if (progress) progress->update(pr);
-    });
+    results = solver::run_scene(
+        p.scene, [&](const solver::Progress& pr) { if (progress) progress->update(pr); },
+        [&] { return signals.received() != 0; });
+    if (progress) progress->break_line();
   }
+  if (results.summary.stop_reason == "interrupted") throw PointStopped{};
   const std::vector<io::Figure> figures = io::compute_figures(results, p.scene);
   const std::string side = p.file + ".incomplete";
   io::write_results(side, results, p.scene, {YEEGAP_VERSION, o.command_line, started, threads});
@@ -117,7 +135,7 @@ struct Failure {
 
 // Runs `pending` with `jobs` workers; returns the points that failed with their messages.
 std::vector<Failure> run_points(const std::vector<Point*>& pending, const io::SweepPlan& plan,
-                                                            const SweepOptions& o, bool tty) {
+                                                            const SweepOptions& o, bool tty, const StopSignals& signals) {
   const int all_threads = o.threads > 0 ? o.threads : omp_get_max_threads();
   const int jobs = std::max(1, std::min<int>(o.jobs, static_cast<int>(pending.size())));
   const int threads = std::max(1, all_threads / jobs);
@@ -129,15 +147,19 @@ std::vector<Failure> run_points(const std::vector<Point*>& pending, const io::Sw
   std::vector<Failure> failed;
   std::size_t done = 0;
   const auto worker = [&] {
-    for (std::size_t i = next++; i < pending.size(); i = next++) {
+    for (std::size_t i = next++; i < pending.size() && signals.received() == 0; i = next++) {
       const Point& p = *pending[i];
       try {
-        const double seconds = run_point(p, plan, o, threads, tty && jobs == 1);
+        const double seconds = run_point(p, plan, o, threads, tty && jobs == 1, signals);
         std::lock_guard<std::mutex> guard(lock);
         ++done;
         if (tty)
           std::fprintf(stderr, "  point %zu (%zu of %zu to run): %s: %.1f s -> %s\n", p.index, done, pending.size(),
                        plan.describe(p.index).c_str(), seconds, fs::path(p.file).filename().c_str());
+      } catch (const PointStopped&) {
+        std::lock_guard<std::mutex> guard(lock);
+        std::fprintf(stderr, "  point %zu (%s) stopped by the signal; a re-run of the sweep runs it again\n", p.index,
+                     plan.describe(p.index).c_str());
       } catch (const std::exception& e) {
         std::lock_guard<std::mutex> guard(lock);
         ++done;
@@ -206,8 +228,16 @@ int run_sweep(const SweepOptions& o) {
   const bool tty = isatty(fileno(stderr)) == 1;
   std::fprintf(stderr, "yeegap: sweep of %zu point%s in %s: %zu already finished, %zu to run\n", n, n == 1 ? "" : "s",
                folder.c_str(), already, pending.size());
-  const auto failed = run_points(pending, plan, o, tty);
+  // SIGINT/SIGTERM: the points in progress stop, the finished ones stay published, the table is
+  // merged from them, and the exit code is 3; the same command runs the rest.
+  StopSignals signals;
+  const auto failed = run_points(pending, plan, o, tty, signals);
+  const int stopped_by = signals.received();
+  if (stopped_by != 0)
+    std::fprintf(stderr, "yeegap: sweep stopped by %s; finished points are kept, the same command runs the rest\n",
+                 stopped_by == SIGINT ? "SIGINT" : "SIGTERM");
   const auto failure_code = [&] {
+    if (stopped_by != 0) return exit_interrupted;
     if (failed.empty()) return exit_ok;
     const bool user = std::all_of(failed.begin(), failed.end(), [](const Failure& f) { return f.user_error; });
     return user ? exit_user_error : exit_failure;
@@ -229,7 +259,7 @@ int run_sweep(const SweepOptions& o) {
   const std::string csv = (fs::path(folder) / "sweep.csv").string();
   io::write_sweep_table(table, csv, plan, rows, files, o.scene, text);
   std::fprintf(stderr, "yeegap: sweep of %zu point%s: %zu run now, %zu already finished%s; table in %s and %s\n", n,
-               n == 1 ? "" : "s", pending.size() - failed.size(), already,
+               n == 1 ? "" : "s", rows.size() - already, already,
                missing.empty() ? "" : fmt::format(", {} not finished ({})", missing.size(), fmt::join(missing, ", ")).c_str(),
                table.c_str(), csv.c_str());
   if (o.json) {
@@ -237,7 +267,7 @@ int run_sweep(const SweepOptions& o) {
     j.text("table", table)
         .text("csv", csv)
         .number("points", static_cast<double>(n))
-        .number("run", static_cast<double>(pending.size() - failed.size()))
+        .number("run", static_cast<double>(rows.size() - already))
         .number("already_finished", static_cast<double>(already))
         .number("not_finished", static_cast<double>(missing.size()));
     std::printf("%s\n", j.str().c_str());
@@ -274,6 +304,7 @@ void add_sweep_command(CLI::App& app, int& exit_code, const std::string& command
   CLI::Option* point = cmd->add_option("--point", opts->point, "run only this point (counted from 0) and do not merge");
   cmd->add_flag("--merge-only", opts->merge_only, "run nothing; merge the points already finished")->excludes(point);
   cmd->add_flag("--json", opts->json, "print a one-object summary on stdout at the end");
+  add_memory_option(*cmd, opts->memory);
   cmd->add_flag("--plot", opts->plot,
                 "also write heat maps (PNG, SVG) of each spectrum over the swept parameter and wavelength next to "
                 "the table (needs python3-matplotlib)");
