@@ -42,13 +42,21 @@ inline std::pair<double, double> parabolic_peak(const std::vector<double>& x, co
 enum class Averaging { off, diagonal, full };
 inline const char* name(Averaging a) { return a == Averaging::off ? "off" : (a == Averaging::diagonal ? "diagonal" : "full"); }
 
-/// Runs the sphere at `cells_per_radius` (R / cell); the centre sits on the mirror planes and
-/// `z_offset` cells above a node along z.
-inline SpherePeak gold_sphere_peak(double cells_per_radius, Averaging averaging, double z_offset = 0.5,
-                                   int absorber = 8) {
+/// Cross sections of the sphere beside Mie's at the wavelengths asked (m^2).
+struct SphereSpectra {
+  std::vector<double> extinction, scattering, absorption;
+  std::vector<double> mie_extinction, mie_scattering, mie_absorption;
+};
+
+inline constexpr double sphere_water_index = 1.333, sphere_radius = 30e-9;
+
+/// The scene of the runs below: the sphere at `cells_per_radius`, centred on the mirror planes and
+/// `z_offset` cells above a node along z, lit by a pulse from `lambda_short` to `lambda_long`.
+inline Scene gold_sphere_scene(double cells_per_radius, Averaging averaging, double z_offset, int absorber,
+                               double lambda_short, double lambda_long) {
   using constants::c0;
   using constants::pi;
-  constexpr double n_water = 1.333, radius = 30e-9;
+  constexpr double n_water = sphere_water_index, radius = sphere_radius;
   const double d = radius / cells_per_radius;
   // TFSF box 10 nm (at least 4 cells) beyond the sphere; 4 cells to the absorber (8 cells by default).
   const double margin = std::max(10e-9, 4 * d);
@@ -75,15 +83,52 @@ inline SpherePeak gold_sphere_peak(double cells_per_radius, Averaging averaging,
   w.axis = 2;
   w.sign = +1;
   w.polarization = {1, 0, 0};
-  w.waveform.omega_min = 2 * pi * c0 / 750e-9;
-  w.waveform.omega_max = 2 * pi * c0 / 420e-9;
+  w.waveform.omega_min = 2 * pi * c0 / lambda_long;
+  w.waveform.omega_max = 2 * pi * c0 / lambda_short;
   s.plane_waves.push_back(w);
+  s.stop.decayed = 1e-5;
+  return s;
+}
+
+inline SphereSpectra gold_sphere_spectra(double cells_per_radius, Averaging averaging, const std::vector<double>& lambdas,
+                                         double z_offset = 0.5, int absorber = 8) {
+  using constants::c0;
+  using constants::pi;
+  Scene s = gold_sphere_scene(cells_per_radius, averaging, z_offset, absorber, 420e-9, 850e-9);
+  CrossSectionSpec cs;
+  cs.name = "sphere";
+  for (double l : lambdas) cs.omegas.push_back(2 * pi * c0 / l);
+  s.cross_sections.push_back(cs);
+  const RunResults r = Simulation(s).run();
+  SphereSpectra out;
+  out.extinction = r.cross_sections.at(0).extinction;
+  out.scattering = r.cross_sections.at(0).scattering;
+  out.absorption = r.cross_sections.at(0).absorption;
+  const materials::PoleSet gold = materials::find_material("Au")->poles;
+  for (double l : lambdas) {
+    const auto m = materials::mie_sphere_cross_sections(sphere_radius, l, materials::permittivity(gold, 2 * pi * c0 / l),
+                                                        sphere_water_index);
+    out.mie_extinction.push_back(m.extinction);
+    out.mie_scattering.push_back(m.scattering);
+    out.mie_absorption.push_back(m.absorption);
+  }
+  return out;
+}
+
+/// Runs the sphere at `cells_per_radius` (R / cell); the centre sits on the mirror planes and
+/// `z_offset` cells above a node along z.
+inline SpherePeak gold_sphere_peak(double cells_per_radius, Averaging averaging, double z_offset = 0.5,
+                                   int absorber = 8) {
+  using constants::c0;
+  using constants::pi;
+  constexpr double n_water = sphere_water_index, radius = sphere_radius;
+  Scene s = gold_sphere_scene(cells_per_radius, averaging, z_offset, absorber, 420e-9, 750e-9);
+  const materials::PoleSet gold = materials::find_material("Au")->poles;
   CrossSectionSpec cs;
   cs.name = "sphere";
   std::vector<double> lambdas;
   for (double l = 490e-9; l <= 580.1e-9; l += 2e-9) lambdas.push_back(l), cs.omegas.push_back(2 * pi * c0 / l);
   s.cross_sections.push_back(cs);
-  s.stop.decayed = 1e-5;
   Simulation sim(s);
   const RunResults r = sim.run();
   std::vector<double> mie;
