@@ -91,6 +91,15 @@ expect stopped_before_the_pulse 0 "500.00 nm  undefined  undefined  undefined" -
 expect stopped_before_the_pulse_note 0 "'undefined' values are normalised by light" -- "$yeegap" run "$work/early.yaml" -o "$work/early.h5"
 "$yeegap" run "$work/early.yaml" -o "$work/early.h5" 2>&1 | grep -q -- "-nan" && { echo "FAIL: -nan printed"; fails=$((fails + 1)); }
 
+# A curved metal body on a staircase: `check` warns with the measured cost; averaging silences it; an
+# aligned metal box (faces on the grid planes) is not warned about.
+expect staircased_metal_warning 0 "warning +body 0 \(gold\) is a curved or tilted metal body on a staircase" -- \
+  "$yeegap" check "$src/examples/gold_dimer_antenna.yaml"
+"$yeegap" check "$src/examples/gold_dimer_antenna.yaml" --set domain.averaging=on 2>&1 | grep -q "on a staircase" &&
+  { echo "FAIL: warned with averaging on"; fails=$((fails + 1)); }
+"$yeegap" check "$src/examples/gold_grating.yaml" 2>&1 | grep -q "on a staircase" &&
+  { echo "FAIL: warned about aligned boxes"; fails=$((fails + 1)); }
+
 # Memory: a run over the --memory limit (or over what the machine has free) is refused before it
 # allocates anything, exit 2, no results file; `check` prints the same as a warning; a bad size is an
 # option error.
