@@ -12,6 +12,7 @@
 The thresholds 0.7 and 5 nm are ours (demo numbers, measured ratios in the comment above).
 Usage: example_tunnelling_sweep_check.py YEEGAP_BINARY SOURCE_DIR"""
 import os
+import re
 import subprocess
 import sys
 import tempfile
@@ -51,4 +52,16 @@ with tempfile.TemporaryDirectory() as work:
     # At 0.2 nm: still there, near the classical wavelength, weaker.
     assert lam[q][2] > window_low + 1 and abs(lam[q][2] - lam[c][2]) < 5, (lam[q][2], lam[c][2])
     assert ratio[2] < 1, ratio
+    # The figures examples/README.md prints from this sweep, to their last printed digit.
+    with open(os.path.join(src, "examples", "README.md"), encoding="utf-8") as f:
+        text = f.read()
+    m = re.search(r"red-shifting ([0-9.]+) → ([0-9.]+) → ([0-9.]+) nm", text)
+    assert m, "examples/README.md: the classical gap-mode wavelengths are no longer printed as expected"
+    for printed_nm, run_nm in zip(m.groups(), lam[c][::-1]):  # printed from 0.2 nm to 0.1 nm
+        assert abs(float(printed_nm) - run_nm) <= 0.05 + 1e-9, (printed_nm, run_nm)
+    m = re.search(r"its peak ([0-9.]+), ([0-9.]+), ([0-9.]+) of the classical one at 0.2, 0.15, 0.1 nm", text)
+    assert m, "examples/README.md: the quantum-corrected ratios are no longer printed as expected"
+    for printed_ratio, run_ratio in zip(m.groups(), ratio[::-1]):
+        assert abs(float(printed_ratio) - run_ratio) <= 0.005 + 1e-9, (printed_ratio, run_ratio)
+    print("examples/README.md figures agree with the run")
 print("1 passed, 0 failed")

@@ -2,11 +2,13 @@
 """The figures the documentation prints come from runs of the examples as shipped: this script
 runs them, reads each figure out of the text where it is printed, and fails when the text and the
 run disagree beyond the precision the text states (its last printed digit, half a unit either way).
-`cheap`: the gold grating example (seconds; in the default suite). `all`: also the SPR chip
+`cheap`: the gold grating example (seconds) and the dimer mesh (`check` only); in the default suite. `all`: also the SPR chip
 flagship (about 6 minutes on two cores; labelled slow, run before each release note).
 Usage: printed_figures_check.py YEEGAP_BINARY SOURCE_DIR cheap|all"""
+import json
 import os
 import re
+import subprocess
 import sys
 import tempfile
 
@@ -50,6 +52,23 @@ with tempfile.TemporaryDirectory() as work:
     (bound,) = printed("examples/README.md", r"the reflected orders add up to R within ([0-9.e-]+)")
     checks(orders_gap <= float(bound) and orders_gap > 0.1 * float(bound),
            f"examples/README.md: orders vs R printed 'within {bound}', run gives {orders_gap:.2e}")
+
+    # The dimer mesh (README.md, examples/README.md): `check` only, no run.
+    done = subprocess.run([yeegap, "check", os.path.join(src, "examples", "dimer_gap_mesh.yaml"), "--json"],
+                          capture_output=True, text=True)
+    checks(done.returncode == 0, f"check of dimer_gap_mesh.yaml: exit {done.returncode}: {done.stderr[-300:]}")
+    if done.returncode == 0:
+        j = json.loads(done.stdout)
+        cells, uniform = j["cells"], j["uniform_cells_at_smallest"]
+        millions, billions, times = printed(
+            "README.md", r"two 40 nm gold spheres 0.5 nm apart: ([0-9.]+) million cells instead of ([0-9.]+) "
+            r"billion at the gap's 0.125 nm step, ([0-9]+)× fewer")
+        agrees(millions, cells / 1e6, "dimer mesh cells (millions)", "README.md")
+        agrees(billions, uniform / 1e9, "dimer uniform cells (billions)", "README.md")
+        agrees(times, uniform / cells, "dimer mesh saving (times)", "README.md")
+        grid = printed("examples/README.md", r"\| ([0-9]+)×([0-9]+)×([0-9]+) graded cells; meant for `check`")
+        checks([int(g) for g in grid] == [int(x) for x in j["grid"]],
+               f"examples/README.md: dimer grid printed {'x'.join(grid)}, check gives {j['grid']}")
 
     if scope == "all":
         # The SPR chip flagship: the README's table and the example's own comment.
