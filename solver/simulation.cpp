@@ -330,6 +330,29 @@ ModelSummary Simulation::plan(const Scene& original) {
           i, mat.name));
       break;
     }
+  // An open problem (docs/reliability.md, row 50): a Drude metal surface inside an absorber corner
+  // (two absorbing axes meeting) can grow slowly, which the divergence guard may not see in time.
+  for (std::size_t i = 0; i < scene.bodies.size(); ++i) {
+    const MaterialSpec& mat = scene.materials.at(static_cast<std::size_t>(scene.bodies[i].material));
+    if (mat.poles.drude.empty() || mat.perfect_conductor) continue;
+    const geometry::Aabb box = scene.bodies[i].shape->bounds();
+    std::string axes;
+    for (int a = 0; a < 3; ++a) {
+      const int layer = scene.domain.absorber.cells;
+      const auto& v = g.nodes[a];
+      const bool low = scene.domain.edges[2 * a] == EdgeKind::absorber && box.lo[a] < v[static_cast<std::size_t>(layer)];
+      const bool high = scene.domain.edges[2 * a + 1] == EdgeKind::absorber &&
+                        box.hi[a] > v[v.size() - 1 - static_cast<std::size_t>(layer)];
+      if (low || high) axes += "xyz"[a];
+    }
+    if (axes.size() < 2) continue;
+    m.warnings.push_back(fmt::format(
+        "body {} ({}) runs into the absorbing layers of {} axes ({}): where two layers meet, the fields at a Drude "
+        "metal's surface can grow slowly (an open problem, docs/reliability.md row 50). End the metal before the "
+        "layers, or make one of those axes periodic; check the results' late-time probes",
+        i, mat.name, axes.size(), axes));
+    break;
+  }
   // The cap stops a run that needs more steps; say so now, with what sets the step.
   const double span = st.after > 0 ? st.after : source_end, needed = std::ceil(span / dt);
   if (std::isfinite(span) && needed >= static_cast<double>(st.max_steps))

@@ -100,6 +100,19 @@ expect staircased_metal_warning 0 "warning +body 0 \(gold\) is a curved or tilte
 "$yeegap" check "$src/examples/gold_grating.yaml" 2>&1 | grep -q "on a staircase" &&
   { echo "FAIL: warned about aligned boxes"; fails=$((fails + 1)); }
 
+# A Drude film through two meeting absorbing layers: warned (docs/reliability.md row 50).
+cat > "$work/corner.yaml" <<'EOF2'
+scene: {version: 1, title: film through an absorber corner}
+materials: {drude: {poles: {eps_inf: 1, drude: [{plasma_frequency: 9 eV, damping: 0.1 eV}]}}}
+domain: {size: [200 nm, 200 nm, 200 nm], step: 10 nm, edges: {z_low: metal}, absorber: {cells: 6}}
+bodies:
+  - {shape: slab, material: drude, axis: z, from: -1 m, to: -1 nm}
+excitation:
+  - dipole: {position: [0, 0, 20 nm], direction: z, band: {from: 450 nm, to: 800 nm}}
+stop: {decayed: 1e-5}
+EOF2
+expect absorber_corner_warning 0 "warning +body 0 \(drude\) runs into the absorbing layers of 2 axes \(xy\)" -- "$yeegap" check "$work/corner.yaml"
+
 # Memory: a run over the --memory limit (or over what the machine has free) is refused before it
 # allocates anything, exit 2, no results file; `check` prints the same as a warning; a bad size is an
 # option error.
