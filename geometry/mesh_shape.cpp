@@ -11,6 +11,8 @@
 #include <unordered_map>
 
 #include "base/constants.h"
+#include <fmt/format.h>
+
 #include "base/errors.h"
 
 namespace yeegap::geometry {
@@ -111,7 +113,12 @@ MeshShape::MeshShape(const TriangleMesh& m) {
   }
   const Vec3 extent = bounds_.hi - bounds_.lo;
   coarse_step_ = std::max({extent.x, extent.y, extent.z}) / coarse_cells;
-  YG_CHECK(coarse_step_ > 0, "a mesh shape needs an extent");
+  // A mesh whose corners all round to one point (coordinates of 1e-316 nm: found by fuzzing) has
+  // no extent: a mistake in the file or its unit, not our invariant.
+  if (!(coarse_step_ > 0 && std::isfinite(coarse_step_)))
+    throw SceneError(Where{}, fmt::format("the mesh has no extent once scaled (its box is {:g} x {:g} x {:g} m): "
+                                          "check the file's coordinates and the unit given for them",
+                                          extent.x, extent.y, extent.z));
   band_ = std::sqrt(3.0) * coarse_step_;
   coarse_lo_ = bounds_.lo;
   for (int a = 0; a < 3; ++a) coarse_n_[a] = std::max(1, static_cast<int>(std::ceil(extent[a] / coarse_step_ - 1e-9)));
@@ -250,7 +257,13 @@ double MeshShape::winding_number(const Vec3& p) const {
 }
 
 ShapePtr load_mesh_shape(const std::string& path, double unit, const Where& where) {
-  return std::make_shared<MeshShape>(read_stl(path, unit, where));
+  TriangleMesh mesh = read_stl(path, unit, where);
+  try {
+    return std::make_shared<MeshShape>(mesh);
+  } catch (const SceneError& e) {
+    // MeshShape knows no file: name the mesh file and the scene key that reads it.
+    throw SceneError(where, fmt::format("{}: {}", path, e.message()));
+  }
 }
 
 }  // namespace yeegap::geometry

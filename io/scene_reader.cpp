@@ -9,6 +9,9 @@
 #include <sstream>
 
 #include <fmt/format.h>
+#include <yaml-cpp/eventhandler.h>
+#include <yaml-cpp/parser.h>
+#include <yaml-cpp/yaml.h>
 
 #include "base/errors.h"
 #include "io/overrides.h"
@@ -23,21 +26,65 @@ namespace {
 // that reads its keys differently.
 constexpr long scene_format_version = 1;
 
+// Where each document of a YAML stream starts and whether it holds anything, without building it.
+// yaml-cpp 0.7's LoadAll never returns on a stream whose document starts with a stray ',' (the
+// token is never consumed: an endless run of empty documents, found by fuzzing), so the documents
+// are walked here one at a time, and only a few.
+class DocumentScan : public YAML::EventHandler {
+ public:
+  struct Document {
+    YAML::Mark start, first;  // where the document and its first node begin
+    bool content = false;
+  };
+  std::vector<Document> documents;
+  void OnDocumentStart(const YAML::Mark& mark) override { documents.push_back({mark, mark, false}); }
+  void OnDocumentEnd() override {}
+  void OnNull(const YAML::Mark&, YAML::anchor_t) override {}
+  void OnAlias(const YAML::Mark& m, YAML::anchor_t) override { note(m); }
+  void OnScalar(const YAML::Mark& m, const std::string&, YAML::anchor_t, const std::string&) override { note(m); }
+  void OnSequenceStart(const YAML::Mark& m, const std::string&, YAML::anchor_t, YAML::EmitterStyle::value) override {
+    note(m);
+  }
+  void OnSequenceEnd() override {}
+  void OnMapStart(const YAML::Mark& m, const std::string&, YAML::anchor_t, YAML::EmitterStyle::value) override {
+    note(m);
+  }
+  void OnMapEnd() override {}
+
+ private:
+  void note(const YAML::Mark& m) {
+    if (documents.empty() || documents.back().content) return;
+    documents.back().content = true;
+    documents.back().first = m;
+  }
+};
+
 YAML::Node parse_yaml(const std::string& text, const SceneSource& source) {
   try {
-    const std::vector<YAML::Node> docs = YAML::LoadAll(text);
+    std::istringstream stream(text);
+    YAML::Parser parser(stream);
+    DocumentScan scan;
+    // The first document, a second one if any, and one more: a stream that goes on producing
+    // documents past a few is stuck on a token it cannot place.
+    constexpr std::size_t looked_at = 4;
+    while (scan.documents.size() < looked_at && parser.HandleNextDocument(scan)) {
+    }
+    const auto where = [&](const YAML::Mark& m) {
+      int column = m.column;
+      source.to_file_column(m.line, column);
+      return Where{source.file, m.line + 1, column + 1, ""};
+    };
+    if (scan.documents.size() >= looked_at)
+      throw SceneError(where(scan.documents[1].start),
+                       "the YAML parser cannot go on from here (a stray ',' or bracket outside a list or block?)");
     // A second document (after a '---' line) would be ignored, and with it whatever the user wrote
     // there: refuse it. An empty one (a trailing '---') holds nothing to lose.
-    for (std::size_t d = 1; d < docs.size(); ++d)
-      if (docs[d].IsDefined() && !docs[d].IsNull()) {
-        const int line = docs[d].Mark().line;
-        int column = docs[d].Mark().column;
-        source.to_file_column(line, column);
-        throw SceneError(Where{source.file, line + 1, column + 1, ""},
+    for (std::size_t d = 1; d < scan.documents.size(); ++d)
+      if (scan.documents[d].content)
+        throw SceneError(where(scan.documents[d].first),
                          "a second YAML document starts here (after a '---' line); a scene file holds one document, "
                          "and this one would be ignored: merge it into the first or move it to its own file");
-      }
-    return docs.empty() ? YAML::Node() : docs.front();
+    return scan.documents.empty() ? YAML::Node() : YAML::Load(text);
   } catch (const YAML::ParserException& e) {
     // e.msg is yaml-cpp's text without its own "error at line..." prefix; marks are 0-based.
     int column = e.mark.column;

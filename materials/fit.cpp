@@ -262,6 +262,9 @@ FitResult fit_poles(const std::vector<FitSample>& samples, const FitOptions& opt
       best_start = start;
     }
   }
+  // No start reached a finite cost (values at the edge of what a double holds): nothing to return.
+  if (best.x.size() == 0 || !std::isfinite(best.cost))
+    throw RunError("the pole fit found no finite fit to these values; check the table's n and k");
   FitResult result;
   result.poles = to_poles(pr, best.x, omega_ref);
   result.starts_run = options.starts;

@@ -44,6 +44,9 @@ struct ColumnLayout {
   std::vector<std::string> names;
 };
 
+// The range a table may cover: 1 pm to 1 m in wavelength, indices up to 1e4 (metals in the far
+// infrared reach about 1e2; common practice, not a physical bound).
+constexpr double table_shortest_wavelength = 1e-12, table_longest_wavelength = 1.0, table_largest_index = 1e4;
 constexpr const char* expected_columns = "expected wavelength_nm (or wavelength_um, wavelength_m), n, k";
 
 ColumnLayout read_header(const std::vector<Cell>& cells, const std::string& file, int line_number) {
@@ -132,6 +135,17 @@ NkTable parse_nk_table(std::string_view text, const std::string& file, size_t mi
     const double n = value(layout.n);
     const double k = value(layout.k);
     if (!(wavelength > 0)) throw SceneError(wl_at, fmt::format("wavelength must be positive, got '{}'", wl_cell.text));
+    // Bounds far outside optics but inside what the pole fit can represent: a wavelength of 1e-310 m
+    // gave an infinite frequency, k = 1e87 a permittivity that overflows (both found by fuzzing).
+    if (!(wavelength >= table_shortest_wavelength && wavelength <= table_longest_wavelength))
+      throw SceneError(wl_at, fmt::format("wavelength {} m is outside what a table can hold ({:g} m to {:g} m)", wavelength,
+                                          table_shortest_wavelength, table_longest_wavelength));
+    if (!(n <= table_largest_index))
+      throw SceneError(Where{file, line_number, cells[layout.n].column, "n"},
+                       fmt::format("n must be at most {:g}, got '{}'", table_largest_index, cells[layout.n].text));
+    if (!(k <= table_largest_index))
+      throw SceneError(Where{file, line_number, cells[layout.k].column, "k"},
+                       fmt::format("k must be at most {:g}, got '{}'", table_largest_index, cells[layout.k].text));
     if (n < 0)
       throw SceneError(Where{file, line_number, cells[layout.n].column, "n"},
                        fmt::format("n must be non-negative, got '{}'", cells[layout.n].text));

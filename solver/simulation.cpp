@@ -297,12 +297,12 @@ ModelSummary Simulation::plan(const Scene& original) {
   for (const auto& d : scene.dipoles) source_end = std::max(source_end, SourceTime(d.waveform).end_time());
   for (const auto& p : scene.plane_waves) source_end = std::max(source_end, SourceTime(p.waveform).end_time());
   if (st.after > 0) {
-    m.steps = std::min<long>(st.max_steps, static_cast<long>(std::ceil(st.after / dt)));
+    m.steps = static_cast<long>(std::min<double>(static_cast<double>(st.max_steps), std::ceil(st.after / dt)));
   } else {
     double longest = 0;
     for (int a = 0; a < 3; ++a) longest = std::max(longest, g.nodes[a].back() - g.nodes[a].front());
     const double t = std::min(source_end, 1e300) + 10.0 * longest / constants::c0;
-    m.steps = std::min<long>(st.max_steps, static_cast<long>(std::ceil(t / dt)));
+    m.steps = static_cast<long>(std::min<double>(static_cast<double>(st.max_steps), std::ceil(t / dt)));
     m.steps_estimated = true;
   }
   // A staircased metal particle: right peak, wrong red tail (docs/scene.md, averaging).

@@ -184,8 +184,9 @@ void SubcellAverage::apply_group(Group& g, Fields& f) {
       g.increment[i] = static_cast<real>(dD);
       real* e = &g.e[3 * i];
       real* ep = &g.e_previous[3 * i];
-      real* q = &g.q[g.slots * i];
-      real* p = &g.p[g.slots * i];
+      // Pointer arithmetic, not &v[k]: a group without poles has empty q and p (UBSan: null reference).
+      real* q = g.q.data() + g.slots * i;
+      real* p = g.p.data() + g.slots * i;
       const double e_in = step_branch(in, nullptr, 1.0, e[0], ep[0], q, p, dD);
       const double e_out = step_branch(out, nullptr, 1.0, e[1], ep[1], q + ni, p + ni, dD);
       const double e_mix = step_branch(in, &out, fill, e[2], ep[2], q + pair, p + pair, dD);

@@ -25,7 +25,9 @@ void run_time_loop(const TimeLoopSetup& setup, TimeLoopCounters c, const std::fu
                    const std::function<bool()>& between_steps) {
   using clock = std::chrono::steady_clock;
   const StopSpec& st = setup.stop;
-  const long after_steps = st.after > 0 ? static_cast<long>(std::ceil(st.after / setup.dt)) : -1;
+  // Clamped before the conversion: a count beyond long is undefined behaviour, and the cap stops first.
+  const long after_steps =
+      st.after > 0 ? static_cast<long>(std::min<double>(static_cast<double>(st.max_steps), std::ceil(st.after / setup.dt))) : -1;
   const long planned = after_steps >= 0 ? after_steps : setup.planned_steps;
   const auto start = clock::now();
   const long first_step = c.step;             // > 0 when resumed from a checkpoint

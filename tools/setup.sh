@@ -1,10 +1,12 @@
 #!/usr/bin/env bash
 # Installs the Debian 12 packages yeegap needs to build, test and plot. Idempotent: packages that
 # are already installed are skipped, so a second run does nothing and needs no network.
-# Usage: bash tools/setup.sh [--mpi] [--viewer]
+# Usage: bash tools/setup.sh [--mpi] [--viewer] [--sanitizers]
 #   --mpi     also the MPI toolchain and parallel HDF5
 #   --viewer  also ParaView, its Python modules and Xvfb (about 1 GB; do not combine with
 #             python3-vtk9 / libvtk9-dev, which conflict with python3-paraview)
+#   --sanitizers also clang with its sanitizer and libFuzzer runtimes, OpenMP for clang and
+#             llvm-symbolizer, for tools/sanitize.sh (docs/fuzzing.md)
 set -euo pipefail
 
 packages=(
@@ -19,7 +21,9 @@ for arg in "$@"; do
     --mpi) packages+=(libopenmpi-dev openmpi-bin libhdf5-openmpi-dev) ;;
     # python3-paraview is only a Recommends of paraview, which --no-install-recommends below skips.
     --viewer) packages+=(paraview python3-paraview xvfb) ;;
-    *) echo "setup.sh: unknown option '$arg' (expected --mpi or --viewer)" >&2; exit 2 ;;
+    # The runtimes are only a Recommends of clang, which --no-install-recommends below skips.
+    --sanitizers) packages+=(clang libclang-rt-dev libomp-dev llvm) ;;
+    *) echo "setup.sh: unknown option '$arg' (expected --mpi, --viewer or --sanitizers)" >&2; exit 2 ;;
   esac
 done
 

@@ -24,7 +24,7 @@ inline void expect_resumed_run_matches(const Scene& s, int half, const std::stri
   for (std::size_t a = 0; a < from.size(); ++a) {
     ASSERT_EQ(from[a].name, to[a].name);
     ASSERT_EQ(from[a].bytes(), to[a].bytes());
-    std::memcpy(to[a].data, from[a].data, from[a].bytes());
+    if (from[a].bytes() > 0) std::memcpy(to[a].data, from[a].data, from[a].bytes());  // empty arrays: null data
     found = found || from[a].name.find(carried) != std::string::npos;
   }
   EXPECT_TRUE(found) << "no state array named with " << carried;
