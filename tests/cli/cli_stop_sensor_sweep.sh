@@ -13,6 +13,17 @@ trap 'rm -rf "$work"' EXIT
 cd "$work" || exit 1
 failures=0
 fail() { echo "FAIL: $*"; failures=$((failures + 1)); }
+# stop_once CONDITION PID: once CONDITION holds (at most 60 s), a little later SIGTERM to PID; returns its exit code.
+stop_once() {
+  for _ in $(seq 1 6000); do
+    eval "$1" && break
+    kill -0 "$2" 2>/dev/null || break
+    sleep 0.01
+  done
+  sleep 0.2
+  kill -TERM "$2" 2>/dev/null
+  wait "$2"
+}
 
 # Invented numbers, chosen only to be small: a glass prism, 40 nm of a Drude metal and an analyte
 # of index 1.0 above it, 5 nm cells; a scan of 6 angles at 633 nm, and the sensor's repeat of it.
@@ -42,14 +53,7 @@ EOF2
 # Stopped once the repeat has begun (its announcement is on stderr), a little into it.
 "$yeegap" run sensor.yaml -o stopped.h5 --threads 2 --checkpoint-every off 2> stopped.log &
 pid=$!
-for _ in $(seq 1 6000); do
-  grep -q "sensor: the scan again" stopped.log && break
-  kill -0 "$pid" 2>/dev/null || break
-  sleep 0.01
-done
-sleep 0.2
-kill -TERM "$pid" 2>/dev/null
-wait "$pid"
+stop_once 'grep -q "sensor: the scan again" stopped.log' "$pid"
 code=$?
 [ $code -eq 3 ] || fail "sensor: stopped run: exit code $code, want 3: $(cat stopped.log)"
 grep -q "during the sensor's repeats" stopped.log || fail "sensor: no message about the repeats: $(cat stopped.log)"
@@ -73,14 +77,7 @@ sed -i 's/angles: {from: 40 deg, to: 60 deg, count: 6}/angle: 45 deg/' sweep.yam
 "$yeegap" sweep sweep.yaml -o whole_sweep --threads 2 2> whole_sweep.log || fail "uninterrupted sweep: $(cat whole_sweep.log)"
 "$yeegap" sweep sweep.yaml -o stopped_sweep --threads 2 2> stopped_sweep.log &
 pid=$!
-for _ in $(seq 1 6000); do
-  [ -e stopped_sweep/point_0000.h5 ] && break
-  kill -0 "$pid" 2>/dev/null || break
-  sleep 0.01
-done
-sleep 0.2
-kill -TERM "$pid" 2>/dev/null
-wait "$pid"
+stop_once '[ -e stopped_sweep/point_0000.h5 ]' "$pid"
 code=$?
 [ $code -eq 3 ] || fail "sweep: stopped run: exit code $code, want 3: $(cat stopped_sweep.log)"
 grep -q "sweep stopped by SIGTERM" stopped_sweep.log || fail "sweep: no stop message: $(cat stopped_sweep.log)"
