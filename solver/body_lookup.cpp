@@ -49,12 +49,16 @@ const std::vector<int>& BodyLookup::candidates(const Vec3& p) const {
   return bin_bodies_[(static_cast<std::size_t>(at[2]) * bins_[1] + at[1]) * bins_[0] + at[0]];
 }
 
-int BodyLookup::material_at(const Vec3& p) const {
+namespace {
+
+// The last body holding p among `ids` (last body first), `box(i)` its bounding box.
+template <class Ids, class Box>
+int resolve(const Scene& s, const Vec3& p, const Ids& ids, const Box& box) {
   int on_faces = 0, last_on_face = -1;
-  for (int i : candidates(p)) {
-    const geometry::Aabb& b = boxes_[static_cast<std::size_t>(i)];
+  for (int i : ids) {
+    const geometry::Aabb& b = box(i);
     if (p.x < b.lo.x || p.y < b.lo.y || p.z < b.lo.z || p.x > b.hi.x || p.y > b.hi.y || p.z > b.hi.z) continue;
-    const BodySpec& body = scene_.bodies[static_cast<std::size_t>(i)];
+    const BodySpec& body = s.bodies[static_cast<std::size_t>(i)];
     const double d = body.shape->signed_distance(p);
     if (d < 0) return body.material;
     if (d == 0 && on_faces++ == 0) last_on_face = body.material;
@@ -63,7 +67,34 @@ int BodyLookup::material_at(const Vec3& p) const {
   // which pins nodes to slab faces) is strictly inside neither; the background there would put a
   // cell of it between two touching layers. The later body takes it, as it would overlapping ones.
   // A point on one body's face alone stays outside.
-  return on_faces >= 2 ? last_on_face : scene_.domain.background;
+  return on_faces >= 2 ? last_on_face : s.domain.background;
+}
+
+// Body indices from last to first, without storing them.
+struct LastFirst {
+  int n;
+  struct It {
+    int i;
+    int operator*() const { return i; }
+    It& operator++() { --i; return *this; }
+    bool operator!=(const It& o) const { return i != o.i; }
+  };
+  It begin() const { return {n - 1}; }
+  It end() const { return {-1}; }
+};
+
+}  // namespace
+
+int BodyLookup::material_at(const Vec3& p) const {
+  return resolve(scene_, p, candidates(p), [&](int i) -> const geometry::Aabb& { return boxes_[static_cast<std::size_t>(i)]; });
+}
+
+int material_at_any(const Scene& s, const Vec3& p) {
+  geometry::Aabb box;
+  return resolve(s, p, LastFirst{static_cast<int>(s.bodies.size())}, [&](int i) -> const geometry::Aabb& {
+    box = s.bodies[static_cast<std::size_t>(i)].shape->bounds();
+    return box;
+  });
 }
 
 }  // namespace yeegap::solver

@@ -31,4 +31,7 @@ class BodyLookup {
   std::vector<int> all_bodies_;               // last body first
 };
 
+/// The same for one point without building a lookup (no allocation: for loops over a few points).
+int material_at_any(const Scene& s, const Vec3& p);
+
 }  // namespace yeegap::solver

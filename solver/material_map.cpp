@@ -19,7 +19,7 @@ geometry::Aabb extent(const Grid& g) {
 
 }  // namespace
 
-int material_at(const Scene& s, const Vec3& p) { return BodyLookup(s, {}).material_at(p); }
+int material_at(const Scene& s, const Vec3& p) { return material_at_any(s, p); }
 
 void fill_material_index(const Scene& s, const Grid& g, const BlockLayout& L, MaterialIndex& mi) {
   YG_CHECK(s.materials.size() < 255, "at most 254 materials fit the 8-bit material index");

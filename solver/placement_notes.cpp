@@ -21,34 +21,39 @@ bool conducts(const MaterialSpec& m) {
   return m.perfect_conductor || !m.poles.drude.empty() || m.poles.conductivity > 0;
 }
 
+bool bounded(const geometry::Aabb& box) {
+  for (int a = 0; a < 3; ++a)
+    if (!std::isfinite(box.lo[a]) || !std::isfinite(box.hi[a])) return false;
+  return true;
+}
+
+// Whether the box reaches into the absorbing layer at face f.
+bool in_layer(const Scene& s, const Grid& g, const geometry::Aabb& box, int f) {
+  if (s.domain.edges[f] != EdgeKind::absorber || s.domain.absorber.cells <= 0) return false;
+  const int a = f / 2;
+  const auto& v = g.nodes[a];
+  const auto layer = static_cast<std::size_t>(s.domain.absorber.cells);
+  return f % 2 == 0 ? box.lo[a] < v[layer] : box.hi[a] > v[v.size() - 1 - layer];
+}
+
 }  // namespace
 
 std::vector<std::string> placement_notes(const Scene& s, const Grid& g) {
   std::vector<std::string> notes;
-  const int layer = s.domain.absorber.cells;
   for (std::size_t i = 0; i < s.bodies.size(); ++i) {
     const geometry::Aabb box = s.bodies[i].shape->bounds();
-    bool outside = false, bounded = true;
-    for (int a = 0; a < 3; ++a) {
-      outside = outside || box.hi[a] < g.nodes[a].front() || box.lo[a] > g.nodes[a].back();
-      bounded = bounded && std::isfinite(box.lo[a]) && std::isfinite(box.hi[a]);
-    }
+    bool outside = false;
+    for (int a = 0; a < 3; ++a) outside = outside || box.hi[a] < g.nodes[a].front() || box.lo[a] > g.nodes[a].back();
     if (outside) {
       notes.push_back(fmt::format("{} lies wholly outside the domain: it changes nothing", body_label(s, i)));
       continue;
     }
-    if (!bounded) continue;  // slabs and half-spaces continue into the layers by design
-    for (int f = 0; f < 6; ++f) {
-      if (s.domain.edges[f] != EdgeKind::absorber || layer <= 0) continue;
-      const int a = f / 2;
-      const auto& v = g.nodes[a];
-      const bool into = f % 2 == 0 ? box.lo[a] < v[static_cast<std::size_t>(layer)]
-                                   : box.hi[a] > v[v.size() - 1 - static_cast<std::size_t>(layer)];
-      if (into)
+    if (!bounded(box)) continue;  // slabs and half-spaces continue into the layers by design
+    for (int f = 0; f < 6; ++f)
+      if (in_layer(s, g, box, f))
         notes.push_back(fmt::format("{} reaches into the absorbing layer at face {}: the layer is designed for the "
                                     "background, so the body's part there is absorbed imperfectly and reflects",
                                     body_label(s, i), face_names[f]));
-    }
   }
   for (std::size_t d = 0; d < s.dipoles.size(); ++d) {
     const Vec3& p = s.dipoles[d].position;
@@ -61,6 +66,52 @@ std::vector<std::string> placement_notes(const Scene& s, const Grid& g) {
     }
   }
   return notes;
+}
+
+std::vector<std::string> placement_warnings(const Scene& s, const Grid& g) {
+  std::vector<std::string> warnings;
+  // A staircased metal particle: right peak, wrong red tail (docs/scene.md, averaging).
+  for (std::size_t i = 0; i < s.bodies.size() && !s.domain.averaging; ++i) {
+    const MaterialSpec& mat = s.materials.at(static_cast<std::size_t>(s.bodies[i].material));
+    const geometry::Aabb box = s.bodies[i].shape->bounds();
+    if (!bounded(box) || mat.perfect_conductor || (mat.poles.drude.empty() && mat.poles.conductivity == 0)) continue;
+    // A body that fills its own box (corners just inside it are inside the body) is an aligned
+    // box: its faces are planes of the grid, not staircases.
+    bool fills_box = true;
+    for (int c = 0; c < 8 && fills_box; ++c) {
+      Vec3 corner;
+      for (int a = 0; a < 3; ++a) {
+        const double inset = 1e-3 * (box.hi[a] - box.lo[a]);
+        corner[a] = (c >> a & 1) ? box.hi[a] - inset : box.lo[a] + inset;
+      }
+      fills_box = s.bodies[i].shape->signed_distance(corner) < 0;
+    }
+    if (fills_box) continue;
+    warnings.push_back(fmt::format(
+        "{} is a curved or tilted metal body on a staircase (domain.averaging is off): its corners add "
+        "resonances red of the plasmon (a gold sphere at 10 cells per radius: spectra off by up to 17 % of the "
+        "peak, +79 % in the red tail); 'averaging: on' brings that within 2 % (docs/scene.md, averaging)",
+        body_label(s, i)));
+    break;
+  }
+  // An open problem (docs/reliability.md, row 50): a Drude metal surface inside an absorber corner
+  // (two absorbing axes meeting) can grow slowly, which the divergence guard may not see in time.
+  for (std::size_t i = 0; i < s.bodies.size(); ++i) {
+    const MaterialSpec& mat = s.materials.at(static_cast<std::size_t>(s.bodies[i].material));
+    if (mat.poles.drude.empty() || mat.perfect_conductor) continue;
+    const geometry::Aabb box = s.bodies[i].shape->bounds();
+    std::string axes;
+    for (int a = 0; a < 3; ++a)
+      if (in_layer(s, g, box, 2 * a) || in_layer(s, g, box, 2 * a + 1)) axes += "xyz"[a];
+    if (axes.size() < 2) continue;
+    warnings.push_back(fmt::format(
+        "{} runs into the absorbing layers of {} axes ({}): where two layers meet, the fields at a Drude metal's "
+        "surface can grow slowly (an open problem, docs/reliability.md row 50). End the metal before the layers, or "
+        "make one of those axes periodic; check the results' late-time probes",
+        body_label(s, i), axes.size(), axes));
+    break;
+  }
+  return warnings;
 }
 
 }  // namespace yeegap::solver

@@ -305,54 +305,7 @@ ModelSummary Simulation::plan(const Scene& original) {
     m.steps = static_cast<long>(std::min<double>(static_cast<double>(st.max_steps), std::ceil(t / dt)));
     m.steps_estimated = true;
   }
-  // A staircased metal particle: right peak, wrong red tail (docs/scene.md, averaging).
-  if (!scene.domain.averaging)
-    for (std::size_t i = 0; i < scene.bodies.size(); ++i) {
-      const MaterialSpec& mat = scene.materials.at(static_cast<std::size_t>(scene.bodies[i].material));
-      const geometry::Aabb box = scene.bodies[i].shape->bounds();
-      bool bounded = true;
-      for (int a = 0; a < 3; ++a) bounded = bounded && std::isfinite(box.lo[a]) && std::isfinite(box.hi[a]);
-      if (!bounded || mat.perfect_conductor || (mat.poles.drude.empty() && mat.poles.conductivity == 0)) continue;
-      // A body that fills its own box (corners just inside it are inside the body) is an aligned
-      // box: its faces are planes of the grid, not staircases.
-      bool fills_box = true;
-      for (int c = 0; c < 8 && fills_box; ++c) {
-        Vec3 corner;
-        for (int a = 0; a < 3; ++a) corner[a] = (c >> a & 1) ? box.hi[a] - 1e-3 * (box.hi[a] - box.lo[a])
-                                                             : box.lo[a] + 1e-3 * (box.hi[a] - box.lo[a]);
-        fills_box = scene.bodies[i].shape->signed_distance(corner) < 0;
-      }
-      if (fills_box) continue;
-      m.warnings.push_back(fmt::format(
-          "body {} ({}) is a curved or tilted metal body on a staircase (domain.averaging is off): its corners add "
-          "resonances red of the plasmon (a gold sphere at 10 cells per radius: spectra off by up to 17 % of the "
-          "peak, +79 % in the red tail); 'averaging: on' brings that within 2 % (docs/scene.md, averaging)",
-          i, mat.name));
-      break;
-    }
-  // An open problem (docs/reliability.md, row 50): a Drude metal surface inside an absorber corner
-  // (two absorbing axes meeting) can grow slowly, which the divergence guard may not see in time.
-  for (std::size_t i = 0; i < scene.bodies.size(); ++i) {
-    const MaterialSpec& mat = scene.materials.at(static_cast<std::size_t>(scene.bodies[i].material));
-    if (mat.poles.drude.empty() || mat.perfect_conductor) continue;
-    const geometry::Aabb box = scene.bodies[i].shape->bounds();
-    std::string axes;
-    for (int a = 0; a < 3; ++a) {
-      const int layer = scene.domain.absorber.cells;
-      const auto& v = g.nodes[a];
-      const bool low = scene.domain.edges[2 * a] == EdgeKind::absorber && box.lo[a] < v[static_cast<std::size_t>(layer)];
-      const bool high = scene.domain.edges[2 * a + 1] == EdgeKind::absorber &&
-                        box.hi[a] > v[v.size() - 1 - static_cast<std::size_t>(layer)];
-      if (low || high) axes += "xyz"[a];
-    }
-    if (axes.size() < 2) continue;
-    m.warnings.push_back(fmt::format(
-        "body {} ({}) runs into the absorbing layers of {} axes ({}): where two layers meet, the fields at a Drude "
-        "metal's surface can grow slowly (an open problem, docs/reliability.md row 50). End the metal before the "
-        "layers, or make one of those axes periodic; check the results' late-time probes",
-        i, mat.name, axes.size(), axes));
-    break;
-  }
+  for (std::string& w : placement_warnings(scene, g)) m.warnings.push_back(std::move(w));
   // The cap stops a run that needs more steps; say so now, with what sets the step.
   const double span = st.after > 0 ? st.after : source_end, needed = std::ceil(span / dt);
   if (std::isfinite(span) && needed >= static_cast<double>(st.max_steps))

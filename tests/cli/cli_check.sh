@@ -93,7 +93,7 @@ expect stopped_before_the_pulse_note 0 "'undefined' values are normalised by lig
 
 # A curved metal body on a staircase: `check` warns with the measured cost; averaging silences it; an
 # aligned metal box (faces on the grid planes) is not warned about.
-expect staircased_metal_warning 0 "warning +body 0 \(gold\) is a curved or tilted metal body on a staircase" -- \
+expect staircased_metal_warning 0 "warning +body 0 'left' \(gold\) is a curved or tilted metal body on a staircase" -- \
   "$yeegap" check "$src/examples/gold_dimer_antenna.yaml"
 "$yeegap" check "$src/examples/gold_dimer_antenna.yaml" --set domain.averaging=on 2>&1 | grep -q "on a staircase" &&
   { echo "FAIL: warned with averaging on"; fails=$((fails + 1)); }
