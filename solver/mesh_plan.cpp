@@ -15,7 +15,7 @@ namespace {
 
 constexpr double touching_fraction = 1e-3;
 // Gaps narrower than this are below atomic dimensions (gold's nearest-neighbour distance is
-// 0.288 nm: lattice constant 0.408 nm over sqrt 2, Kittel 2005): refined as asked, but noted.
+// 0.288 nm: lattice constant 0.408 nm over sqrt 2, Kittel 2005, from memory): refined as asked, but noted.
 constexpr double sub_atomic_gap = 0.1e-9;
 
 bool unbounded(double v) { return !std::isfinite(v); }
