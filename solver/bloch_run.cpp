@@ -21,6 +21,7 @@
 #include "solver/material_map.h"
 #include "solver/mesh_plan.h"
 #include "solver/recorders.h"
+#include "solver/growth_watch.h"
 #include "solver/time_loop.h"
 
 namespace yeegap::solver {
@@ -336,7 +337,8 @@ double BlochRun::sources_end_time() const {
 
 RunResults BlochRun::run(const std::function<void(const Progress&)>& progress,
                          const std::function<bool()>& between_steps) {
-  run_time_loop({scene_.stop, re_->dt(), sources_end_time(), plan(scene_).steps, re_->grid().cell_count()},
+  run_time_loop({scene_.stop, re_->dt(), sources_end_time(), plan(scene_).steps, re_->grid().cell_count(),
+                 growth_window_steps(scene_, re_->dt())},
                 {n_, peak_energy_, last_energy_, wall_seconds_, stop_reason_}, [&] { step(); },
                 [&] { return re_->field_energy() + (im_ ? im_->field_energy() : 0.0); }, progress, between_steps);
   return results();

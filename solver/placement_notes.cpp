@@ -94,8 +94,8 @@ std::vector<std::string> placement_warnings(const Scene& s, const Grid& g) {
         body_label(s, i)));
     break;
   }
-  // An open problem (docs/reliability.md, row 50): a Drude metal surface inside an absorber corner
-  // (two absorbing axes meeting) can grow slowly, which the divergence guard may not see in time.
+  // Caught, not cured (docs/reliability.md, row 50): a weakly damped metal surface inside an absorber
+  // corner (two absorbing axes meeting) can grow; the growth watch stops such a run.
   for (std::size_t i = 0; i < s.bodies.size(); ++i) {
     const MaterialSpec& mat = s.materials.at(static_cast<std::size_t>(s.bodies[i].material));
     if (mat.poles.drude.empty() || mat.perfect_conductor) continue;
@@ -105,9 +105,9 @@ std::vector<std::string> placement_warnings(const Scene& s, const Grid& g) {
       if (in_layer(s, g, box, 2 * a) || in_layer(s, g, box, 2 * a + 1)) axes += "xyz"[a];
     if (axes.size() < 2) continue;
     warnings.push_back(fmt::format(
-        "{} runs into the absorbing layers of {} axes ({}): where two layers meet, the fields at a Drude metal's "
-        "surface can grow slowly (an open problem, docs/reliability.md row 50). End the metal before the layers, or "
-        "make one of those axes periodic; check the results' late-time probes",
+        "{} runs into the absorbing layers of {} axes ({}): where two layers meet, a weakly damped metal's surface "
+        "can grow (silver, aluminium, plain Drude models; gold's loss damps it), and the run then stops as diverged "
+        "(docs/reliability.md row 50). End the metal at the layers' inner face, or make one of those axes periodic",
         body_label(s, i), axes.size(), axes));
     break;
   }

@@ -16,6 +16,7 @@
 #include "solver/material_map.h"
 #include "solver/mesh_plan.h"
 #include "solver/placement_notes.h"
+#include "solver/growth_watch.h"
 #include "solver/time_loop.h"
 
 namespace yeegap::solver {
@@ -523,14 +524,24 @@ std::string Simulation::describe_largest_field() const {
                        at[1] * 1e9, at[2] * 1e9, material_name(at));
   }
   const Vec3 at = yee_position(grid_, static_cast<Component>(big_c), big[0], big[1], big[2]);
-  return fmt::format("largest field {} = {:.4g} at cell ({}, {}, {}), position ({:.4g}, {:.4g}, {:.4g}) nm, in '{}'",
+  // Growth inside the absorbing layers is the absorber's doing (docs/reliability.md row 50): say so.
+  std::string layers;
+  for (int a = 0; a < 3; ++a) {
+    const int cells = scene_.domain.absorber.cells;
+    const bool low = scene_.domain.edges[2 * a] == EdgeKind::absorber && big[a] < cells;
+    const bool high = scene_.domain.edges[2 * a + 1] == EdgeKind::absorber && big[a] >= L.n[a] - cells;
+    if (low || high) layers += std::string(layers.empty() ? "" : " and ") + "xyz"[a];
+  }
+  if (!layers.empty()) layers = ", inside the absorbing layers of " + layers;
+  return fmt::format("largest field {} = {:.4g} at cell ({}, {}, {}), position ({:.4g}, {:.4g}, {:.4g}) nm, in '{}'{}",
                      names[big_c], fields_.c[big_c][L.at(big[0], big[1], big[2])], big[0], big[1], big[2], at[0] * 1e9,
-                     at[1] * 1e9, at[2] * 1e9, material_name(at));
+                     at[1] * 1e9, at[2] * 1e9, material_name(at), layers);
 }
 
 RunResults Simulation::run(const std::function<void(const Progress&)>& progress,
                            const std::function<bool()>& between_steps) {
-  run_time_loop({scene_.stop, dt_, sources_end_time(), summary().steps, grid_.cell_count()},
+  run_time_loop({scene_.stop, dt_, sources_end_time(), summary().steps, grid_.cell_count(),
+                 growth_window_steps(scene_, dt_)},
                 {n_, peak_energy_, last_energy_, wall_seconds_, stop_reason_}, [&] { step(); },
                 [&] { return field_energy(); }, progress, between_steps);
   return results();

@@ -1,5 +1,7 @@
 #include "solver/time_loop.h"
 
+#include "solver/growth_watch.h"
+
 #include <algorithm>
 #include <chrono>
 #include <cmath>
@@ -35,6 +37,8 @@ void run_time_loop(const TimeLoopSetup& setup, TimeLoopCounters c, const std::fu
   auto last_report = start;
   auto wall = [&] { return earlier_wall + std::chrono::duration<double>(clock::now() - start).count(); };
   c.stop_reason.clear();
+  // Not carried across a resume: the watch starts afresh and only sees growth a window later.
+  GrowthWatch growth(setup.growth_window);
   while (c.stop_reason.empty()) {
     step();
     const long n = c.step;
@@ -48,7 +52,8 @@ void run_time_loop(const TimeLoopSetup& setup, TimeLoopCounters c, const std::fu
         c.stop_reason = "diverged";
       } else {
         c.peak_energy = std::max(c.peak_energy, c.last_energy);
-        if (st.decayed > 0 && sources_over && c.peak_energy > 0 && c.last_energy < st.decayed * c.peak_energy)
+        if (sources_over && growth.add(n, c.last_energy, c.peak_energy)) c.stop_reason = "diverged";
+        else if (st.decayed > 0 && sources_over && c.peak_energy > 0 && c.last_energy < st.decayed * c.peak_energy)
           c.stop_reason = "decayed";
       }
     }

@@ -1,7 +1,9 @@
 // The time loop shared by every kind of run (Simulation, BlochRun): steps until a stop rule holds
 // (a time, a step cap, or the field energy decayed by a factor after the sources have ended),
-// stops a run whose fields diverge (energy not finite, or runaway growth after the sources), reports progress at most twice a second, and lets the caller stop between steps (checkpoints,
-// signals). The run keeps its own counters; the loop only reads and updates them.
+// stops a run whose fields diverge (energy not finite, runaway growth after the sources, or growth
+// from a small seed: growth_watch.h), reports progress at most twice a second, and lets the caller
+// stop between steps (checkpoints, signals). The run keeps its own counters; the loop only reads
+// and updates them.
 #pragma once
 
 #include <functional>
@@ -18,6 +20,7 @@ struct TimeLoopSetup {
   double source_end = 0;           // s, when the last source has ended
   long planned_steps = 0;          // for progress when the stop rule is not a time
   long long cells = 0;             // per step, for the progress rate
+  long growth_window = 400;        // steps: the envelope window of GrowthWatch (growth_watch.h)
 };
 
 /// The counters a run carries across resumed segments.
