@@ -105,14 +105,14 @@ double read_quantity(const Node& v, Dimension d, const std::string& expected) {
   if (d == Dimension::spectral) {
     if (!(q->value > 0) && !(q->value == 0 && dimension_of_unit(q->unit) == Dimension::spectral))
       v.fail(fmt::format("must be {}, got '{}'", expected, text));
-    const double omega = *spectral_to_omega(q->value, q->unit);
     // 1e300 THz or a wavelength of 1e-308 m overflow to an infinite frequency (found by fuzzing).
-    if (!std::isfinite(omega)) v.fail(fmt::format("is beyond any frequency a run can hold, got '{}'", text));
-    return omega;
+    const auto omega = spectral_to_omega(q->value, q->unit);
+    if (!omega || !std::isfinite(*omega)) v.fail(fmt::format("is beyond any frequency a run can hold, got '{}'", text));
+    return *omega;
   }
-  const double si = *to_si(d, q->value, q->unit);
-  if (!std::isfinite(si)) v.fail(fmt::format("overflows once converted to SI units, got '{}'", text));
-  return si;
+  const auto si = to_si(d, q->value, q->unit);
+  if (!si || !std::isfinite(*si)) v.fail(fmt::format("overflows once converted to SI units, got '{}'", text));
+  return *si;
 }
 
 double read_length(const Node& v) {

@@ -108,10 +108,14 @@ std::optional<Dimension> dimension_of_unit(std::string_view unit) {
 std::optional<double> to_si(Dimension d, double value, std::string_view unit) {
   const UnitEntry* u = find_unit(unit);
   if (!u || u->dimension != d || d == Dimension::spectral) return std::nullopt;
-  return value * u->factor;
+  const double si = value * u->factor;
+  if (std::isfinite(value) && !std::isfinite(si)) return std::nullopt;  // 1e308 km: overflows
+  return si;
 }
 
-std::optional<double> spectral_to_omega(double value, std::string_view unit) {
+namespace {
+
+std::optional<double> spectral_to_omega_unchecked(double value, std::string_view unit) {
   const UnitEntry* u = find_unit(unit);
   if (!u) return std::nullopt;
   if (u->dimension == Dimension::length) {
@@ -126,6 +130,14 @@ std::optional<double> spectral_to_omega(double value, std::string_view unit) {
   if (unit == "GHz") return two_pi * value * 1e9;
   if (unit == "Hz") return two_pi * value;
   return value;  // rad/s
+}
+
+}  // namespace
+
+std::optional<double> spectral_to_omega(double value, std::string_view unit) {
+  const auto omega = spectral_to_omega_unchecked(value, unit);
+  if (omega && std::isfinite(value) && !std::isfinite(*omega)) return std::nullopt;  // 91e300 eV: overflows
+  return omega;
 }
 
 std::string format_length(double metres) { return fmt::format("{:g} nm", metres / units::nm); }

@@ -32,12 +32,14 @@ std::vector<std::string> units_of(Dimension d);
 std::optional<Dimension> dimension_of_unit(std::string_view unit);
 
 /// value in `unit` -> SI for kinds that scale linearly: length (m), time (s), conductivity (S/m),
-/// dipole moment (C m). nullopt when the unit does not belong to the kind.
+/// dipole moment (C m). nullopt when the unit does not belong to the kind, or when a finite value
+/// overflows once converted.
 std::optional<double> to_si(Dimension d, double value, std::string_view unit);
 
 /// A spectral value -> angular frequency (rad/s). A length unit means a vacuum wavelength
 /// (omega = 2 pi c / lambda), eV/meV a photon energy (omega = E / hbar), THz/GHz/Hz a frequency
-/// (omega = 2 pi f), rad/s itself. nullopt for an unknown unit or a wavelength of zero.
+/// (omega = 2 pi f), rad/s itself. nullopt for an unknown unit, a wavelength of zero, or a finite
+/// value whose frequency overflows (1e300 THz, 1e-308 m).
 std::optional<double> spectral_to_omega(double value, std::string_view unit);
 
 /// "400 nm", "-2.5 nm", "1.2e+03 nm": a length in metres written back in nm for messages.

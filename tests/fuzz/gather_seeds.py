@@ -1,6 +1,7 @@
 #!/usr/bin/env python3
 """Seeds for the fuzz targets, gathered (not committed) so they follow the tests: the examples, the
-scenes, tables, meshes, values and --set lines written in the tests, and tests/fuzz/seeds/<target>/;
+scenes, tables, meshes, values and --set lines written in the tests, tests/fuzz/seeds/<target>/ and
+the past findings in tests/fuzz/regressions/<target>/;
 and a libFuzzer dictionary per target, since mutated bytes rarely spell 'THz' or 'e-320'.
 Usage: gather_seeds.py REPO_ROOT OUT_DIR  (writes OUT_DIR/<target>/ and OUT_DIR/<target>.dict)"""
 import hashlib
@@ -140,10 +141,11 @@ def main():
     for target in TARGETS:
         folder = out / target
         folder.mkdir(parents=True, exist_ok=True)
-        hand_made = root / "tests" / "fuzz" / "seeds" / target
         data = [s.encode("utf-8", "surrogateescape") for s in seeds[target]]
-        if hand_made.is_dir():
-            data += [p.read_bytes() for p in sorted(hand_made.iterdir()) if p.is_file()]
+        # Hand-made seeds, and every past finding: each run starts by replaying them.
+        for kept in (root / "tests" / "fuzz" / "seeds" / target, root / "tests" / "fuzz" / "regressions" / target):
+            if kept.is_dir():
+                data += [p.read_bytes() for p in sorted(kept.iterdir()) if p.is_file()]
         for blob in data:
             if 0 < len(blob) <= MAX_SEED:
                 (folder / hashlib.sha1(blob).hexdigest()[:16]).write_bytes(blob)

@@ -52,6 +52,10 @@ TEST(Units, ConvertsLinearKindsToSI) {
   EXPECT_DOUBLE_EQ(*to_si(Dimension::dipole_moment, 1, "e nm"), constants::e_charge * 1e-9);
   EXPECT_FALSE(to_si(Dimension::length, 1, "fs"));
   EXPECT_FALSE(to_si(Dimension::length, 1, "parsec"));
+  // A finite value whose frequency overflows gives nothing, not infinity (tests/fuzz/regressions/units).
+  EXPECT_FALSE(spectral_to_omega(91e300, "eV"));
+  EXPECT_FALSE(spectral_to_omega(1e300, "THz"));
+  EXPECT_FALSE(spectral_to_omega(1e-308, "m"));
 }
 
 TEST(Units, KnowsWhichKindAUnitBelongsTo) {
