@@ -21,7 +21,7 @@ namespace yeegap::io {
 
 /// Shared by every Node of one scene: the file label for messages, the --set overrides applied
 /// to the tree, whose values have no place in the file and are reported by the override instead,
-/// and the ${name} uses of a sweep point (io/sweep_expand.h) replaced in the text before parsing.
+/// and the ${name} uses of a sweep point (io/sweep/sweep_expand.h) replaced in the text before parsing.
 struct SceneSource {
   struct Override {
     std::string path;  // canonical key path it sets, "bodies[0].radius"

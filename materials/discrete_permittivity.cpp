@@ -10,7 +10,7 @@ namespace yeegap::materials {
 
 // Derivation (exp(-i omega t), as everywhere in yeegap).
 //
-// The scheme. E lives at integer steps n, H and every polarisation current J at half steps:
+// The scheme. E lives at integer steps n, H and every polarization current J at half steps:
 //   E update:  eps0 eps_inf (E^{n+1} - E^n)/dt = C^{n+1/2} - sigma (E^{n+1} + E^n)/2 - sum J^{n+1/2}
 //              where C = curl H.
 //   Drude:     J^{n+1/2} = [(1 - g dt/2) J^{n-1/2} + eps0 wp^2 dt E^n] / (1 + g dt/2)

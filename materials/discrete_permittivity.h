@@ -1,5 +1,5 @@
 // The permittivity that the time-stepping scheme really has at a frequency omega for a time step
-// dt: the polarisation-current (J-form) ADE of physics.md 3.4, derived by z-transform in
+// dt: the polarization-current (J-form) ADE of physics.md 3.4, derived by z-transform in
 // discrete_permittivity.cpp. It tends to permittivity(poles, omega) as dt^2, so it separates the
 // time-discretisation error of a dispersive run from every other error. Pure math: no solver types.
 #pragma once

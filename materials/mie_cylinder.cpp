@@ -75,7 +75,7 @@ std::vector<cplx> log_derivative(cplx z, int n_max) {
 
 }  // namespace
 
-MieCylinder mie_cylinder(double x, cplx m, CylinderPolarisation polarisation) {
+MieCylinder mie_cylinder(double x, cplx m, CylinderPolarization polarization) {
   check_arguments(x, m);
   // The sphere's truncation rule (Wiscombe 1980) serves here too: the terms fall off beyond n ~ x
   // in the same way for cylindrical orders (common practice).
@@ -93,7 +93,7 @@ MieCylinder mie_cylinder(double x, cplx m, CylinderPolarisation polarisation) {
     const double yd = (n == 0) ? -y[1] : y[n - 1] - n / x * y[n];
     const cplx h(j[n], y[n]);
     const cplx hd(jd, yd);
-    const cplx c = (polarisation == CylinderPolarisation::tm)
+    const cplx c = (polarization == CylinderPolarization::tm)
                        ? (jd - m * d[n] * j[n]) / (hd - m * d[n] * h)
                        : (m * jd - d[n] * j[n]) / (m * hd - d[n] * h);
     r.coefficients[n] = c;
@@ -108,7 +108,7 @@ MieCylinder mie_cylinder(double x, cplx m, CylinderPolarisation polarisation) {
 }
 
 MieCylinderCrossSections mie_cylinder_cross_sections(double radius, double wavelength, cplx particle_permittivity,
-                                                     CylinderPolarisation polarisation, double medium_index) {
+                                                     CylinderPolarization polarization, double medium_index) {
   if (!(radius > 0) || !(wavelength > 0) || !(medium_index > 0))
     throw std::invalid_argument(fmt::format(
         "Mie cylinder: radius, wavelength and medium index must be positive, got {} m, {} m, {}", radius,
@@ -120,7 +120,7 @@ MieCylinderCrossSections mie_cylinder_cross_sections(double radius, double wavel
   const cplx eps(particle_permittivity.real(), particle_permittivity.imag() + 0.0);  // -0.0 -> +0.0
   const cplx m = std::sqrt(eps) / medium_index;
   const double x = 2.0 * constants::pi * medium_index * radius / wavelength;
-  const MieCylinder q = mie_cylinder(x, m, polarisation);
+  const MieCylinder q = mie_cylinder(x, m, polarization);
   const double width = 2.0 * radius;
   return {q.q_ext * width, q.q_sca * width, q.q_abs * width};
 }

@@ -11,7 +11,7 @@ namespace yeegap::materials {
 
 /// Which way the incident electric field points. tm: E along the cylinder axis (Bohren & Huffman's
 /// case I, only the b_n are non-zero); te: E across the axis, H along it (case II, only the a_n).
-enum class CylinderPolarisation { tm, te };
+enum class CylinderPolarization { tm, te };
 
 struct MieCylinder {
   double q_ext = 0;  // extinction efficiency, (extinction per unit length) / (2a)
@@ -31,14 +31,14 @@ struct MieCylinderCrossSections {
 };
 
 /// The series for size parameter x = 2 pi n_med a / lambda0 (> 0), relative index m = n_particle /
-/// n_med (Im m >= 0, else std::invalid_argument, as in mie_sphere) and a polarisation.
-MieCylinder mie_cylinder(double x, std::complex<double> m, CylinderPolarisation polarisation);
+/// n_med (Im m >= 0, else std::invalid_argument, as in mie_sphere) and a polarization.
+MieCylinder mie_cylinder(double x, std::complex<double> m, CylinderPolarization polarization);
 
 /// The same for a cylinder of radius (m) in a lossless medium of real index medium_index, lit at
 /// the vacuum wavelength (m), with the particle's relative permittivity (Im >= 0).
 MieCylinderCrossSections mie_cylinder_cross_sections(double radius, double wavelength,
                                                      std::complex<double> particle_permittivity,
-                                                     CylinderPolarisation polarisation,
+                                                     CylinderPolarization polarization,
                                                      double medium_index = 1.0);
 
 }  // namespace yeegap::materials

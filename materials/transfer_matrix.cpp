@@ -48,14 +48,14 @@ cplx sinc(cplx x) {
 
 }  // namespace
 
-StackResponse stack_response(const Multilayer& stack, double omega, double theta, Polarisation pol) {
+StackResponse stack_response(const Multilayer& stack, double omega, double theta, Polarization pol) {
   YG_CHECK(omega > 0, "the multilayer response needs omega > 0");
   const double k0 = omega / constants::c0;
   const cplx n_inc = std::sqrt(stack.eps_incident);
   YG_CHECK(std::abs(n_inc.imag()) < 1e-12 * std::abs(n_inc) && n_inc.real() > 0,
            "the incident medium must be lossless (R and T are defined against its real admittance)");
   const double kx = n_inc.real() * std::sin(theta);  // kx / k0
-  auto admittance = [&](cplx eps, cplx q) { return pol == Polarisation::s ? q : q / eps; };
+  auto admittance = [&](cplx eps, cplx q) { return pol == Polarization::s ? q : q / eps; };
 
   // M = P_N ... P_1, built in the order the light crosses the layers.
   cplx a = 1.0, b = 0.0, c = 0.0, d = 1.0;
@@ -64,7 +64,7 @@ StackResponse stack_response(const Multilayer& stack, double omega, double theta
     const cplx delta = k0 * q * layer.thickness;
     const cplx cos_d = std::cos(delta);
     // sin(delta)/Y and Y sin(delta) without dividing by q (q may vanish).
-    const cplx sin_over_y = k0 * layer.thickness * sinc(delta) * (pol == Polarisation::s ? 1.0 : layer.eps);
+    const cplx sin_over_y = k0 * layer.thickness * sinc(delta) * (pol == Polarization::s ? 1.0 : layer.eps);
     const cplx y_sin = admittance(layer.eps, q) * std::sin(delta);
     const cplx i(0, 1);
     const cplx p11 = cos_d, p12 = i * sin_over_y, p21 = i * y_sin, p22 = cos_d;

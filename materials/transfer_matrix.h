@@ -1,4 +1,4 @@
-// Reflection and transmission of a planar multilayer for s and p polarised plane waves at any
+// Reflection and transmission of a planar multilayer for s and p polarized plane waves at any
 // angle, by the characteristic-matrix method of Born & Wolf, Principles of Optics, 7th ed. (1999),
 // sections 1.6.2-1.6.3 (section numbers from memory; the algebra is re-derived in the .cpp), in
 // yeegap's exp(-i omega t) convention. The incident medium may be any lossless index (a prism).
@@ -9,7 +9,7 @@
 
 namespace yeegap::materials {
 
-enum class Polarisation { s, p };  // s: E normal to the plane of incidence (TE); p: H normal (TM)
+enum class Polarization { s, p };  // s: E normal to the plane of incidence (TE); p: H normal (TM)
 
 struct Layer {
   std::complex<double> eps;  // relative permittivity (Im >= 0 for a lossy layer)
@@ -33,6 +33,6 @@ struct StackResponse {
 
 /// Response at angular frequency omega (rad/s) for the angle of incidence theta (rad, from the
 /// normal, in the incident medium). Beyond the critical angle the exit wave is evanescent and T = 0.
-StackResponse stack_response(const Multilayer& stack, double omega, double theta, Polarisation pol);
+StackResponse stack_response(const Multilayer& stack, double omega, double theta, Polarization pol);
 
 }  // namespace yeegap::materials

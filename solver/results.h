@@ -10,7 +10,7 @@
 #include <vector>
 
 #include "base/vec3.h"
-#include "solver/reflectance_dip.h"
+#include "solver/outputs/reflectance_dip.h"
 #include "solver/scene.h"
 
 namespace yeegap::solver {
@@ -96,7 +96,7 @@ struct DecayRateResult {
 struct ReflectanceResult {
   std::string name;                        // "plane_wave"
   bool angle_scan = false;
-  bool p_polarised = true;
+  bool p_polarized = true;
   double incident_index = 1;               // refractive index of the incident medium
   std::vector<double> omegas;              // rad/s, per row
   std::vector<double> angles;              // rad, per row, in the incident medium
@@ -127,7 +127,7 @@ struct SensorResult {
                                            // would move the dip as far
 };
 
-/// Diffraction orders of a plane wave in a Bloch cell (solver/diffraction_orders.h): one entry per
+/// Diffraction orders of a plane wave in a Bloch cell (solver/outputs/diffraction_orders.h): one entry per
 /// propagating order (m_b, m_c) per side per row, rows as in ReflectanceResult. Order (m_b, m_c)
 /// has the lateral wavevector k_par + 2 pi (m_b / period_b, m_c / period_c).
 struct DiffractionOrdersResult {

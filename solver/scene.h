@@ -68,9 +68,9 @@ struct DomainSpec {
                                   // base cells; 0 = no gap search
   double grading_ratio = 1.2;     // largest ratio of neighbouring cells (common practice)
   bool averaging = false;         // subcell averaging at E locations an interface crosses
-                                  // (solver/subcell_average.h); false = plain staircase
+                                  // (solver/media/subcell_average.h); false = plain staircase
   bool averaging_cross_terms = true;  // with averaging: the off-diagonal terms between dielectrics
-                                      // (solver/subcell_cross_terms.h); false only for comparisons
+                                      // (solver/media/subcell_cross_terms.h); false only for comparisons
   // Bloch-periodic axes (physics.md 3.7): periodic edges whose copies carry the phase of the
   // in-plane wavevector, F(x + L) = F(x) exp(i k L). With k = 0 they are plain periodic edges.
   std::array<bool, 3> bloch{};
@@ -136,7 +136,7 @@ struct BlochWaveSpec {
   double angle = 0;               // rad, from the axis, in the incident medium
   double azimuth = 0;             // rad, plane of incidence measured from the next axis (x for z)
                                   // towards the one after (y)
-  bool p_polarised = true;        // p: E in the plane of incidence (TM); s: E normal to it (TE)
+  bool p_polarized = true;        // p: E in the plane of incidence (TM); s: E normal to it (TE)
   Waveform waveform;
   double reference_omega = 0;     // rad/s where the angle holds exactly; 0 = centre of the band
   double position = 0;            // m, the entry plane along `axis`
@@ -178,7 +178,7 @@ struct FluxSpec {
 /// absorption from the net flux of the total field into a box just inside it, both over the
 /// incident intensity. Per unit length when the domain has an invariant axis (2D).
 /// Power in each propagating diffraction order of a plane_wave's Bloch cell, in reflection and
-/// transmission (solver/diffraction_orders.h): taken on the run's reflected and transmitted planes
+/// transmission (solver/outputs/diffraction_orders.h): taken on the run's reflected and transmitted planes
 /// at the plane wave's frequencies, so it needs a plane_wave and nothing else.
 struct OrdersSpec {
   std::string name;

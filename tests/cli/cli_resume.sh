@@ -1,7 +1,7 @@
 #!/bin/bash
 # `yeegap run` stopped by SIGTERM at about half-way and finished with `--resume` writes a results
 # file whose every dataset and attribute equals an uninterrupted run's, bit for bit (apart from the
-# run-time figures and provenance listed in io/README.md, "Checkpoints"). Also: exit code 3 with a
+# run-time figures and provenance listed in docs/results_file.md, "Checkpoints"). Also: exit code 3 with a
 # checkpoint and partial results after the signal; periodic checkpoints that change no result; the
 # checkpoint removed once the run is done; a mismatched scene, a truncated checkpoint, a missing
 # checkpoint and a bad --checkpoint-every refused with exit code 2 and a message naming the file.

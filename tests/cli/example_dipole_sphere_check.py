@@ -2,7 +2,7 @@
 """Runs a coarse version of examples/dipole_near_sphere.yaml end to end and checks physics that
 holds at any resolution: the sphere is lossless, so the power leaving a box around the dipole alone
 equals the power leaving a box around dipole and sphere (Poynting's theorem), to 1 %; and the
-results file has the documented layout (io/README.md).
+results file has the documented layout (docs/results_file.md).
 Usage: example_dipole_sphere_check.py YEEGAP_BINARY SOURCE_DIR"""
 import json
 import os

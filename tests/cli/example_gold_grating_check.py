@@ -3,7 +3,7 @@
 resolution: the reflected orders split the flux-based reflectance (their sum equals R within 1e-3:
 the same planes, Parseval), R + T + A = 1 by construction of A, every reported order obeys the
 grating equation sin(theta_m) = sin(theta_0) + m lambda / period (Petit (ed.), Electromagnetic
-Theory of Gratings, 1980, ch. 1), the results file has the documented layout (io/README.md), and
+Theory of Gratings, 1980, ch. 1), the results file has the documented layout (docs/results_file.md), and
 `yeegap view` draws the orders figure.
 Usage: example_gold_grating_check.py YEEGAP_BINARY SOURCE_DIR"""
 import os

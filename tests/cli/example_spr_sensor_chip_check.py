@@ -5,7 +5,7 @@ Principles of Optics, 7th ed., 1999, sec. 1.6: characteristic matrix of a layere
 permittivities the program itself reports for its library entries at 632.8 nm (`yeegap materials
 show`): both curves, after and before binding, within 0.01 in R (the tolerance of the Kretschmann
 check), the binding shift within 5 % of the transfer-matrix one, the printed figures, the results
-layout (io/README.md) and the R(theta) figure of `--plot`.
+layout (docs/results_file.md) and the R(theta) figure of `--plot`.
 Usage: example_spr_sensor_chip_check.py YEEGAP_BINARY SOURCE_DIR"""
 import json
 import os
@@ -30,7 +30,7 @@ def library_eps(name):
 
 
 def tmm_r(theta_deg, layers, eps_exit):
-    """p-polarised |r|^2 of prism / layers (eps, thickness) / exit medium (characteristic matrix)."""
+    """p-polarized |r|^2 of prism / layers (eps, thickness) / exit medium (characteristic matrix)."""
     k0 = 2 * np.pi / WAVELENGTH
     kx = N_PRISM * k0 * np.sin(np.radians(theta_deg))
 

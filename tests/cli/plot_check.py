@@ -1,6 +1,6 @@
 #!/usr/bin/python3
 """The plot script (tools/plot/yeegap_plot.py) and the commands that run it, headless:
-- on a small results file made here with h5py (io/README.md layout; graded grid, one dipole in a
+- on a small results file made here with h5py (docs/results_file.md layout; graded grid, one dipole in a
   background of index 1.33, two flux outputs, a probe, a plane and a volume field map, cross sections and a far field) it writes
   every expected PNG and SVG; each PNG has the fixed size and is not blank (many distinct colours,
   and coloured pixels, which axes and text alone do not have);

@@ -1,5 +1,5 @@
 """Every dataset and attribute of two results files, compared byte for byte, except the run-time
-figures and provenance that io/README.md ("Checkpoints") lists as differing between runs. Also
+figures and provenance that docs/results_file.md ("Checkpoints") lists as differing between runs. Also
 checks that the first file's run stopped for the expected reason after enough steps, so that a
 comparison of two runs that stopped early cannot pass.
 Usage: same_results.py REFERENCE.h5 OTHER.h5 STOP_REASON MIN_STEPS   (exit 1 on any difference)"""

@@ -1,6 +1,6 @@
 #!/usr/bin/python3
 """ParaView reads what `yeegap view` writes: a small results file on a graded grid (made here with
-h5py in the layout of io/README.md: a material map, a plane field map at two wavelengths and a
+h5py in the layout of docs/results_file.md: a material map, a plane field map at two wavelengths and a
 volume field map) gets its sidecar from `yeegap view --no-plots`, and ParaView's own XDMF 3 readers
 (Xdmf3ReaderT, which keeps grid names, and Xdmf3ReaderS, which ParaView picks by default) open it.
 Checked against h5py: the graded node coordinates, the cell-centred material map, and every
@@ -46,7 +46,7 @@ MAPS = {"xz_plane": (X, Y[2:3], Z), "volume": (X[1:5], Y[1:4], Z)}
 
 
 def fixed(strings):
-    """Fixed-length ASCII strings, as io/README.md says every string is stored."""
+    """Fixed-length ASCII strings, as docs/results_file.md says every string is stored."""
     return np.array([s.encode() for s in strings])
 
 

@@ -132,7 +132,7 @@ with tempfile.TemporaryDirectory() as work:
                 check(cell >= 0 and names[m[cell]] == want,
                       f"cell at {np.array(point) / NM} nm is {names[m[cell]] if cell >= 0 else 'not found'}, want {want}")
             # Every cell: gold exactly where its centre (from ParaView's coordinates) lies inside the
-            # 4 nm sphere (the map holds the material at each cell centre, io/README.md).
+            # 4 nm sphere (the map holds the material at each cell centre, docs/results_file.md).
             cx, cy, cz = (0.5 * (c[1:] + c[:-1]) for c in xyz)
             r = np.sqrt(cz[:, None, None] ** 2 + cy[None, :, None] ** 2 + cx[None, None, :] ** 2) / NM
             gold = m.reshape(r.shape) == names.index("gold")

@@ -1,4 +1,4 @@
-// Fuzzes the --set overrides (io/overrides.h) with the reading they feed, so the path walk and the
+// Fuzzes the --set overrides (io/scene/overrides.h) with the reading they feed, so the path walk and the
 // messages that point at an override (it has no line in the file) are both exercised. Input: one
 // override per line up to the first empty line, then the scene; with no empty line, all lines are
 // overrides on a small built-in scene with a list of bodies, materials and outputs.
@@ -9,7 +9,7 @@
 #include <vector>
 
 #include "fuzz_support.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
 #include "scene_dir.h"
 
 namespace {

@@ -1,4 +1,4 @@
-// Fuzzes reading a whole scene from YAML text (io/scene_reader.h), the program's main user input.
+// Fuzzes reading a whole scene from YAML text (io/scene/scene_reader.h), the program's main user input.
 // Every mistake must come back as a SceneError or RunError; a sweep scene is also read at its first
 // and last point, which runs the ${name} substitution and its column bookkeeping.
 #include <cstddef>
@@ -6,8 +6,8 @@
 #include <string>
 
 #include "fuzz_support.h"
-#include "io/scene_reader.h"
-#include "io/sweep_expand.h"
+#include "io/scene/scene_reader.h"
+#include "io/sweep/sweep_expand.h"
 #include "scene_dir.h"
 
 namespace {

@@ -1,4 +1,4 @@
-// Checkpoint and resume of a Bloch run (solver/bloch_run.h): the real and imaginary parts of the
+// Checkpoint and resume of a Bloch run (solver/runs/bloch_run.h): the real and imaginary parts of the
 // complex fields and the incident problem's two parts are four Simulations, checkpointed together.
 // A plane wave at 30 degrees on a glass film over a Drude metal, stopped at half-way, written,
 // read into a fresh BlochRun and finished: reflectance, transmittance and every recorder equal the
@@ -18,9 +18,9 @@
 
 #include "base/constants.h"
 #include "geometry/shapes.h"
-#include "io/checkpoint.h"
-#include "solver/angle_scan.h"
-#include "solver/bloch_run.h"
+#include "io/results/checkpoint.h"
+#include "solver/runs/angle_scan.h"
+#include "solver/runs/bloch_run.h"
 
 namespace fs = std::filesystem;
 using namespace yeegap;
@@ -59,7 +59,7 @@ Scene film_scene() {
   w.axis = 2;
   w.sign = +1;
   w.angle = 30 * constants::pi / 180;
-  w.p_polarised = true;
+  w.p_polarized = true;
   w.waveform.omega_min = omega_of(700 * nm);
   w.waveform.omega_max = omega_of(500 * nm);
   w.omegas = {omega_of(550 * nm), omega_of(650 * nm)};

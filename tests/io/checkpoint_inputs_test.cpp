@@ -1,4 +1,4 @@
-// Checkpoints refuse to resume once a file the scene reads besides itself has changed (io/checkpoint.h,
+// Checkpoints refuse to resume once a file the scene reads besides itself has changed (io/results/checkpoint.h,
 // io/file_hash.h): a scene with an n,k table and an STL mesh beside it is checkpointed; the same
 // files resume, an edited table or mesh is refused with a message naming the file and its scene key.
 // The hash is FNV-1a 64; its test vectors below are those published with the algorithm (from memory,
@@ -12,10 +12,10 @@
 #include <string>
 
 #include "base/errors.h"
-#include "io/checkpoint.h"
+#include "io/results/checkpoint.h"
 #include "io/file_hash.h"
-#include "io/scene_reader.h"
-#include "solver/simulation.h"
+#include "io/scene/scene_reader.h"
+#include "solver/engine/simulation.h"
 
 namespace fs = std::filesystem;
 using namespace yeegap;

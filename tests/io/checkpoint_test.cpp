@@ -1,10 +1,10 @@
-// Checkpoint and resume (io/checkpoint.h, solver/simulation_state.h): a small scene with every
+// Checkpoint and resume (io/results/checkpoint.h, solver/engine/simulation_state.h): a small scene with every
 // stateful part of the time loop (a dispersive gold sphere, CPML on all faces, a TFSF box, a
 // dipole, probes of E and H, a field map, a flux box, cross sections, a far field and a decay rate)
 // is stopped at about half-way, written to a checkpoint, read into a fresh Simulation and finished;
 // every result must equal the uninterrupted run's bit for bit. Damaged and mismatched checkpoints
 // are refused with the file's name and what differs.
-#include "io/checkpoint.h"
+#include "io/results/checkpoint.h"
 
 #include <fmt/format.h>
 #include <gtest/gtest.h>
@@ -22,8 +22,8 @@
 #include <vector>
 
 #include "base/errors.h"
-#include "io/scene_reader.h"
-#include "solver/simulation.h"
+#include "io/scene/scene_reader.h"
+#include "solver/engine/simulation.h"
 
 namespace fs = std::filesystem;
 using namespace yeegap;

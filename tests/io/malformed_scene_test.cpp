@@ -8,7 +8,8 @@
 #include <gtest/gtest.h>
 
 #include "base/errors.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
+#include "scene_refusal.h"
 
 namespace {
 
@@ -21,13 +22,8 @@ struct Failure {
 };
 
 Failure failure_of(const std::string& text, const std::vector<std::string>& overrides = {}) {
-  try {
-    read_scene_text(text, "bad.yaml", overrides);
-  } catch (const yeegap::SceneError& e) {
-    return {e.what(), e.where()};
-  }
-  ADD_FAILURE() << "the scene was accepted:\n" << text;
-  return {};
+  const yeegap::SceneError e = yeegap::io::testing::refusal_of([&] { read_scene_text(text, "bad.yaml", overrides); }, text);
+  return {e.what(), e.where()};
 }
 
 // The message starts with the place, so a reader sees "bad.yaml:LINE:COL: ..." first.

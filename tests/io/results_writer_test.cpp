@@ -1,7 +1,7 @@
 // Round trip of io/results_writer: a small hand-made RunResults (a probe, a 2-frequency field map on
 // 3 x 4 x 1 nodes, a closed flux box) is written and read back with the plain HDF5 C API, so the
 // checks see the file as any other reader would. Also: failures never damage an older file.
-#include "io/results_writer.h"
+#include "io/results/results_writer.h"
 
 #include <gtest/gtest.h>
 #include <hdf5.h>

@@ -9,10 +9,11 @@
 
 #include "base/errors.h"
 #include "base/units.h"
-#include "io/pole_block_writer.h"
-#include "io/scene_reader.h"
+#include "io/results/pole_block_writer.h"
+#include "io/scene/scene_reader.h"
 #include "materials/fit.h"
 #include "materials/library.h"
+#include "scene_refusal.h"
 
 namespace {
 
@@ -36,13 +37,7 @@ PoleSet poles_of(const std::string& materials_block) {
 }
 
 std::string failure_of(const std::string& materials_block) {
-  try {
-    poles_of(materials_block);
-  } catch (const yeegap::SceneError& e) {
-    return e.what();
-  }
-  ADD_FAILURE() << "accepted: " << materials_block;
-  return "";
+  return yeegap::io::testing::refusal_of([&] { poles_of(materials_block); }, materials_block).what();
 }
 
 std::complex<double> eps_at_nm(const PoleSet& p, double nm) {

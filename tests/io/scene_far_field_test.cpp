@@ -1,4 +1,4 @@
-// The far_field and decay_rate outputs as read from a scene (io/scene_outputs.cpp, docs/scene.md):
+// The far_field and decay_rate outputs as read from a scene (io/scene/scene_outputs.cpp, docs/scene.md):
 // defaults, angle units, grids and lists of directions, collection cones, and the mistakes the
 // reader refuses with the place and what was expected.
 #include <cmath>
@@ -9,7 +9,8 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
+#include "scene_refusal.h"
 
 namespace {
 
@@ -25,15 +26,7 @@ stop: {decayed: 1e-5}
 outputs:
 )";
 
-std::string failure_of(const std::string& outputs) {
-  try {
-    read_scene_text(head + outputs, "bad.yaml");
-  } catch (const yeegap::SceneError& e) {
-    return e.what();
-  }
-  ADD_FAILURE() << "the scene was accepted:\n" << outputs;
-  return {};
-}
+std::string failure_of(const std::string& outputs) { return yeegap::io::testing::scene_refusal(head + outputs).what(); }
 
 TEST(SceneFarField, ReadsAGridOfAnglesACollectionConeAndADecayRate) {
   const auto s = read_scene_text(head + R"(  - far_field:

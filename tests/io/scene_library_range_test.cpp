@@ -7,7 +7,7 @@
 #include <gmock/gmock.h>
 #include <gtest/gtest.h>
 
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
 
 namespace {
 

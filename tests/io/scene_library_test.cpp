@@ -7,8 +7,9 @@
 #include <gtest/gtest.h>
 
 #include "base/errors.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
 #include "materials/library.h"
+#include "scene_refusal.h"
 
 namespace {
 
@@ -28,15 +29,7 @@ stop: {after: 100 fs}
 )";
 }
 
-yeegap::SceneError failure_of(const std::string& text) {
-  try {
-    read_scene_text(text, "lib.yaml");
-  } catch (const yeegap::SceneError& e) {
-    return e;
-  }
-  ADD_FAILURE() << "the scene was accepted:\n" << text;
-  return yeegap::SceneError({}, "");
-}
+yeegap::SceneError failure_of(const std::string& text) { return yeegap::io::testing::scene_refusal(text, "lib.yaml"); }
 
 TEST(SceneLibrary, LibraryMaterialTakesEveryPoleOfTheEntry) {
   for (const char* name : {"Au", "Au_critical_points", "Ag"}) {

@@ -1,4 +1,4 @@
-// The `orders` output as read from a scene (io/scene_outputs.cpp, docs/scene.md): it takes a name,
+// The `orders` output as read from a scene (io/scene/scene_outputs.cpp, docs/scene.md): it takes a name,
 // needs a plane_wave, and refuses other keys and a second orders output with the place and what
 // was expected.
 #include <string>
@@ -7,7 +7,8 @@
 #include <gtest/gtest.h>
 
 #include "base/errors.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
+#include "scene_refusal.h"
 
 namespace {
 
@@ -27,15 +28,7 @@ stop: {decayed: 1e-6}
 )";
 const std::string wave = "excitation:\n  - plane_wave: {polarization: p, angle: 10 deg, band: {from: 500 nm, to: 700 nm}}\n";
 
-std::string failure_of(const std::string& text) {
-  try {
-    read_scene_text(text, "bad.yaml");
-  } catch (const yeegap::SceneError& e) {
-    return e.what();
-  }
-  ADD_FAILURE() << "the scene was accepted:\n" << text;
-  return {};
-}
+std::string failure_of(const std::string& text) { return yeegap::io::testing::scene_refusal(text).what(); }
 
 TEST(SceneOrders, ReadsANamedOrdersOutputBesideAPlaneWave) {
   const auto s = read_scene_text(head + wave + "outputs:\n  - orders: {name: grating}\n", "good.yaml");

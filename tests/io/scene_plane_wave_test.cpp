@@ -1,5 +1,5 @@
-// The plane_wave excitation and bloch edges as read from a scene (io/scene_plane_wave.cpp,
-// io/scene_domain.cpp, docs/scene.md): defaults, angle units, a band with its table, one wavelength
+// The plane_wave excitation and bloch edges as read from a scene (io/scene/scene_plane_wave.cpp,
+// io/scene/scene_domain.cpp, docs/scene.md): defaults, angle units, a band with its table, one wavelength
 // with an angle scan, and the mistakes the reader refuses with the place and what was expected.
 #include <cmath>
 #include <string>
@@ -9,7 +9,8 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
+#include "scene_refusal.h"
 
 namespace {
 
@@ -32,13 +33,7 @@ excitation:
 )";
 
 std::string failure_of(const std::string& excitation, const std::string& start = head) {
-  try {
-    read_scene_text(start + excitation, "bad.yaml");
-  } catch (const yeegap::SceneError& e) {
-    return e.what();
-  }
-  ADD_FAILURE() << "the scene was accepted:\n" << excitation;
-  return {};
+  return yeegap::io::testing::scene_refusal(start + excitation).what();
 }
 
 TEST(ScenePlaneWave, ReadsBlochEdgesABandAndItsTable) {
@@ -58,7 +53,7 @@ TEST(ScenePlaneWave, ReadsBlochEdgesABandAndItsTable) {
   const auto& w = s.bloch_waves[0];
   EXPECT_EQ(w.axis, 2);
   EXPECT_EQ(w.sign, -1);
-  EXPECT_FALSE(w.p_polarised);
+  EXPECT_FALSE(w.p_polarized);
   EXPECT_NEAR(w.angle, pi / 4, 1e-15);
   EXPECT_NEAR(w.azimuth, 0.5, 1e-15);
   EXPECT_EQ(w.omegas.size(), 9u);
@@ -73,7 +68,7 @@ TEST(ScenePlaneWave, ReadsAnAngleScanAtOneWavelength) {
 )", "ok.yaml");
   const auto& w = s.bloch_waves.at(0);
   EXPECT_EQ(w.sign, +1);  // from: low by default
-  EXPECT_TRUE(w.p_polarised);
+  EXPECT_TRUE(w.p_polarized);
   EXPECT_TRUE(w.single_frequency);
   ASSERT_EQ(w.scan_angles.size(), 81u);
   EXPECT_NEAR(w.scan_angles.front(), 40 * pi / 180, 1e-15);

@@ -11,7 +11,7 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
 
 namespace {
 

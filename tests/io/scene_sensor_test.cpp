@@ -1,4 +1,4 @@
-// The sensor output as read from a scene (io/scene_outputs.cpp, docs/scene.md): the sensing medium
+// The sensor output as read from a scene (io/scene/scene_outputs.cpp, docs/scene.md): the sensing medium
 // by name, delta_n and its default, and the mistakes refused with the place and what was expected.
 #include <string>
 
@@ -6,7 +6,8 @@
 #include <gtest/gtest.h>
 
 #include "base/errors.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
+#include "scene_refusal.h"
 
 namespace {
 
@@ -32,13 +33,7 @@ outputs:
 )";
 
 std::string failure_of(const std::string& outputs, const std::string& start = head) {
-  try {
-    read_scene_text(start + outputs, "bad.yaml");
-  } catch (const yeegap::SceneError& e) {
-    return e.what();
-  }
-  ADD_FAILURE() << "the scene was accepted:\n" << outputs;
-  return {};
+  return yeegap::io::testing::scene_refusal(start + outputs).what();
 }
 
 TEST(SceneSensor, ReadsTheMediumByNameAndDeltaN) {

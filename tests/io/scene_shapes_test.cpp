@@ -11,7 +11,8 @@
 #include <gtest/gtest.h>
 
 #include "base/errors.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
+#include "scene_refusal.h"
 
 namespace {
 
@@ -38,15 +39,7 @@ double d(const yeegap::solver::Scene& s, std::size_t body, Vec3 p_nm) {
   return s.bodies.at(body).shape->signed_distance(nm * p_nm) / nm;
 }
 
-std::string failure_of(const std::string& text) {
-  try {
-    read_scene_text(text, "bad.yaml");
-  } catch (const yeegap::SceneError& e) {
-    return e.what();
-  }
-  ADD_FAILURE() << "accepted:\n" << text;
-  return {};
-}
+std::string failure_of(const std::string& text) { return yeegap::io::testing::scene_refusal(text).what(); }
 
 TEST(SceneShapes, NewShapesReadIntoTheirDistances) {
   const auto s = read_scene_text(scene_with("", R"(

@@ -15,8 +15,9 @@
 
 #include "base/errors.h"
 #include "base/units.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
 #include "materials/pole_set.h"
+#include "scene_refusal.h"
 
 namespace {
 
@@ -81,13 +82,7 @@ class SceneTable : public ::testing::Test {
   }
 
   SceneError failure_of(const std::string& material_block) {
-    try {
-      read(material_block);
-    } catch (const SceneError& e) {
-      return e;
-    }
-    ADD_FAILURE() << "the scene was accepted: " << material_block;
-    return SceneError({}, "");
+    return yeegap::io::testing::refusal_of([&] { read(material_block); }, material_block);
   }
 
   fs::path dir_;

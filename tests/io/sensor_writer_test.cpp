@@ -1,4 +1,4 @@
-// Round trip of the sensor group (io/sensor_writer.h, layout in io/README.md): a sensor result made
+// Round trip of the sensor group (io/results/sensor_writer.h, layout in docs/results_file.md): a sensor result made
 // from two Lorentzian dips is written through write_results and read back with the plain HDF5 C API.
 #include <gtest/gtest.h>
 #include <hdf5.h>
@@ -10,8 +10,8 @@
 #include <vector>
 
 #include "base/constants.h"
-#include "io/results_writer.h"
-#include "solver/reflectance_dip.h"
+#include "io/results/results_writer.h"
+#include "solver/outputs/reflectance_dip.h"
 
 namespace fs = std::filesystem;
 using namespace yeegap;

@@ -7,8 +7,9 @@
 #include <gtest/gtest.h>
 
 #include "base/errors.h"
-#include "io/scene_reader.h"
-#include "io/sweep_expand.h"
+#include "io/scene/scene_reader.h"
+#include "io/sweep/sweep_expand.h"
+#include "scene_refusal.h"
 
 namespace yeegap::io {
 namespace {
@@ -52,15 +53,7 @@ std::pair<int, int> position_of(const std::string& text, const std::string& frag
           1 + static_cast<int>(at - line_start)};
 }
 
-SceneError error_of(const std::function<void()>& f) {
-  try {
-    f();
-  } catch (const SceneError& e) {
-    return e;
-  }
-  ADD_FAILURE() << "no SceneError";
-  return SceneError(Where{}, "");
-}
+SceneError error_of(const std::function<void()>& f) { return testing::refusal_of(f, "(a sweep)"); }
 
 std::vector<std::string> texts(const SweepParameter& p) {
   std::vector<std::string> out;

@@ -14,8 +14,8 @@
 #include "base/constants.h"
 #include "io/h5.h"
 #include "io/h5.h"
-#include "io/sweep_figures.h"
-#include "io/sweep_table.h"
+#include "io/sweep/sweep_figures.h"
+#include "io/sweep/sweep_table.h"
 
 namespace yeegap::io {
 namespace {

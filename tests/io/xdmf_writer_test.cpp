@@ -3,7 +3,7 @@
 // back with the plain C API: the dataset exists, its extents match the declared Dimensions, a
 // field map's slab picks the frequency its grid is named after, and the mesh is the file's own
 // node coordinates. Whether ParaView itself reads the sidecar is tests/cli/viewer_check.py.
-#include "io/xdmf_writer.h"
+#include "io/results/xdmf_writer.h"
 
 #include <gtest/gtest.h>
 #include <hdf5.h>
@@ -20,7 +20,7 @@
 #include <vector>
 
 #include "base/units.h"
-#include "io/results_writer.h"
+#include "io/results/results_writer.h"
 
 namespace fs = std::filesystem;
 using namespace yeegap;

@@ -239,9 +239,9 @@ TEST(MieSphere, RefusesIndexWrittenForTheOtherTimeConventionAndBadSizes) {
 // Cylinder at normal incidence (Bohren & Huffman 1983 ch. 8)
 // ---------------------------------------------------------------------------------------------------
 
-constexpr CylinderPolarisation kBoth[] = {CylinderPolarisation::tm, CylinderPolarisation::te};
+constexpr CylinderPolarization kBoth[] = {CylinderPolarization::tm, CylinderPolarization::te};
 
-const char* name(CylinderPolarisation p) { return p == CylinderPolarisation::tm ? "tm" : "te"; }
+const char* name(CylinderPolarization p) { return p == CylinderPolarization::tm ? "tm" : "te"; }
 
 TEST(MieCylinder, ApproachesRayleighCylinderLimitsAtSmallRadius) {
   // Small-radius limits, derived here from the leading terms of Bohren & Huffman's series (ch. 8;
@@ -250,16 +250,16 @@ TEST(MieCylinder, ApproachesRayleighCylinderLimitsAtSmallRadius) {
   //                          Q_sca = (pi^2 x^3 / 8) |m^2 - 1|^2
   //   te (E across):         a_1 = -i pi x^2 (m^2 - 1)/(4(m^2 + 1)), Q_abs = pi x Im[(m^2 - 1)/(m^2 + 1)],
   //                          Q_sca = (pi^2 x^3 / 4) |(m^2 - 1)/(m^2 + 1)|^2
-  // i.e. a line dipole of polarisability per length pi a^2 (eps - 1) (tm) or 2 pi a^2 (eps - 1)/(eps + 1)
-  // (te, depolarisation 1/2). The next terms are O(|m^2| x^2 ln x) relative: a few 1e-5 at x = 1e-3
+  // i.e. a line dipole of polarizability per length pi a^2 (eps - 1) (tm) or 2 pi a^2 (eps - 1)/(eps + 1)
+  // (te, depolarization 1/2). The next terms are O(|m^2| x^2 ln x) relative: a few 1e-5 at x = 1e-3
   // for |m^2| up to ~5, hence 1e-4.
   const double x = 1e-3;
   const cplx indices[] = {{1.5, 0.0}, {1.5, 1.0}, std::sqrt(cplx(-5.0, 2.0))};
   for (cplx m : indices) {
     const cplx m2 = m * m;
     const cplx ratio = (m2 - 1.0) / (m2 + 1.0);
-    const MieCylinder tm = mie_cylinder(x, m, CylinderPolarisation::tm);
-    const MieCylinder te = mie_cylinder(x, m, CylinderPolarisation::te);
+    const MieCylinder tm = mie_cylinder(x, m, CylinderPolarization::tm);
+    const MieCylinder te = mie_cylinder(x, m, CylinderPolarization::te);
     const double tm_sca = pi * pi * std::pow(x, 3) / 8 * std::norm(m2 - 1.0);
     const double te_sca = pi * pi * std::pow(x, 3) / 4 * std::norm(ratio);
     SCOPED_TRACE(testing::Message() << "m = " << m);
@@ -285,8 +285,8 @@ TEST(MieCylinder, ApproachesRayleighCylinderLimitsAtSmallRadius) {
   const cplx eps(-5.0, 2.0);
   const cplx alpha_tm = pi * radius * radius * (eps - eps_d) / eps_d;
   const cplx alpha_te = 2 * pi * radius * radius * (eps - eps_d) / (eps + eps_d);
-  const auto tm = mie_cylinder_cross_sections(radius, wavelength, eps, CylinderPolarisation::tm, n_d);
-  const auto te = mie_cylinder_cross_sections(radius, wavelength, eps, CylinderPolarisation::te, n_d);
+  const auto tm = mie_cylinder_cross_sections(radius, wavelength, eps, CylinderPolarization::tm, n_d);
+  const auto te = mie_cylinder_cross_sections(radius, wavelength, eps, CylinderPolarization::te, n_d);
   EXPECT_LT(relative_error(tm.absorption, k * alpha_tm.imag()), 1e-4);
   EXPECT_LT(relative_error(te.absorption, k * alpha_te.imag()), 1e-4);
   EXPECT_LT(relative_error(tm.scattering, std::pow(k, 3) * std::norm(alpha_tm) / 4), 1e-4);
@@ -299,7 +299,7 @@ TEST(MieCylinder, LosslessCylinderScattersAllItRemovesAndLossyOneAbsorbs) {
   const double sizes[] = {0.1, 1.0, 5.0, 30.0, 200.0};
   const cplx lossy[] = {{1.5, 0.01}, {1.5, 1.0}, {0.2, 3.0}, {4.0, 0.5}};
   const cplx lossless[] = {{1.33, 0.0}, {0.7, 0.0}, {2.5, 0.0}, {0.0, 2.0}};
-  for (CylinderPolarisation p : kBoth) {
+  for (CylinderPolarization p : kBoth) {
     for (double x : sizes) {
       for (cplx m : lossy) {
         SCOPED_TRACE(testing::Message() << name(p) << ", m = " << m << ", x = " << x);
@@ -365,11 +365,11 @@ cplx j_prime(int n, cplx z) { return 0.5 * (j_integral(n - 1, z) - j_integral(n 
 double y_prime(int n, double x) { return 0.5 * (y_integral(n - 1, x) - y_integral(n + 1, x)); }
 
 // Bohren & Huffman ch. 8, normal incidence, as printed: b_n (case I, tm) and a_n (case II, te).
-cplx direct_coefficient(int n, double x, cplx m, CylinderPolarisation p) {
+cplx direct_coefficient(int n, double x, cplx m, CylinderPolarization p) {
   const double jx = j_integral(n, x).real(), djx = j_prime(n, x).real();
   const cplx h(jx, y_integral(n, x)), dh(djx, y_prime(n, x));
   const cplx jm = j_integral(n, m * x), djm = j_prime(n, m * x);
-  if (p == CylinderPolarisation::tm) return (jm * djx - m * djm * jx) / (jm * dh - m * djm * h);
+  if (p == CylinderPolarization::tm) return (jm * djx - m * djm * jx) / (jm * dh - m * djm * h);
   return (m * djx * jm - jx * djm) / (m * jm * dh - djm * h);
 }
 
@@ -388,13 +388,13 @@ TEST(MieCylinder, IntegralBesselFunctionsAgreeWithStandardLibraryAtRealArgument)
 
 TEST(MieCylinder, SeriesMatchesDirectSummationWithIndependentBesselFunctions) {
   // Derived here by a second, independent method (above): a dielectric, an absorbing and a
-  // metal-like cylinder, both polarisations. Both sides are accurate to ~1e-13, so 1e-9.
+  // metal-like cylinder, both polarizations. Both sides are accurate to ~1e-13, so 1e-9.
   struct Case {
     double x;
     cplx m;
   };
   const Case cases[] = {{3.0, {1.5, 0.0}}, {2.0, {1.5, 0.5}}, {1.5, {0.3, 2.5}}};
-  for (CylinderPolarisation p : kBoth) {
+  for (CylinderPolarization p : kBoth) {
     for (const Case& c : cases) {
       SCOPED_TRACE(testing::Message() << name(p) << ", m = " << c.m << ", x = " << c.x);
       const MieCylinder q = mie_cylinder(c.x, c.m, p);
@@ -427,7 +427,7 @@ TEST(MieCylinder, AbsorptionEqualsPowerDissipatedInside) {
     cplx m;
   };
   const Case cases[] = {{2.0, {1.5, 0.5}}, {1.5, {0.3, 2.5}}};
-  for (CylinderPolarisation p : kBoth) {
+  for (CylinderPolarization p : kBoth) {
     for (const Case& c : cases) {
       SCOPED_TRACE(testing::Message() << name(p) << ", m = " << c.m << ", x = " << c.x);
       const MieCylinder q = mie_cylinder(c.x, c.m, p);
@@ -440,13 +440,13 @@ TEST(MieCylinder, AbsorptionEqualsPowerDissipatedInside) {
             [&](double t) {
               if (t <= 0) return 0.0;  // the integrand vanishes at the axis for every n
               const double jj = std::norm(j_integral(n, mx * t));
-              if (p == CylinderPolarisation::tm) return jj * t;
+              if (p == CylinderPolarization::tm) return jj * t;
               return (std::norm(mx * j_prime(n, mx * t)) + n * n * jj / (t * t)) * t;
             },
             0.0, 1.0);
         total += (n == 0 ? 1 : 2) * std::norm(inside) * radial;
       }
-      const double q_abs = (p == CylinderPolarisation::tm) ? pi * c.x * eps.imag() * total
+      const double q_abs = (p == CylinderPolarization::tm) ? pi * c.x * eps.imag() * total
                                                            : pi * eps.imag() / (c.x * std::norm(eps)) * total;
       std::printf("cylinder %s x = %g, m = %g%+gi: Q_abs %.10f, from the interior field %.10f\n", name(p), c.x,
                   c.m.real(), c.m.imag(), q.q_abs, q_abs);
@@ -456,9 +456,9 @@ TEST(MieCylinder, AbsorptionEqualsPowerDissipatedInside) {
 }
 
 TEST(MieCylinder, RefusesIndexWrittenForTheOtherTimeConvention) {
-  EXPECT_THROW(mie_cylinder(1.0, {1.5, -0.1}, CylinderPolarisation::tm), std::invalid_argument);
-  EXPECT_THROW(mie_cylinder(-1.0, 1.5, CylinderPolarisation::te), std::invalid_argument);
-  EXPECT_THROW(mie_cylinder_cross_sections(50e-9, 500e-9, {-10.0, -1.0}, CylinderPolarisation::te),
+  EXPECT_THROW(mie_cylinder(1.0, {1.5, -0.1}, CylinderPolarization::tm), std::invalid_argument);
+  EXPECT_THROW(mie_cylinder(-1.0, 1.5, CylinderPolarization::te), std::invalid_argument);
+  EXPECT_THROW(mie_cylinder_cross_sections(50e-9, 500e-9, {-10.0, -1.0}, CylinderPolarization::te),
                std::invalid_argument);
 }
 

@@ -33,8 +33,8 @@ TEST(TransferMatrix, SingleInterfaceMatchesFresnelFormulas) {
       const double i = angle * deg, t = std::asin(n1 / n2 * std::sin(i));
       const double rs = (n1 * std::cos(i) - n2 * std::cos(t)) / (n1 * std::cos(i) + n2 * std::cos(t));
       const double rp = (n2 * std::cos(i) - n1 * std::cos(t)) / (n2 * std::cos(i) + n1 * std::cos(t));
-      const StackResponse s = stack_response(interface(n1, n2), omega_633, i, Polarisation::s);
-      const StackResponse p = stack_response(interface(n1, n2), omega_633, i, Polarisation::p);
+      const StackResponse s = stack_response(interface(n1, n2), omega_633, i, Polarization::s);
+      const StackResponse p = stack_response(interface(n1, n2), omega_633, i, Polarization::p);
       EXPECT_NEAR(std::abs(s.r - rs), 0.0, 1e-13) << n1 << " -> " << n2 << " at " << angle;
       EXPECT_NEAR(std::abs(p.r - rp), 0.0, 1e-13) << n1 << " -> " << n2 << " at " << angle;
       EXPECT_NEAR(std::abs(s.t - (1 + rs)), 0.0, 1e-13);
@@ -43,14 +43,14 @@ TEST(TransferMatrix, SingleInterfaceMatchesFresnelFormulas) {
   }
 }
 
-TEST(TransferMatrix, PPolarisedReflectionVanishesAtBrewsterAngle) {
+TEST(TransferMatrix, PPolarizedReflectionVanishesAtBrewsterAngle) {
   // tan(theta_B) = n2/n1 (Born & Wolf 1999, section 1.5.3; Hecht 2002, section 8.6; from memory).
   for (auto [n1, n2] : {std::pair{1.0, 1.5}, std::pair{1.5151, 1.0}}) {
     const double brewster = std::atan(n2 / n1);
-    EXPECT_LT(stack_response(interface(n1, n2), omega_633, brewster, Polarisation::p).R, 1e-28);
-    EXPECT_GT(stack_response(interface(n1, n2), omega_633, brewster, Polarisation::s).R, 1e-3);
-    EXPECT_GT(stack_response(interface(n1, n2), omega_633, brewster - 2 * deg, Polarisation::p).R, 1e-5);
-    EXPECT_GT(stack_response(interface(n1, n2), omega_633, brewster + 2 * deg, Polarisation::p).R, 1e-5);
+    EXPECT_LT(stack_response(interface(n1, n2), omega_633, brewster, Polarization::p).R, 1e-28);
+    EXPECT_GT(stack_response(interface(n1, n2), omega_633, brewster, Polarization::s).R, 1e-3);
+    EXPECT_GT(stack_response(interface(n1, n2), omega_633, brewster - 2 * deg, Polarization::p).R, 1e-5);
+    EXPECT_GT(stack_response(interface(n1, n2), omega_633, brewster + 2 * deg, Polarization::p).R, 1e-5);
   }
 }
 
@@ -58,7 +58,7 @@ TEST(TransferMatrix, BeyondCriticalAngleReflectsEverything) {
   // Total internal reflection from glass to air above asin(1/1.5) = 41.8 degrees (Born & Wolf 1999,
   // section 1.5.4, from memory): |r| = 1 and no power crosses.
   for (double angle : {45.0, 60.0, 85.0})
-    for (Polarisation pol : {Polarisation::s, Polarisation::p}) {
+    for (Polarization pol : {Polarization::s, Polarization::p}) {
       const StackResponse r = stack_response(interface(1.5, 1.0), omega_633, angle * deg, pol);
       EXPECT_NEAR(r.R, 1.0, 1e-13);
       EXPECT_EQ(r.T, 0.0);
@@ -82,7 +82,7 @@ TEST(TransferMatrix, LosslessStacksConserveEnergy) {
   const Multilayer stack = lossless_stack(1.5, 1.33);
   for (double lambda : {400e-9, 633e-9, 1000e-9})
     for (double angle = 0; angle <= 60; angle += 10)
-      for (Polarisation pol : {Polarisation::s, Polarisation::p}) {
+      for (Polarization pol : {Polarization::s, Polarization::p}) {
         const StackResponse r = stack_response(stack, 2 * pi * c0 / lambda, angle * deg, pol);
         EXPECT_NEAR(r.R + r.T, 1.0, 1e-12) << lambda << " " << angle;
         EXPECT_GT(r.T, 0.0);
@@ -90,7 +90,7 @@ TEST(TransferMatrix, LosslessStacksConserveEnergy) {
   // Frustrated total internal reflection: an air gap between two prisms at 60 degrees carries an
   // evanescent wave, yet some power tunnels through and R + T = 1 still holds.
   const Multilayer gap{1.5 * 1.5, {{1.0, 200e-9}}, 1.5 * 1.5};
-  for (Polarisation pol : {Polarisation::s, Polarisation::p}) {
+  for (Polarization pol : {Polarization::s, Polarization::p}) {
     const StackResponse r = stack_response(gap, omega_633, 60 * deg, pol);
     EXPECT_NEAR(r.R + r.T, 1.0, 1e-12);
     EXPECT_GT(r.T, 1e-3);
@@ -106,15 +106,15 @@ TEST(TransferMatrix, QuarterWaveLayerCancelsReflectionAndHalfWaveLayerIsAbsent) 
   const double w = 2 * pi * c0 / lambda;
   const Multilayer quarter{n0 * n0, {{n1 * n1, lambda / (4 * n1)}}, ns * ns};
   const Multilayer half{n0 * n0, {{1.9 * 1.9, lambda / (2 * 1.9)}}, ns * ns};
-  EXPECT_LT(stack_response(quarter, w, 0, Polarisation::s).R, 1e-26);
-  EXPECT_NEAR(stack_response(half, w, 0, Polarisation::p).R, std::pow((ns - n0) / (ns + n0), 2), 1e-13);
+  EXPECT_LT(stack_response(quarter, w, 0, Polarization::s).R, 1e-26);
+  EXPECT_NEAR(stack_response(half, w, 0, Polarization::p).R, std::pow((ns - n0) / (ns + n0), 2), 1e-13);
 }
 
 TEST(TransferMatrix, ThickMetalLayerReflectsLikeItsHalfSpace) {
   // 2 um of gold (eps = -11.785 + 1.256i) lets nothing through (skin depth ~ 30 nm), so the stack
   // reflects as the air/gold interface does.
   const cplx gold(-11.785, 1.256);
-  for (Polarisation pol : {Polarisation::s, Polarisation::p}) {
+  for (Polarization pol : {Polarization::s, Polarization::p}) {
     const StackResponse film = stack_response({1.0, {{gold, 2e-6}}, 1.0}, omega_633, 30 * deg, pol);
     const StackResponse half_space = stack_response({1.0, {}, gold}, omega_633, 30 * deg, pol);
     EXPECT_NEAR(std::abs(film.r - half_space.r), 0.0, 1e-12);
@@ -125,7 +125,7 @@ TEST(TransferMatrix, ThickMetalLayerReflectsLikeItsHalfSpace) {
 
 // Angle of least p reflectance: a 0.01 degree scan, then golden-section refinement.
 std::pair<double, double> resonance(const Multilayer& m) {
-  auto R = [&](double theta) { return stack_response(m, omega_633, theta, Polarisation::p).R; };
+  auto R = [&](double theta) { return stack_response(m, omega_633, theta, Polarization::p).R; };
   double best = 30 * deg;
   for (double a = 30 * deg; a < 89.9 * deg; a += 0.01 * deg)
     if (R(a) < R(best)) best = a;

@@ -11,7 +11,7 @@
 #include "base/constants.h"
 #include "geometry/shapes.h"
 #include "materials/library.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

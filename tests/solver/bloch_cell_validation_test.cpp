@@ -11,8 +11,8 @@
 #include <random>
 
 #include "base/constants.h"
-#include "solver/bloch_halos.h"
-#include "solver/bloch_run.h"
+#include "solver/engine/bloch_halos.h"
+#include "solver/runs/bloch_run.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {
@@ -82,7 +82,7 @@ TEST(BlochHalos, OneCellAxisMakesTheLateralWavenumberExact) {
 }
 
 TEST(BlochCell, EmptyCellCarriesAPureBlochWaveWithPhaseKxLAcrossThePeriod) {
-  // 16 cells of 10 nm along x (period 160 nm), vacuum, s-polarised plane wave at 30 deg, 600 nm.
+  // 16 cells of 10 nm along x (period 160 nm), vacuum, s-polarized plane wave at 30 deg, 600 nm.
   Scene s = testing::vacuum_box({16, 1, 100}, 10 * nm, {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
                                                         EdgeKind::periodic, EdgeKind::absorber, EdgeKind::absorber});
   s.domain.bloch = {true, true, false};
@@ -91,7 +91,7 @@ TEST(BlochCell, EmptyCellCarriesAPureBlochWaveWithPhaseKxLAcrossThePeriod) {
   const double omega = 2 * pi * c0 / (600 * nm);
   BlochWaveSpec w;
   w.angle = 30 * deg;
-  w.p_polarised = false;
+  w.p_polarized = false;
   w.reference_omega = omega;
   w.omegas = {omega};
   w.single_frequency = true;

@@ -11,7 +11,7 @@
 #include "base/constants.h"
 #include "geometry/shapes.h"
 #include "materials/transfer_matrix.h"
-#include "solver/bloch_run.h"
+#include "solver/runs/bloch_run.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {
@@ -51,7 +51,7 @@ BlochWaveSpec wave(double angle, bool p, double lambda_lo, double lambda_hi, std
   w.axis = 2;
   w.sign = +1;
   w.angle = angle;
-  w.p_polarised = p;
+  w.p_polarized = p;
   w.waveform.omega_min = omega_of(lambda_hi);
   w.waveform.omega_max = omega_of(lambda_lo);
   for (double l : lambdas) w.omegas.push_back(omega_of(l));
@@ -88,8 +88,8 @@ TEST(BlochPlaneWave, AirGlassInterfaceGivesFresnelReflectanceForSAndP) {
       const double theta = t.angles[0];
       EXPECT_NEAR(theta, angle_deg * deg, 1e-12);  // the output frequency is the reference one
       const materials::Multilayer m{1.0, {}, 2.25};
-      const auto tmm = materials::stack_response(m, t.omegas[0], theta, p ? materials::Polarisation::p
-                                                                           : materials::Polarisation::s);
+      const auto tmm = materials::stack_response(m, t.omegas[0], theta, p ? materials::Polarization::p
+                                                                           : materials::Polarization::s);
       // Tolerance 1e-3 (physics.md 3.7 check). Yee dispersion at 100 cells per wavelength in
       // glass changes the impedances by about (k h)^2 / 24 = 1.6e-4 relative (Taflove & Hagness
       // 2005, ch. 4), well inside it.
@@ -100,7 +100,7 @@ TEST(BlochPlaneWave, AirGlassInterfaceGivesFresnelReflectanceForSAndP) {
     }
 }
 
-TEST(BlochPlaneWave, PPolarisedReflectionVanishesAtBrewsterAngle) {
+TEST(BlochPlaneWave, PPolarizedReflectionVanishesAtBrewsterAngle) {
   // Brewster's angle tan theta_B = n2 / n1 (Born & Wolf 1999, sec. 1.5.3, from memory): 56.31 deg
   // for air to n = 1.5. At 45 deg R_p = 0.0085 (Fresnel), so the bound below discriminates.
   const double brewster = std::atan(1.5);
@@ -154,8 +154,8 @@ TEST(BlochPlaneWave, SlabAtFixedInPlaneWavevectorMatchesEachFrequencyAtItsOwnAng
       const double theta = std::asin(std::sin(45 * deg) * omega_of(600 * nm) / t.omegas[q]);
       EXPECT_NEAR(t.angles[q], theta, 1e-12);
       const materials::Multilayer m{1.0, {{2.25, 300 * nm}}, 1.0};
-      const auto tmm = materials::stack_response(m, t.omegas[q], theta, p ? materials::Polarisation::p
-                                                                           : materials::Polarisation::s);
+      const auto tmm = materials::stack_response(m, t.omegas[q], theta, p ? materials::Polarization::p
+                                                                           : materials::Polarization::s);
       EXPECT_NEAR(t.reflectance[q], tmm.R, 1e-3) << (p ? "p " : "s ") << lambdas[q] / nm << " nm";
       EXPECT_NEAR(t.transmittance[q], tmm.T, 1e-3);
       spread = std::max(spread, std::abs(tmm.R - t.reflectance.front()));

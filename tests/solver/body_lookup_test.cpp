@@ -1,7 +1,7 @@
 // The binned body lookup gives the same material as testing every body in turn (the region left
 // empty), for random points and for points on shared faces and bin edges, with overlapping bodies,
 // a slab unbounded along two axes and bodies reaching out of the region.
-#include "solver/body_lookup.h"
+#include "solver/media/body_lookup.h"
 
 #include <random>
 

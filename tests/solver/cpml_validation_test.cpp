@@ -9,7 +9,7 @@
 #include <complex>
 
 #include "base/constants.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {
@@ -82,10 +82,10 @@ double oblique_reflection_dB(Vec3 dir, Component comp) {
   return worst_reflection_dB(test, ref, courant_dt(2));
 }
 
-TEST(Cpml, FortyFiveDegreeReflectionBelowMinus60dBForBothPolarisations) {
+TEST(Cpml, FortyFiveDegreeReflectionBelowMinus60dBForBothPolarizations) {
   const double tm = oblique_reflection_dB({0, 0, 1}, Component::Ez);
   const double te = oblique_reflection_dB({1, 0, 0}, Component::Ex);
-  std::printf("45 degrees: worst reflection Ez polarisation %.1f dB, in-plane polarisation %.1f dB\n", tm, te);
+  std::printf("45 degrees: worst reflection Ez polarization %.1f dB, in-plane polarization %.1f dB\n", tm, te);
   EXPECT_LT(tm, -60.0);
   EXPECT_LT(te, -60.0);
 }

@@ -1,7 +1,7 @@
 // Convergence of the 2D dielectric cylinder with E across its axis (TE; tests/solver/
 // dielectric_cylinder_run.h: index 2, radius 50 nm, against the series solution of Bohren &
 // Huffman 1983, ch. 8), staircased, averaged with the diagonal of the Farjadpour et al. (Opt. Lett.
-// 31, 2972 (2006)) tensor only, and with its off-diagonal terms (solver/subcell_cross_terms.h).
+// 31, 2972 (2006)) tensor only, and with its off-diagonal terms (solver/media/subcell_cross_terms.h).
 // Measured RMS errors at 5, 7.07, 10, 14.14, 20 cells per radius:
 //   staircase      6.15  4.70  3.58  2.39  0.87 %
 //   diagonal only  2.03  1.60  1.27  0.90  0.70 %   (first order: 0.77 fitted)
@@ -20,7 +20,7 @@
 namespace yeegap::solver {
 namespace {
 
-using materials::CylinderPolarisation;
+using materials::CylinderPolarization;
 using testing::dielectric_cylinder_rms_error;
 
 double fitted_order(const std::vector<double>& x, const std::vector<double>& e) {
@@ -37,9 +37,9 @@ TEST(CylinderAveragingConvergence, FullTensorConvergesAtSecondOrderAcrossTheAxis
   const std::vector<double> res{5, 7.07, 10, 14.14, 20};
   std::vector<double> stair, diagonal, full;
   for (double n : res) {
-    stair.push_back(dielectric_cylinder_rms_error(CylinderPolarisation::te, n, false));
-    diagonal.push_back(dielectric_cylinder_rms_error(CylinderPolarisation::te, n, true, 0.5, false));
-    full.push_back(dielectric_cylinder_rms_error(CylinderPolarisation::te, n, true));
+    stair.push_back(dielectric_cylinder_rms_error(CylinderPolarization::te, n, false));
+    diagonal.push_back(dielectric_cylinder_rms_error(CylinderPolarization::te, n, true, 0.5, false));
+    full.push_back(dielectric_cylinder_rms_error(CylinderPolarization::te, n, true));
   }
   std::printf("\n R/cell | staircase %% | diagonal %% | full %%\n");
   for (std::size_t i = 0; i < res.size(); ++i)

@@ -12,7 +12,7 @@
 #include <cstdio>
 
 #include "base/constants.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

@@ -1,4 +1,4 @@
-// Decay rate of a dipole above a perfect mirror (solver/decay_rate.h): the power out of a small box
+// Decay rate of a dipole above a perfect mirror (solver/outputs/decay_rate.h): the power out of a small box
 // around the dipole over the dipole alone, against image theory (physics.md 4.6, derived there from
 // the image dipole; Novotny & Hecht, Principles of Nano-Optics, 2006, ch. 8, from memory for the
 // form), with u = 2 k h:
@@ -13,7 +13,7 @@
 #include <cstdio>
 
 #include "base/constants.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

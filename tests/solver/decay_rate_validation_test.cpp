@@ -1,5 +1,5 @@
-// Decay rate and quantum efficiency of a dipole next to a lossless sphere (solver/decay_rate.h,
-// solver/far_field.h). With no loss anywhere, everything the dipole emits reaches the far field,
+// Decay rate and quantum efficiency of a dipole next to a lossless sphere (solver/outputs/decay_rate.h,
+// solver/outputs/far_field.h). With no loss anywhere, everything the dipole emits reaches the far field,
 // so the radiative rate equals the total rate and the quantum efficiency is 1 (energy
 // conservation; Novotny & Hecht, Principles of Nano-Optics, 2006, sec. 8.5, from memory for the
 // definitions). The tolerance: 1 %. The total rate is taken from a box one cell around the
@@ -13,7 +13,7 @@
 #include "base/constants.h"
 #include "base/errors.h"
 #include "geometry/shapes.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

@@ -11,14 +11,14 @@
 #include "base/constants.h"
 #include "geometry/shapes.h"
 #include "materials/mie_cylinder.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver::testing {
 
 /// `shift` moves the centre by that fraction of a cell along x and y (0.5: half a cell off the nodes);
 /// `cross_terms` false keeps only the diagonal of the averaged tensor (for comparisons).
-inline double dielectric_cylinder_rms_error(materials::CylinderPolarisation pol, double cells_per_radius,
+inline double dielectric_cylinder_rms_error(materials::CylinderPolarization pol, double cells_per_radius,
                                             bool averaging, double shift = 0.5, bool cross_terms = true) {
   using constants::c0;
   using constants::pi;
@@ -39,7 +39,7 @@ inline double dielectric_cylinder_rms_error(materials::CylinderPolarisation pol,
   w.box = {{-65e-9, -65e-9, -1}, {65e-9, 65e-9, 1}};
   w.axis = 0;
   w.sign = +1;
-  w.polarization = pol == materials::CylinderPolarisation::tm ? Vec3{0, 0, 1} : Vec3{0, 1, 0};
+  w.polarization = pol == materials::CylinderPolarization::tm ? Vec3{0, 0, 1} : Vec3{0, 1, 0};
   w.waveform.omega_min = 2 * pi * c0 / 900e-9;
   w.waveform.omega_max = 2 * pi * c0 / 400e-9;
   s.plane_waves.push_back(w);
@@ -59,7 +59,7 @@ inline double dielectric_cylinder_rms_error(materials::CylinderPolarisation pol,
   }
   const double rms = std::sqrt(sum2 / x.omegas.size());
   std::printf("%s, %5.2f cells per radius, shift %.2f, averaging %-13s: RMS %.3f %%\n",
-              pol == materials::CylinderPolarisation::tm ? "TM" : "TE", cells_per_radius, shift,
+              pol == materials::CylinderPolarization::tm ? "TM" : "TE", cells_per_radius, shift,
               averaging ? (cross_terms ? "on" : "diagonal only") : "off", 100 * rms);
   std::fflush(stdout);
   return rms;

@@ -13,7 +13,7 @@
 
 #include "base/constants.h"
 #include "geometry/shapes.h"
-#include "solver/run_scene.h"
+#include "solver/runs/run_scene.h"
 
 namespace yeegap::solver {
 namespace {
@@ -60,7 +60,7 @@ Scene grating_scene(const Grating& g) {
   s.bodies.push_back({geometry::make_box({0, 0, 0.5 * g.depth}, {g.ridge, 1.0, g.depth}), 1, {}, "ridge"});
   BlochWaveSpec w;
   w.angle = g.angle;
-  w.p_polarised = g.p;
+  w.p_polarized = g.p;
   w.reference_omega = omega_of(g.reference);
   w.waveform.omega_min = omega_of(g.lambda_hi);
   w.waveform.omega_max = omega_of(g.lambda_lo);

@@ -2,7 +2,7 @@
 // with subcell averaging (tests/solver/dielectric_sphere_run.h: index 2, radius 50 nm, against Mie
 // theory, Bohren & Huffman 1983). Anisotropic averaging with the full tensor (Farjadpour et al.,
 // Opt. Lett. 31, 2972 (2006), abstract: quadratic convergence for arbitrarily sloped interfaces);
-// ours adds the off-diagonal terms in a symmetric form (solver/subcell_cross_terms.h). The
+// ours adds the off-diagonal terms in a symmetric form (solver/media/subcell_cross_terms.h). The
 // staircase converges at first order with jumps as the surface falls on the grid (common practice).
 // Measured RMS errors at 4, 5, 6.25, 8.33, 12.5 cells per radius (16 absorbing cells):
 //   staircase      2.38  7.02  2.56  3.42  0.123 %  (jumps; fitted 2.65, set by the lucky 12.5)

@@ -14,7 +14,7 @@
 #include "base/constants.h"
 #include "materials/discrete_permittivity.h"
 #include "materials/library.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

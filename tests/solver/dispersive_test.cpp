@@ -1,4 +1,4 @@
-// Storage of the polarisation currents (solver/dispersive.h): only the E locations of dispersive
+// Storage of the polarization currents (solver/media/dispersive.h): only the E locations of dispersive
 // materials hold state, so memory follows the metal volume, not the domain (design.md).
 #include <gtest/gtest.h>
 
@@ -6,8 +6,8 @@
 #include "geometry/shapes.h"
 #include "materials/discrete_permittivity.h"
 #include "materials/library.h"
-#include "solver/material_map.h"
-#include "solver/simulation.h"
+#include "solver/media/material_map.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

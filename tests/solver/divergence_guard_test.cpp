@@ -1,4 +1,4 @@
-// The time loop's guard against diverging fields (solver/time_loop.cpp): a non-finite value or a
+// The time loop's guard against diverging fields (solver/engine/time_loop.cpp): a non-finite value or a
 // runaway growth after the sources have ended stops the run within the guard's interval (50 steps,
 // 20 with a decay stop), with stop_reason "diverged" and a description of where. The faults are
 // injected between two steps through the run's between-steps hook.
@@ -11,7 +11,7 @@
 #include <string>
 
 #include "base/constants.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

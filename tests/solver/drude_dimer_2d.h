@@ -15,7 +15,7 @@
 #include "geometry/shapes.h"
 #include "materials/tunnel_gap_model.h"
 #include "materials/tunnel_presets.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver::testing {

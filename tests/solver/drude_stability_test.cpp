@@ -1,4 +1,4 @@
-// Stability of the Drude/Lorentz pole updates (solver/dispersive.cpp, dispersive_stability.cpp):
+// Stability of the Drude/Lorentz pole updates (solver/media/dispersive.cpp, dispersive_stability.cpp):
 // any damping, as tunnelling-gap cells need (physics.md 1.4: gamma_g can exceed the bulk damping by
 // orders of magnitude), and the Courant bound S^2 < eps_d(pi/dt) derived in
 // dispersive_stability.cpp, checked here against a von Neumann analysis of one Fourier mode
@@ -14,8 +14,8 @@
 #include "base/constants.h"
 #include "base/errors.h"
 #include "materials/library.h"
-#include "solver/dispersive_stability.h"
-#include "solver/simulation.h"
+#include "solver/media/dispersive_stability.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

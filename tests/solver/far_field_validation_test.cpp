@@ -1,4 +1,4 @@
-// Near-to-far-field transform of a point dipole in vacuum (solver/far_field.h, physics.md 3.10).
+// Near-to-far-field transform of a point dipole in vacuum (solver/outputs/far_field.h, physics.md 3.10).
 // References: the Hertzian dipole's far field E_theta = -i eta k I l sin(theta) e^{ikr} / (4 pi r)
 // (exp(-i omega t); Jackson, Classical Electrodynamics, 3rd ed., 1999, sec. 9.2; Balanis, Antenna
 // Theory, 3rd ed., 2005, eq. 4-26a with j -> -i), so dP/dOmega is proportional to sin^2 theta and
@@ -18,7 +18,7 @@
 #include "base/constants.h"
 #include "base/errors.h"
 #include "geometry/shapes.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

@@ -26,11 +26,11 @@ inline Scene film_stack_domain(double step, double below, double above, int abso
   return s;
 }
 
-/// A p-polarised plane wave scanned over `angles` (rad) at one angular frequency: one R, T, A row
+/// A p-polarized plane wave scanned over `angles` (rad) at one angular frequency: one R, T, A row
 /// per angle, each run with a pulse narrowed around omega (the program picks its band).
 inline BlochWaveSpec p_angle_scan(double omega, std::vector<double> angles) {
   BlochWaveSpec w;
-  w.p_polarised = true;
+  w.p_polarized = true;
   w.reference_omega = omega;
   w.omegas = {omega};
   w.single_frequency = true;

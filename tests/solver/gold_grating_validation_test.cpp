@@ -1,4 +1,4 @@
-// A shallow lamellar gold grating at normal incidence, p polarised (E across the grooves): the
+// A shallow lamellar gold grating at normal incidence, p polarized (E across the grooves): the
 // light couples to surface plasmons through the grating's first orders, where
 // k0 sin(theta) + m 2 pi / Lambda = +-Re k_spp, k_spp = k0 sqrt(eps_m eps_d / (eps_m + eps_d))
 // (Raether, Surface Plasmons on Smooth and Rough Surfaces and on Gratings, Springer 1988, ch. 6;
@@ -16,8 +16,8 @@
 #include "base/constants.h"
 #include "geometry/shapes.h"
 #include "materials/library.h"
-#include "solver/reflectance_dip.h"
-#include "solver/run_scene.h"
+#include "solver/outputs/reflectance_dip.h"
+#include "solver/runs/run_scene.h"
 
 namespace yeegap::solver {
 namespace {
@@ -67,7 +67,7 @@ Scene grating_scene(const Grating& g, const std::vector<double>& lambdas, double
   BlochWaveSpec w;
   w.sign = -1;
   w.angle = 0;
-  w.p_polarised = true;  // azimuth 0: E along x, across the ridges
+  w.p_polarized = true;  // azimuth 0: E along x, across the ridges
   w.waveform.omega_min = omega_of(lambda_hi);
   w.waveform.omega_max = omega_of(lambda_lo);
   for (double l : lambdas) w.omegas.push_back(omega_of(l));

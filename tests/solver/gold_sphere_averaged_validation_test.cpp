@@ -1,5 +1,5 @@
 // A gold sphere (radius 30 nm, Rakic gold in water) at 7.5 cells per radius with subcell averaging
-// of the whole tensor (solver/subcell_dispersive_cross_terms.h): the plasmon extinction peak
+// of the whole tensor (solver/media/subcell_dispersive_cross_terms.h): the plasmon extinction peak
 // against Mie theory for the same permittivity model (Bohren & Huffman 1983, ch. 4;
 // tests/solver/gold_sphere_run.h). Measured +0.041 % in wavelength and 1.002 of Mie in height;
 // the diagonal of the averaged tensor alone gave +1.18 % and 0.937, the staircase +0.32 % and 0.906

@@ -1,6 +1,6 @@
 // Convergence of the gold-sphere plasmon peak with the cell size: staircased, averaged with the
 // diagonal of the Farjadpour et al. (Opt. Lett. 31, 2972 (2006)) tensor only, and averaged with the
-// whole tensor (solver/subcell_dispersive_cross_terms.h), against Mie theory for the same
+// whole tensor (solver/media/subcell_dispersive_cross_terms.h), against Mie theory for the same
 // permittivity model (tests/solver/gold_sphere_run.h: radius 30 nm Rakic gold in water, Bohren &
 // Huffman 1983). The geometry issue's check is asserted: the averaged peak-wavelength error at
 // R/cell = 10 below the staircase's at R/cell = 20.

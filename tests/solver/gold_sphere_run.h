@@ -13,7 +13,7 @@
 #include "geometry/shapes.h"
 #include "materials/library.h"
 #include "materials/mie_sphere.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver::testing {
@@ -38,7 +38,7 @@ inline std::pair<double, double> parabolic_peak(const std::vector<double>& x, co
 }
 
 /// How the sphere's surface cells are treated: staircase, the diagonal of the averaged tensor only,
-/// or the whole tensor (solver/subcell_dispersive_cross_terms.h).
+/// or the whole tensor (solver/media/subcell_dispersive_cross_terms.h).
 enum class Averaging { off, diagonal, full };
 inline const char* name(Averaging a) { return a == Averaging::off ? "off" : (a == Averaging::diagonal ? "diagonal" : "full"); }
 

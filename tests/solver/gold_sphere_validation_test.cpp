@@ -14,7 +14,7 @@
 #include "geometry/shapes.h"
 #include "materials/library.h"
 #include "materials/mie_sphere.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

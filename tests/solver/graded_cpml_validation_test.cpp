@@ -13,8 +13,8 @@
 
 #include "base/constants.h"
 #include "geometry/shapes.h"
-#include "solver/mesh_plan.h"
-#include "solver/simulation.h"
+#include "solver/engine/mesh_plan.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

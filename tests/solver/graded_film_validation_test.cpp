@@ -12,7 +12,7 @@
 #include "geometry/shapes.h"
 #include "materials/library.h"
 #include "materials/transfer_matrix.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {
@@ -77,7 +77,7 @@ TEST(GradedFilm, GoldFilmReflectanceOnAGradedMeshWithinHalfAPercentOfTheUniformF
     const double rg = 1 - graded.front[q] / graded_empty.front[q];
     const double ru = 1 - uniform.front[q] / uniform_empty.front[q];
     const materials::Multilayer stack{1.0, {{materials::permittivity(gold, omegas[q]), film_hi - film_lo}}, 1.0};
-    const double rm = materials::stack_response(stack, omegas[q], 0.0, materials::Polarisation::s).R;
+    const double rm = materials::stack_response(stack, omegas[q], 0.0, materials::Polarization::s).R;
     std::printf("%3.0f nm: R graded %.5f, uniform %.5f (%+.3f %%), matrix %.5f\n", 2 * pi * c0 / omegas[q] * 1e9, rg,
                 ru, 100 * (rg / ru - 1), rm);
     EXPECT_NEAR(rg / ru, 1.0, 0.005) << 2 * pi * c0 / omegas[q];
@@ -99,7 +99,7 @@ TEST(GradedFilm, AveragingGivesTheFilmItsThicknessWhenItsFacesAreNodes) {
   const FilmRun empty_off = run_film(true, false, omegas, false), film_off = run_film(true, true, omegas, false);
   for (std::size_t q = 0; q < omegas.size(); ++q) {
     const materials::Multilayer stack{1.0, {{materials::permittivity(gold, omegas[q]), film_hi - film_lo}}, 1.0};
-    const double rm = materials::stack_response(stack, omegas[q], 0.0, materials::Polarisation::s).R;
+    const double rm = materials::stack_response(stack, omegas[q], 0.0, materials::Polarization::s).R;
     const double r_on = 1 - film_on.front[q] / empty_on.front[q], r_off = 1 - film_off.front[q] / empty_off.front[q];
     std::printf("%3.0f nm: R averaged %.5f, staircased %.5f, matrix %.5f\n", 2 * pi * c0 / omegas[q] * 1e9, r_on,
                 r_off, rm);

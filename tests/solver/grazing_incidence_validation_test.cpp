@@ -4,7 +4,7 @@
 // and a bare glass/water face beyond its critical angle (61.5 deg), where Fresnel gives R = 1,
 // T = 0 exactly. Tolerances from the issue: R within 0.005 at 80-85 deg; T within 1e-4 and not
 // negative. Before the absorbing layers were designed for the angle their waves arrive at
-// (solver/absorber_angle.h), the layer returned R(0)^cos(theta) of the wave (4 % in amplitude at
+// (solver/engine/absorber_angle.h), the layer returned R(0)^cos(theta) of the wave (4 % in amplitude at
 // 80 deg) and R was off by +0.036 at 80 deg and +0.086 at 82 deg with 5 nm cells; and with the
 // angle alone taken into account, an evanescent field reaching the layer 3.5 deg beyond the
 // critical angle gave R = 1.0013, T = -1.3e-3 (now 1.00000 and 3e-8: the layer's stretch kappa
@@ -20,7 +20,7 @@
 #include "materials/pole_set.h"
 #include "materials/transfer_matrix.h"
 #include "film_stack_scene.h"
-#include "solver/angle_scan.h"
+#include "solver/runs/angle_scan.h"
 
 namespace yeegap::solver {
 namespace {
@@ -61,7 +61,7 @@ double tmm_R(bool with_gold, double theta) {
   m.eps_incident = glass_n * glass_n;
   if (with_gold) m.layers.push_back({materials::permittivity(materials::find_material("Au")->poles, omega0), 50 * nm});
   m.eps_exit = water_n * water_n;
-  return materials::stack_response(m, omega0, theta, materials::Polarisation::p).R;
+  return materials::stack_response(m, omega0, theta, materials::Polarization::p).R;
 }
 
 void expect_transfer_matrix(double step, bool with_gold, const std::vector<double>& angles_deg, double film_step = 0) {

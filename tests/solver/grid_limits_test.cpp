@@ -1,4 +1,4 @@
-// Grid sizes that cannot be held are refused before anything is allocated (solver/grid.h):
+// Grid sizes that cannot be held are refused before anything is allocated (solver/engine/grid.h):
 // cell counts are formed in double, so a slip of units neither wraps an int (a 42.95 m domain at
 // 10 nm used to become 100 cells of 0.43 m) nor the 64-bit array size (4,194,302 nm at 1 nm wrote
 // out of bounds). Both the uniform and the graded route are checked.
@@ -7,8 +7,8 @@
 #include <string>
 
 #include "base/errors.h"
-#include "solver/mesh_plan.h"
-#include "solver/simulation.h"
+#include "solver/engine/mesh_plan.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

@@ -1,12 +1,12 @@
-// GrowthWatch (solver/growth_watch.h) on made-up energy histories: a decay with deep dips (a
-// resonance trading field and polarisation energy) passes, a rebound from a small seed trips it,
+// GrowthWatch (solver/engine/growth_watch.h) on made-up energy histories: a decay with deep dips (a
+// resonance trading field and polarization energy) passes, a rebound from a small seed trips it,
 // round-off noise near zero does not.
 #include <gtest/gtest.h>
 
 #include <cmath>
 
 #include "base/constants.h"
-#include "solver/growth_watch.h"
+#include "solver/engine/growth_watch.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

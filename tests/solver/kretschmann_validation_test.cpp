@@ -1,5 +1,5 @@
 // The Kretschmann film sensor on the grid: glass (n = 1.515) / 50 nm gold / air or water, p
-// polarised, 633 nm, R(theta) from an angle scan of one-dimensional Bloch runs against the
+// polarized, 633 nm, R(theta) from an angle scan of one-dimensional Bloch runs against the
 // transfer-matrix reflectance (Born & Wolf, Principles of Optics, 7th ed., 1999, sec. 1.6;
 // Raether, Surface Plasmons, Springer 1988, ch. 2: the attenuated-total-reflection dip) evaluated
 // with the same permittivity model, the library's Rakic Au (Rakic et al., Appl. Opt. 37, 5271
@@ -18,7 +18,7 @@
 #include "materials/pole_set.h"
 #include "materials/transfer_matrix.h"
 #include "film_stack_scene.h"
-#include "solver/angle_scan.h"
+#include "solver/runs/angle_scan.h"
 
 namespace yeegap::solver {
 namespace {
@@ -46,7 +46,7 @@ materials::Multilayer multilayer(const Stack& k) {
 }
 
 double tmm_R(const Stack& k, double theta) {
-  return materials::stack_response(multilayer(k), omega0, theta, materials::Polarisation::p).R;
+  return materials::stack_response(multilayer(k), omega0, theta, materials::Polarization::p).R;
 }
 
 // Angle (rad) of least TMM reflectance: 0.001 deg scan then golden section.
@@ -68,7 +68,7 @@ double tmm_resonance(const Stack& k, double from, double to) {
 // surface plasmon (1/e depth of its field 330 nm in air, 180 nm in water, physics.md 4.3) is below
 // 1e-5 in intensity at the absorber, whose loss would otherwise widen the dip.
 Scene kretschmann_scene(const Stack& k, double step, std::vector<double> angles) {
-  // Subcell averaging on (solver/subcell_average.h): the tangential E on each film face sees the
+  // Subcell averaging on (solver/media/subcell_average.h): the tangential E on each film face sees the
   // average of its two media; staircased, the dip moved by -0.19 deg at 2 nm cells.
   Scene s = testing::film_stack_domain(step, 200 * nm, 2000 * nm);
   MaterialSpec exit_medium;

@@ -1,6 +1,6 @@
 // The run's grid from a scene: exactly the uniform grid when nothing asks for grading, slab faces
 // on cell edges, refine zones and detected gaps honoured, and the absorbers' actual thickness.
-#include "solver/mesh_plan.h"
+#include "solver/engine/mesh_plan.h"
 
 #include <algorithm>
 #include <cmath>

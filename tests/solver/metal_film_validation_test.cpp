@@ -18,7 +18,7 @@
 #include "materials/discrete_permittivity.h"
 #include "materials/library.h"
 #include "materials/transfer_matrix.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {
@@ -100,7 +100,7 @@ void check_film(const char* library_name) {
     const double T = film.back[q] / empty.back[q];
     const double A = film.absorbed[q] * area / empty.front[q];
     const materials::Multilayer stack{1.0, {{materials::permittivity(entry->poles, w), film_hi - film_lo}}, 1.0};
-    const materials::StackResponse ref = materials::stack_response(stack, w, 0.0, materials::Polarisation::s);
+    const materials::StackResponse ref = materials::stack_response(stack, w, 0.0, materials::Polarization::s);
     std::printf("%s %3.0f nm: R = %.5f (matrix %.5f), T = %.5f (matrix %.5f), A = %.5f (matrix %.5f), R+T+A = %.6f\n",
                 library_name, 2 * pi * c0 / w * 1e9, R, ref.R, T, ref.T, A, ref.A, R + T + A);
     EXPECT_NEAR(R, ref.R, 0.005) << 2 * pi * c0 / w;

@@ -9,7 +9,7 @@
 
 #include "base/constants.h"
 #include "geometry/shapes.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

@@ -8,7 +8,7 @@
 #include <complex>
 
 #include "base/constants.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

@@ -1,7 +1,7 @@
 // Placement notes: a body outside the domain, a bounded body reaching into an absorbing layer and a
 // dipole inside a metal are noted; a slab through the layers, a body well inside and a dipole in
 // the background are not.
-#include "solver/placement_notes.h"
+#include "solver/engine/placement_notes.h"
 
 #include <gtest/gtest.h>
 

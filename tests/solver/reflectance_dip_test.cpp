@@ -1,4 +1,4 @@
-// The dip finder (solver/reflectance_dip.h) on analytic curves whose minimum and half-depth width are
+// The dip finder (solver/outputs/reflectance_dip.h) on analytic curves whose minimum and half-depth width are
 // known in closed form: the single-resonance form R = B |x - z|^2 / |x - p|^2 and its Lorentzian
 // special case (Raether, Surface Plasmons, Springer 1988, ch. 2), a Gaussian dip outside that
 // family, noisy samples, the flags, and the sensitivity and figure of merit of a shifted pair.
@@ -9,7 +9,7 @@
 #include <cstdint>
 #include <vector>
 
-#include "solver/reflectance_dip.h"
+#include "solver/outputs/reflectance_dip.h"
 
 namespace yeegap::solver {
 namespace {

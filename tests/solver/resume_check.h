@@ -8,8 +8,8 @@
 #include <string>
 #include <vector>
 
-#include "solver/simulation.h"
-#include "solver/simulation_state.h"
+#include "solver/engine/simulation.h"
+#include "solver/engine/simulation_state.h"
 
 namespace yeegap::solver::testing {
 

@@ -1,4 +1,4 @@
-// The sensor output's second scan (solver/sensor_scan.h): the raised index is exactly n + delta_n at
+// The sensor output's second scan (solver/runs/sensor_scan.h): the raised index is exactly n + delta_n at
 // the scan frequency for a lossless pole model and for an absorbing one, nothing else changes, and
 // with a transfer-matrix stand-in for the angle-scan engine (Born & Wolf's characteristic matrix)
 // the pair gives the Kretschmann sensitivity found in spr_sensor_validation_test.cpp.
@@ -10,7 +10,7 @@
 #include "base/constants.h"
 #include "base/errors.h"
 #include "materials/library.h"
-#include "solver/sensor_scan.h"
+#include "solver/runs/sensor_scan.h"
 #include "tests/solver/tmm_angle_scan.h"
 
 namespace yeegap::solver {

@@ -1,4 +1,4 @@
-// Direction quadratures (solver/sphere_quadrature.h): the n-point Gauss-Legendre rule integrates
+// Direction quadratures (solver/outputs/sphere_quadrature.h): the n-point Gauss-Legendre rule integrates
 // polynomials up to degree 2n - 1 exactly (Abramowitz & Stegun 1964, 25.4.29), so the sphere rule
 // gives the exact solid angle and exact moments of the direction, and the cone rule the cap's solid
 // angle 2 pi (1 - cos alpha) (elementary geometry).
@@ -7,7 +7,7 @@
 #include <cmath>
 
 #include "base/constants.h"
-#include "solver/sphere_quadrature.h"
+#include "solver/outputs/sphere_quadrature.h"
 
 namespace yeegap::solver {
 namespace {

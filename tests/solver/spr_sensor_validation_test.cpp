@@ -1,5 +1,5 @@
-// Sensor figures of the Kretschmann film sensor (prism / gold film / analyte, p-polarised, 632.8 nm)
-// from the dip finder (solver/reflectance_dip.h) on transfer-matrix angle scans (Born & Wolf,
+// Sensor figures of the Kretschmann film sensor (prism / gold film / analyte, p-polarized, 632.8 nm)
+// from the dip finder (solver/outputs/reflectance_dip.h) on transfer-matrix angle scans (Born & Wolf,
 // Principles of Optics, characteristic matrix), against the physics notes' table (section 4.4, values
 // computed there from three-layer Airy/Fresnel reflectance) and Raether's SPP dispersion relation
 // (Raether, Surface Plasmons, Springer 1988). Gold: Johnson & Christy, Phys. Rev. B 6, 4370 (1972)
@@ -13,7 +13,7 @@
 
 #include "base/constants.h"
 #include "materials/library.h"
-#include "solver/reflectance_dip.h"
+#include "solver/outputs/reflectance_dip.h"
 #include "tests/solver/tmm_angle_scan.h"
 
 namespace yeegap::solver {

@@ -1,4 +1,4 @@
-// Subcell averaging (solver/subcell_average.h): the mixed locations a slab face and a sphere make,
+// Subcell averaging (solver/media/subcell_average.h): the mixed locations a slab face and a sphere make,
 // the response of a mixed location against the anisotropic average of Farjadpour et al., Opt. Lett.
 // 31, 2972 (2006), built from the scheme's own discrete permittivities (materials/
 // discrete_permittivity.h), and a long run with averaged gold that stays bounded.
@@ -12,10 +12,10 @@
 #include "geometry/shapes.h"
 #include "materials/discrete_permittivity.h"
 #include "materials/library.h"
-#include "solver/material_map.h"
-#include "solver/simulation.h"
-#include "solver/simulation_state.h"
-#include "solver/subcell_average.h"
+#include "solver/media/material_map.h"
+#include "solver/engine/simulation.h"
+#include "solver/engine/simulation_state.h"
+#include "solver/media/subcell_average.h"
 #include "resume_check.h"
 #include "test_scenes.h"
 

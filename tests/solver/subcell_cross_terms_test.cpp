@@ -1,4 +1,4 @@
-// Off-diagonal averaging terms between dielectrics (solver/subcell_cross_terms.h): the coupling of
+// Off-diagonal averaging terms between dielectrics (solver/media/subcell_cross_terms.h): the coupling of
 // D_d into E_c equals that of D_c into E_d (a symmetric D->E operator, the condition for a stable
 // update in Werner & Cary, J. Comput. Phys. 226, 1085 (2007), abstract), and high-contrast bodies
 // in a closed lossless box keep their energy over 1e5 steps, with the positivity cap both idle
@@ -14,10 +14,10 @@
 
 #include "base/constants.h"
 #include "geometry/shapes.h"
-#include "solver/material_map.h"
-#include "solver/simulation.h"
-#include "solver/simulation_state.h"
-#include "solver/subcell_average.h"
+#include "solver/media/material_map.h"
+#include "solver/engine/simulation.h"
+#include "solver/engine/simulation_state.h"
+#include "solver/media/subcell_average.h"
 #include "resume_check.h"
 #include "test_scenes.h"
 

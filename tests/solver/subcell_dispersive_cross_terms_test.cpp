@@ -1,4 +1,4 @@
-// Off-diagonal averaging terms at metal interfaces (solver/subcell_dispersive_cross_terms.h): the
+// Off-diagonal averaging terms at metal interfaces (solver/media/subcell_dispersive_cross_terms.h): the
 // D->E operator is symmetric (the response of E_c to a kick of D_d equals that of E_d to a kick of
 // D_c; with passive parts, the condition for a stable update, Werner & Cary, J. Comput. Phys. 226,
 // 1085 (2007), abstract), on a graded mesh in the energy's weights; a face parallel to the grid
@@ -14,13 +14,13 @@
 #include "base/constants.h"
 #include "geometry/shapes.h"
 #include "materials/library.h"
-#include "solver/material_map.h"
-#include "solver/mesh_plan.h"
-#include "solver/mixed_cells.h"
-#include "solver/simulation.h"
-#include "solver/simulation_state.h"
-#include "solver/subcell_average.h"
-#include "solver/subcell_dispersive_cross_terms.h"
+#include "solver/media/material_map.h"
+#include "solver/engine/mesh_plan.h"
+#include "solver/media/mixed_cells.h"
+#include "solver/engine/simulation.h"
+#include "solver/engine/simulation_state.h"
+#include "solver/media/subcell_average.h"
+#include "solver/media/subcell_dispersive_cross_terms.h"
 #include "metal_sphere_box.h"
 #include "resume_check.h"
 #include "test_scenes.h"

@@ -1,4 +1,4 @@
-// Metal spheres with subcell averaging of the whole tensor (solver/subcell_dispersive_cross_terms.h)
+// Metal spheres with subcell averaging of the whole tensor (solver/media/subcell_dispersive_cross_terms.h)
 // in a closed periodic box, 1e5 steps (graded mesh 6e4, lossy gold 5e4): by Poynting's theorem the
 // energy a dipole pulse leaves in a closed box of passive media can only slosh around and fall, so
 // an update that is not passive shows up as growth (the asymmetric coupling of a trial grew
@@ -13,8 +13,8 @@
 
 #include "materials/library.h"
 #include "metal_sphere_box.h"
-#include "solver/simulation.h"
-#include "solver/subcell_average.h"
+#include "solver/engine/simulation.h"
+#include "solver/media/subcell_average.h"
 
 namespace yeegap::solver {
 namespace {

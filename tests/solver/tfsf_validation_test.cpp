@@ -7,7 +7,7 @@
 #include <cmath>
 
 #include "base/constants.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {
@@ -66,7 +66,7 @@ TEST(Tfsf, EmptyBoxLeaksLessThanMinus50dBAlongMinusZ) {
   EXPECT_LT(l.inside_peak, 1.0 + 1e-3);
 }
 
-TEST(Tfsf, EmptyBoxLeaksLessThanMinus50dBAlongPlusXWithObliquePolarisation) {
+TEST(Tfsf, EmptyBoxLeaksLessThanMinus50dBAlongPlusXWithObliquePolarization) {
   const Leak l = empty_box(0, +1, {0, 0.6, 0.8}, Component::Ez);
   std::printf("plane wave along +x, E along (0, 0.6, 0.8): scattered region %.1f dB\n", l.outside_dB);
   EXPECT_LT(l.outside_dB, -50.0);

@@ -1,5 +1,5 @@
 // A thick gold film in the Kretschmann geometry (glass n = 1.515 / 70 nm of the library's Rakic Au
-// / air), p polarised, one broadband run at a fixed in-plane wavevector k_par: the reflectance dip
+// / air), p polarized, one broadband run at a fixed in-plane wavevector k_par: the reflectance dip
 // sits where k_par meets the surface plasmon of the bare gold/air interface,
 // k_spp = k0 sqrt(eps_m eps_d / (eps_m + eps_d)) (Raether, Surface Plasmons on Smooth and Rough
 // Surfaces and on Gratings, Springer 1988, eq. 2.2), up to the film's own shift, which the transfer
@@ -20,8 +20,8 @@
 #include "materials/library.h"
 #include "materials/transfer_matrix.h"
 #include "film_stack_scene.h"
-#include "solver/reflectance_dip.h"
-#include "solver/run_scene.h"
+#include "solver/outputs/reflectance_dip.h"
+#include "solver/runs/run_scene.h"
 
 namespace yeegap::solver {
 namespace {
@@ -48,7 +48,7 @@ double tmm_R(double omega, double k_par) {
   m.layers.push_back({materials::permittivity(gold(), omega), film});
   m.eps_exit = 1.0;
   const double theta = std::asin(c0 * k_par / (n_glass * omega));
-  return materials::stack_response(m, omega, theta, materials::Polarisation::p).R;
+  return materials::stack_response(m, omega, theta, materials::Polarization::p).R;
 }
 
 // Frequency of least TMM reflectance at fixed k_par, by golden section in [lo, hi].
@@ -77,7 +77,7 @@ Scene film_scene(double k_par_angle, double reference, double lambda_lo, double 
   s.bodies.push_back({geometry::make_slab(2, -1.0, 0.0), 1, {}, "prism"});
   s.bodies.push_back({geometry::make_slab(2, 0.0, film), 2, {}, "gold"});
   BlochWaveSpec w;
-  w.p_polarised = true;
+  w.p_polarized = true;
   w.angle = k_par_angle;
   w.reference_omega = omega_of(reference);
   w.waveform.omega_min = omega_of(lambda_hi);

@@ -4,7 +4,7 @@
 #include <omp.h>
 
 #include "geometry/shapes.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
 namespace yeegap::solver {

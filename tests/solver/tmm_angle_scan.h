@@ -16,13 +16,13 @@ struct AngleScan {
 };
 
 inline double tmm_reflectance(const materials::Multilayer& m, double wavelength, double theta_deg,
-                              materials::Polarisation pol = materials::Polarisation::p) {
+                              materials::Polarization pol = materials::Polarization::p) {
   const double omega = 2 * constants::pi * constants::c0 / wavelength;
   return materials::stack_response(m, omega, theta_deg * constants::pi / 180, pol).R;
 }
 
 inline AngleScan tmm_angle_scan(const materials::Multilayer& m, double wavelength, double from_deg, double to_deg,
-                                double step_deg, materials::Polarisation pol = materials::Polarisation::p) {
+                                double step_deg, materials::Polarization pol = materials::Polarization::p) {
   AngleScan s;
   for (int k = 0; from_deg + k * step_deg <= to_deg + 1e-9; ++k) {
     s.theta_deg.push_back(from_deg + k * step_deg);

@@ -8,7 +8,7 @@
 #include <cmath>
 #include <cstring>
 
-#include "solver/yee_kernels.h"
+#include "solver/engine/yee_kernels.h"
 
 namespace yeegap::solver {
 namespace {

@@ -9,7 +9,7 @@
 #include "base/constants.h"
 #include "geometry/shapes.h"
 #include "materials/library.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "tools/benchmark/timing.h"
 
 namespace yeegap::benchmark {

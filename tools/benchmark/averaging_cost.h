@@ -1,6 +1,6 @@
 // What subcell averaging at a metal surface costs per step: a gold sphere in a periodic box of
 // water, stepped staircased, with the diagonal average only, and with the whole averaged tensor
-// (solver/subcell_dispersive_cross_terms.h), timed in the same run as rates of cell updates, so the
+// (solver/media/subcell_dispersive_cross_terms.h), timed in the same run as rates of cell updates, so the
 // figures are ratios on one machine under one load.
 #pragma once
 

@@ -12,7 +12,7 @@
 #include <fmt/format.h>
 
 #include "solver/real.h"
-#include "solver/yee_kernels.h"
+#include "solver/engine/yee_kernels.h"
 #include "tools/benchmark/report.h"
 #include "tools/benchmark/stream_triad.h"
 #include "tools/benchmark/timing.h"

@@ -7,7 +7,7 @@
 #include <cstring>
 
 #include "base/constants.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 #include "tools/benchmark/timing.h"
 
 namespace yeegap::benchmark {
@@ -41,7 +41,7 @@ solver::Scene vacuum_box(int cells) {
   return s;
 }
 
-// Three plane waves, one along each axis with a different polarisation (z: Ex Hy, x: Ey Hz,
+// Three plane waves, one along each axis with a different polarization (z: Ex Hy, x: Ey Hz,
 // y: Ez Hx), one wavelength per domain so they are periodic. Only approximately staggered in
 // time; the benchmark needs non-zero, bounded fields, not a pure travelling wave.
 void fill_plane_waves(solver::Fields& f, int cells) {

@@ -9,10 +9,10 @@
 
 #include "base/errors.h"
 #include "commands.h"
-#include "io/scene_reader.h"
+#include "io/scene/scene_reader.h"
 #include "json.h"
 #include "machine_memory.h"
-#include "solver/run_scene.h"
+#include "solver/runs/run_scene.h"
 
 namespace yeegap::cli {
 

@@ -7,10 +7,10 @@
 #include <functional>
 #include <string>
 
-#include "io/checkpoint.h"
+#include "io/results/checkpoint.h"
 #include "progress.h"
 #include "solver/results.h"
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 
 namespace yeegap::cli {
 

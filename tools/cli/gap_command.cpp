@@ -106,7 +106,7 @@ materials::GapOptions gap_options(const GapOptionsText& o, materials::BarrierKin
 
 materials::BarrierKind parse_barrier(const std::string& word) {
   if (word == "rectangular") return materials::BarrierKind::rectangular;
-  // The scene's words (io/scene_tunnelling.cpp) and their short forms.
+  // The scene's words (io/scene/scene_tunnelling.cpp) and their short forms.
   if (word == "image_rounded" || word == "image") return materials::BarrierKind::image_rounded;
   if (word == "exponential_fit" || word == "fit") return materials::BarrierKind::exponential_fit;
   option_error("--barrier", fmt::format("unknown barrier '{}' (expected rectangular, image_rounded or "

@@ -17,7 +17,7 @@
 #include "base/errors.h"
 #include "base/units.h"
 #include "commands.h"
-#include "io/pole_block_writer.h"
+#include "io/results/pole_block_writer.h"
 #include "io/suggest.h"
 #include "io/units.h"
 #include "json.h"

@@ -2,7 +2,7 @@
 // on stderr. Silent when stderr is not a terminal (logs, batch jobs, pipes).
 #pragma once
 
-#include "solver/simulation.h"
+#include "solver/engine/simulation.h"
 
 namespace yeegap::cli {
 

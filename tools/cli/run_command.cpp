@@ -18,21 +18,21 @@
 #include "base/constants.h"
 #include "base/errors.h"
 #include "commands.h"
-#include "io/checkpoint.h"
-#include "io/results_writer.h"
-#include "io/scene_reader.h"
-#include "io/xdmf_writer.h"
-#include "io/sweep_table.h"
+#include "io/results/checkpoint.h"
+#include "io/results/results_writer.h"
+#include "io/scene/scene_reader.h"
+#include "io/results/xdmf_writer.h"
+#include "io/sweep/sweep_table.h"
 #include "json.h"
 #include "machine_memory.h"
 #include "progress.h"
 #include "checkpointed_run.h"
 #include "run_control.h"
 #include "sensor_report.h"
-#include "solver/angle_scan.h"
-#include "solver/bloch_run.h"
-#include "solver/run_scene.h"
-#include "solver/simulation.h"
+#include "solver/runs/angle_scan.h"
+#include "solver/runs/bloch_run.h"
+#include "solver/runs/run_scene.h"
+#include "solver/engine/simulation.h"
 #include "viewer_outputs.h"
 
 namespace yeegap::cli {
@@ -116,7 +116,7 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
   for (const auto& t : r.reflectance) {
     std::vector<std::string> rows;
     std::fprintf(stderr, "  %s (%s, incident index %.4g)%s: wavelength, angle, R, T, A\n", t.name.c_str(),
-                 t.p_polarised ? "p" : "s", t.incident_index, t.angle_scan ? ", angle scan" : ", each frequency at its own angle");
+                 t.p_polarized ? "p" : "s", t.incident_index, t.angle_scan ? ", angle scan" : ", each frequency at its own angle");
     for (std::size_t q = 0; q < t.omegas.size(); ++q) {
       const double lambda_nm = 2 * constants::pi * constants::c0 / t.omegas[q] * 1e9;
       const double angle_deg = t.angles[q] * 180 / constants::pi;
@@ -276,7 +276,7 @@ void refuse_overwriting_inputs(const std::string& output, const std::string& sce
     }
 }
 
-int run_scene(const RunOptions& o) {
+int execute_run(const RunOptions& o) {
   io::SweepPlan sweep;
   solver::Scene scene;
   if (o.point) {
@@ -448,7 +448,7 @@ void add_run_command(CLI::App& app, int& exit_code, const std::string& command_l
   add_memory_option(*cmd, opts->memory);
   opts->command_line = command_line;
   cmd->callback([opts, &exit_code] {
-    exit_code = guarded([&] { return run_scene(*opts); });
+    exit_code = guarded([&] { return execute_run(*opts); });
   });
 }
 

@@ -5,7 +5,7 @@
 
 #include "base/constants.h"
 #include "json.h"
-#include "solver/reflectance_dip.h"
+#include "solver/outputs/reflectance_dip.h"
 
 namespace yeegap::cli {
 

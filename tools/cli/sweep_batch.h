@@ -5,7 +5,7 @@
 #include <string>
 #include <vector>
 
-#include "io/sweep_expand.h"
+#include "io/sweep/sweep_expand.h"
 
 namespace yeegap::cli {
 

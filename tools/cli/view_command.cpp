@@ -7,7 +7,7 @@
 #include <filesystem>
 
 #include "commands.h"
-#include "io/sweep_table.h"
+#include "io/sweep/sweep_table.h"
 #include "viewer_outputs.h"
 
 namespace yeegap::cli {

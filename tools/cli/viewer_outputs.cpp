@@ -13,7 +13,7 @@
 #include <filesystem>
 #include <vector>
 
-#include "io/xdmf_writer.h"
+#include "io/results/xdmf_writer.h"
 
 extern char** environ;
 

@@ -1,4 +1,4 @@
-// What a person looks at after a run: the XDMF sidecar for ParaView (io/xdmf_writer.h) and the
+// What a person looks at after a run: the XDMF sidecar for ParaView (io/results/xdmf_writer.h) and the
 // figures of tools/plot/yeegap_plot.py (PNG and SVG next to the results file).
 #pragma once
 

@@ -1,4 +1,4 @@
-"""Shared pieces of the yeegap plot script: opening a results file (io/README.md layout, format
+"""Shared pieces of the yeegap plot script: opening a results file (docs/results_file.md layout, format
 yeegap-results version 1), reading its fixed-length strings, naming and saving figures.
 Every figure has the same size in pixels (FIGURE_SIZE_PX), so a check can rely on it."""
 import os
@@ -8,7 +8,7 @@ import h5py
 import matplotlib.pyplot as plt
 
 RESULTS_FORMAT = "yeegap-results"
-RESULTS_VERSION = 1          # the newest format_version this script reads (io/README.md, "Versions")
+RESULTS_VERSION = 1          # the newest format_version this script reads (docs/results_file.md, "Versions")
 DPI = 100
 FIGURE_SIZE_IN = (7.0, 5.6)  # 700 x 560 pixels at DPI
 FIGURE_SIZE_PX = (int(FIGURE_SIZE_IN[0] * DPI), int(FIGURE_SIZE_IN[1] * DPI))
@@ -19,7 +19,7 @@ class NotResults(Exception):
 
 
 def text(value):
-    """An HDF5 string (io/README.md: fixed-length ASCII, which h5py returns as bytes) as str."""
+    """An HDF5 string (docs/results_file.md: fixed-length ASCII, which h5py returns as bytes) as str."""
     if hasattr(value, "decode"):
         return value.decode("utf-8", "replace")
     return str(value)

@@ -1,4 +1,4 @@
-"""Diffraction orders of a plane wave in a Bloch cell (an `orders` output, io/README.md): the
+"""Diffraction orders of a plane wave in a Bloch cell (an `orders` output, docs/results_file.md): the
 reflected and the transmitted orders' efficiencies against vacuum wavelength, one line per order,
 with the sums over the orders of each side. An order exists only where it propagates, so its line
 starts or stops at a Rayleigh anomaly (where it runs along the surface)."""

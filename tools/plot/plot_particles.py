@@ -1,6 +1,6 @@
 """Figures of what a lit particle does: its cross sections against wavelength (the `cross_sections`
 output) and its far-field pattern in polar form (the `far_field` output), one figure each.
-Layout of both groups: io/README.md."""
+Layout of both groups: docs/results_file.md."""
 import numpy as np
 
 from plot_common import DPI, FIGURE_SIZE_IN, new_figure

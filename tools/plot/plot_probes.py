@@ -1,6 +1,6 @@
 """Probe time series of a results file: each recorded component against time in fs, E and H on
 separate panels. H samples are taken half a step before E (the leapfrog), so each component is
-drawn at its own true times: `time` plus its `sample_time_offset` (io/README.md)."""
+drawn at its own true times: `time` plus its `sample_time_offset` (docs/results_file.md)."""
 import numpy as np
 
 from plot_common import new_figure, texts

@@ -1,4 +1,4 @@
-"""Reflectance against angle for a sensor output (io/README.md, kind = sensor): the run's R(theta)
+"""Reflectance against angle for a sensor output (docs/results_file.md, kind = sensor): the run's R(theta)
 and the repeat with the sensing medium's index raised by delta_n, with a binding material also the
 scan before binding (the bound layer replaced by the sensing medium), the dip of each marked
 (resonance angle, minimum, and the full width at half depth as a bar at the half level; definitions

@@ -1,7 +1,7 @@
 """Heat maps of a sweep: a spectrum of every point (its cross sections' extinction, a plane wave's
 reflectance, a flux's power or fraction, a decay rate's total enhancement) over the swept parameter
 (x) and the wavelength (y), one figure per spectrum, with a panel for each value of the other
-parameters (the model of a tunnelling sweep, say). The merged table sweep.h5 (io/README.md,
+parameters (the model of a tunnelling sweep, say). The merged table sweep.h5 (docs/results_file.md,
 "Sweeps") names the points' results files; the spectra are read from them, so keep them beside it.
 An angle scan's reflectance is drawn over the angle instead of the wavelength."""
 import os

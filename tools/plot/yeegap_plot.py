@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""Figures of a yeegap results file (layout: io/README.md), written next to it as PNG and SVG:
+"""Figures of a yeegap results file (layout: docs/results_file.md), written next to it as PNG and SVG:
   <stem>_flux            power of every flux output against wavelength (and relative to the dipole
                          alone when the scene has one dipole)
   <stem>_probe_<name>    each probe's time series

@@ -1,0 +1,39 @@
+// The time loop shared by every kind of run (Simulation, BlochRun): steps until a stop rule holds
+// (a time, a step cap, or the field energy decayed by a factor after the sources have ended),
+// stops a run whose fields diverge (energy not finite, runaway growth after the sources, or growth
+// from a small seed: growth_watch.h), reports progress at most twice a second, and lets the caller
+// stop between steps (checkpoints, signals). The run keeps its own counters; the loop only reads
+// and updates them.
+#pragma once
+
+#include <functional>
+#include <string>
+
+#include "solver/scene.h"
+#include "solver/engine/simulation.h"
+
+namespace yeegap::solver {
+
+struct TimeLoopSetup {
+  const StopSpec& stop;
+  double dt = 0;                   // s
+  double source_end = 0;           // s, when the last source has ended
+  long planned_steps = 0;          // for progress when the stop rule is not a time
+  long long cells = 0;             // per step, for the progress rate
+  long growth_window = 400;        // steps: the envelope window of GrowthWatch (growth_watch.h)
+};
+
+/// The counters a run carries across resumed segments.
+struct TimeLoopCounters {
+  long& step;
+  double& peak_energy;
+  double& last_energy;
+  double& wall_seconds;            // summed over the segments
+  std::string& stop_reason;        // "time", "max_steps", "decayed", "interrupted" or "diverged"
+};
+
+void run_time_loop(const TimeLoopSetup& setup, TimeLoopCounters counters, const std::function<void()>& step,
+                   const std::function<double()>& field_energy, const std::function<void(const Progress&)>& progress,
+                   const std::function<bool()>& between_steps);
+
+}  // namespace yeegap::solver

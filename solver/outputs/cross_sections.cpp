@@ -1,0 +1,78 @@
+// Cross-section recorder (see cross_sections.h).
+#include "solver/outputs/cross_sections.h"
+
+#include <cmath>
+
+#include <fmt/format.h>
+
+#include "base/constants.h"
+#include "base/errors.h"
+
+namespace yeegap::solver {
+
+namespace {
+// Flux boxes sit this many cells from the TFSF surface: the H values a flux face averages lie half
+// a cell either side of it, so two cells keep both wholly on one side.
+constexpr int flux_offset_cells = 2;
+}  // namespace
+
+CrossSectionRecorder::CrossSectionRecorder(const CrossSectionSpec& spec, const Scene& scene, const Grid& g,
+                                           const BlockLayout& L)
+    : spec_(spec) {
+  if (spec.plane_wave < 0 || spec.plane_wave >= static_cast<int>(scene.plane_waves.size()))
+    throw RunError(fmt::format("{}: cross sections need a plane-wave box (a 'tfsf' excitation)", spec.where.location()));
+  const PlaneWaveSpec& w = scene.plane_waves[spec.plane_wave];
+  eta_ = constants::eta0 / std::sqrt(scene.materials[scene.domain.background].poles.eps_inf);
+  FluxSpec inner{spec.name + "_inner", w.box, spec.omegas, spec.where};
+  FluxSpec outer{spec.name + "_outer", w.box, spec.omegas, spec.where};
+  for (int a = 0; a < 3; ++a) {
+    if (g.invariant(a)) {
+      length_ = g.primal(a, 0);
+      per_length_ = true;
+      continue;
+    }
+    const int lo = g.nearest_node(a, w.box.lo[a]), hi = g.nearest_node(a, w.box.hi[a]);
+    if (hi - lo <= 2 * flux_offset_cells)
+      throw RunError(fmt::format("{}: the plane-wave box must be more than {} cells across for cross sections",
+                                 spec.where.location(), 2 * flux_offset_cells));
+    const int margin_lo = scene.domain.edges[2 * a] == EdgeKind::absorber ? scene.domain.absorber.cells : 0;
+    const int margin_hi = scene.domain.edges[2 * a + 1] == EdgeKind::absorber ? scene.domain.absorber.cells : 0;
+    if ((lo - flux_offset_cells - 1 < margin_lo && !(g.mirror_low[a] && lo == 0)) ||
+        hi + flux_offset_cells + 1 > g.n[a] - margin_hi)
+      throw RunError(fmt::format("{}: cross sections need {} free cells between the plane-wave box and the absorber "
+                                 "(axis {})", spec.where.location(), flux_offset_cells + 1, "xyz"[a]));
+    // A box starting on a symmetry plane keeps its flux boxes on the plane (no face there).
+    const bool mirrored = g.mirror_low[a] && lo == 0;
+    inner.region.lo[a] = g.nodes[a][mirrored ? 0 : lo + flux_offset_cells];
+    inner.region.hi[a] = g.nodes[a][hi - flux_offset_cells];
+    outer.region.lo[a] = g.nodes[a][mirrored ? 0 : lo - flux_offset_cells];
+    outer.region.hi[a] = g.nodes[a][hi + flux_offset_cells];
+  }
+  inner_ = std::make_unique<FluxRecorder>(inner, g, L);
+  outer_ = std::make_unique<FluxRecorder>(outer, g, L);
+}
+
+void CrossSectionRecorder::record(const Fields& f, bool electric, const std::vector<Complex>& phase) {
+  inner_->record(f, electric, phase);
+  outer_->record(f, electric, phase);
+}
+
+CrossSectionResult CrossSectionRecorder::result(const std::vector<Complex>& incident) const {
+  CrossSectionResult r;
+  r.name = spec_.name;
+  r.omegas = spec_.omegas;
+  r.per_unit_length = per_length_;
+  const FluxResult in = inner_->result(), out = outer_->result();
+  for (std::size_t q = 0; q < r.omegas.size(); ++q) {
+    const double i0 = std::norm(incident[q]) / (2 * eta_);
+    r.incident_intensity.push_back(i0);
+    // A 2D domain's flux is through one cell of the invariant axis: divide to get per metre.
+    const double sca = out.power[q] / i0 / length_, abs = -in.power[q] / i0 / length_;
+    r.scattering.push_back(sca);
+    r.absorption.push_back(abs);
+    r.extinction.push_back(sca + abs);
+  }
+  return r;
+}
+
+}  // namespace yeegap::solver
