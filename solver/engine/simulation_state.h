@@ -60,7 +60,7 @@ struct StateCounters {
   double wall_seconds = 0;     // s, run time so far (reports only; never changes a result)
 };
 
-class Grid;
+struct Grid;
 
 /// What a checkpoint needs of a run (style.md: an optional ability gets its own small interface).
 /// A run made of several Simulations (the real and imaginary parts of Bloch fields) lists all of
