@@ -165,7 +165,7 @@ struct RunSummary {
   double simulated_time = 0;               // s
   double wall_seconds = 0;
   double cell_updates_per_second = 0;
-  std::string stop_reason;                 // "time", "decayed", "max_steps"; "interrupted" (run's hook);
+  std::string stop_reason;                 // "time", "energy_below", "max_steps"; "interrupted" (run's hook);
                                            // "diverged" (fields not finite or growing without bound)
   double final_energy_fraction = 0;        // field energy at the end / its peak
   double sources_end_time = 0;             // s: when the last source has ended (a pulse's tail, or

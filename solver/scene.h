@@ -21,20 +21,20 @@ inline constexpr std::array<const char*, 6> component_names = {"Ex", "Ey", "Ez",
 
 /// What happens at one face of the domain.
 enum class EdgeKind : std::uint8_t {
-  absorber,  // CPML (Roden & Gedney 2000) inside the domain, backed by a perfect conductor
+  cpml,      // CPML (Roden & Gedney 2000) inside the domain, backed by a perfect conductor
   periodic,  // the field repeats with the domain size
   metal,     // perfect electric conductor: tangential E = 0 on the face
   // A symmetry plane at a low face: the domain stands for itself and its mirror image.
   mirror_even,  // tangential E even (symmetric) across the plane: a magnetic wall, tangential H = 0
   mirror_odd,   // tangential E odd (antisymmetric): an electric wall, tangential E = 0
 };
-inline constexpr std::array<const char*, 5> edge_kind_names = {"absorber", "periodic", "metal", "mirror_even",
+inline constexpr std::array<const char*, 5> edge_kind_names = {"cpml", "periodic", "metal", "mirror_even",
                                                                "mirror_odd"};
 inline constexpr bool is_mirror(EdgeKind k) { return k == EdgeKind::mirror_even || k == EdgeKind::mirror_odd; }
 
 /// CPML grading (physics.md 3.5): sigma(x) = sigma_max (x/d)^m, kappa(x) = 1 + (kappa_max-1)(x/d)^m,
 /// alpha(x) = alpha_max (1 - x/d). sigma_max follows from the target normal-incidence reflection.
-struct AbsorberSpec {
+struct CpmlSpec {
   int cells = 12;                 // layer thickness in cells
   double grading_order = 3.0;     // m
   double reflection = 1e-8;       // target R(0) of the layer for a normal plane wave
@@ -59,10 +59,10 @@ struct DomainSpec {
   Vec3 center;                    // m
   Vec3 step;                      // m, base cell size per axis
   std::array<EdgeKind, 6> edges{};  // faces x-, x+, y-, y+, z-, z+
-  AbsorberSpec absorber;
+  CpmlSpec cpml;
   int background = 0;             // index into Scene::materials
-  double courant_safety = 0.99;   // fraction of the Courant-limit time step
-  double time_step = 0.0;         // s; 0 = courant_safety * limit. Above the limit it is refused.
+  double stability_fraction = 0.99;   // fraction of the Courant-limit time step
+  double time_step = 0.0;         // s; 0 = stability_fraction * limit. Above the limit it is refused.
   std::vector<RefineZone> refine; // zones of finer cells
   int gap_cells = 4;              // cells across each gap between bodies narrower than this many
                                   // base cells; 0 = no gap search
@@ -249,7 +249,7 @@ struct TunnellingSpec {
 
 struct StopSpec {
   double after = 0;               // s; 0 = not set
-  double decayed = 0;             // stop when the field energy falls below this fraction of its peak
+  double energy_below = 0;        // stop when the field energy falls below this fraction of its peak
                                   // after all sources have ended; 0 = not set
   long max_steps = 10'000'000;    // hard cap
 };

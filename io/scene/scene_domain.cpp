@@ -1,5 +1,5 @@
 // The `domain` block: size, centre, base cell step, what happens at each of the six faces, the
-// absorber (CPML) settings, the background material and the time-step controls. Only checks that
+// CPML settings, the background material and the time-step controls. Only checks that
 // need nothing but the scene live here; grid and stability checks are the solver's.
 #include <algorithm>
 #include <cmath>
@@ -17,17 +17,18 @@ using solver::EdgeKind;
 
 // In the order of solver::EdgeKind, then 'bloch': a periodic edge whose copies carry the phase of
 // the in-plane wavevector (set by a plane_wave's angle).
-const std::vector<std::string> edge_words = {"absorber", "periodic", "metal", "mirror_even", "mirror_odd", "bloch"};
+const std::vector<std::string> edge_words = {"cpml", "periodic", "metal", "mirror_even", "mirror_odd", "bloch"};
 constexpr std::size_t bloch_word = 5;
 
 struct Edge {
-  EdgeKind kind = EdgeKind::absorber;
+  EdgeKind kind = EdgeKind::cpml;
   bool bloch = false;
 };
 const char* const axis_names[] = {"x", "y", "z"};
 const char* const face_names[] = {"x_low", "x_high", "y_low", "y_high", "z_low", "z_high"};
 
 Edge read_edge(const Node& v) {
+  if (v.is_scalar() && v.text() == "absorber") v.fail("'absorber' is now called 'cpml' (a convolutional PML)");
   const std::string w = read_word(v, edge_words);
   if (w == edge_words[bloch_word]) return {EdgeKind::periodic, true};
   for (std::size_t i = 0; i < bloch_word; ++i)
@@ -44,7 +45,7 @@ std::array<Edge, 6> read_edges(const Node& v) {
     return edges;
   }
   if (!v.is_map())
-    v.fail(fmt::format("must be one of {} for all faces, or a block such as {{x: periodic, z: absorber}}, got {}",
+    v.fail(fmt::format("must be one of {} for all faces, or a block such as {{x: periodic, z: cpml}}, got {}",
                        fmt::format("{}", fmt::join(edge_words, ", ")), v.found()));
   v.allow({"x", "y", "z", "x_low", "x_high", "y_low", "y_high", "z_low", "z_high"});
   for (int a = 0; a < 3; ++a) {
@@ -63,7 +64,7 @@ std::array<Edge, 6> read_edges(const Node& v) {
   return edges;
 }
 
-void read_absorber(const Node& block, solver::AbsorberSpec& abs) {
+void read_cpml(const Node& block, solver::CpmlSpec& abs) {
   block.allow({"cells", "grading_order", "reflection", "kappa_max", "alpha_max"});
   if (auto cells = block.get("cells")) {
     const long n = read_whole_number(*cells, 1);
@@ -132,7 +133,14 @@ void check_inside_domain(const Node& v, const Vec3& p, const solver::DomainSpec&
 }
 
 void read_domain(const Node& block, solver::Scene& scene) {
-  block.allow({"size", "center", "step", "edges", "absorber", "background", "courant", "time_step", "refine",
+  // Keys renamed in version 1 of the scene format's second wave (#15): say the new word.
+  if (block.is_map() && block.has("absorber"))
+    block.fail_key("absorber", fmt::format("{}.absorber is now {}.cpml (the absorbing layers are a convolutional PML)",
+                                           block.path(), block.path()));
+  if (block.is_map() && block.has("courant"))
+    block.fail_key("courant", fmt::format("{}.courant is now {}.stability_fraction (the time step as a fraction of "
+                                          "the stability limit)", block.path(), block.path()));
+  block.allow({"size", "center", "step", "edges", "cpml", "background", "stability_fraction", "time_step", "refine",
                "gap_cells", "grading", "averaging"});
   solver::DomainSpec& d = scene.domain;
   d.size = read_extent(block.require("size"));
@@ -166,29 +174,29 @@ void read_domain(const Node& block, solver::Scene& scene) {
                                 solver::edge_kind_names[static_cast<int>(d.edges[lo ? 2 * a + 1 : 2 * a])]));
     }
   } else {
-    d.edges.fill(EdgeKind::absorber);
+    d.edges.fill(EdgeKind::cpml);
   }
 
-  if (auto absorber = block.get("absorber")) read_absorber(*absorber, d.absorber);
+  if (auto layers = block.get("cpml")) read_cpml(*layers, d.cpml);
   for (int a = 0; a < 3; ++a) {
-    const int faces = (d.edges[2 * a] == EdgeKind::absorber) + (d.edges[2 * a + 1] == EdgeKind::absorber);
-    const double thickness = faces * d.absorber.cells * d.step[a];
+    const int faces = (d.edges[2 * a] == EdgeKind::cpml) + (d.edges[2 * a + 1] == EdgeKind::cpml);
+    const double thickness = faces * d.cpml.cells * d.step[a];
     // Equal within rounding counts as full: "2 x 40 cells x 5 nm" in a 400 nm domain leaves nothing.
     if (faces > 0 && thickness >= d.size[a] * (1 - 1e-9))
       block.fail(fmt::format("the absorber layers take {} x {} cells x {} = {} along {}, leaving no room in a "
-                             "domain of {}", faces, d.absorber.cells, format_length(d.step[a]),
+                             "domain of {}", faces, d.cpml.cells, format_length(d.step[a]),
                              format_length(thickness), axis_names[a], format_length(d.size[a])));
   }
 
   if (auto background = block.get("background")) d.background = material_index(*background, scene);
   else d.background = builtin_or_defined(builtin_vacuum, scene);
 
-  if (auto courant = block.get("courant")) {
-    d.courant_safety = read_number(*courant);
+  if (auto fraction = block.get("stability_fraction")) {
+    d.stability_fraction = read_number(*fraction);
     // Below a thousandth the run takes a thousand times the steps it needs, and 1e-320 made the
     // step count overflow (found by fuzzing): a slip, not a setting.
-    if (!(d.courant_safety >= 1e-3 && d.courant_safety <= 1))
-      courant->fail(fmt::format("must be a fraction of the Courant limit in [0.001, 1], got '{}'", courant->text()));
+    if (!(d.stability_fraction >= 1e-3 && d.stability_fraction <= 1))
+      fraction->fail(fmt::format("must be a fraction of the stability limit in [0.001, 1], got '{}'", fraction->text()));
   }
   if (auto dt = block.get("time_step")) d.time_step = read_positive_time(*dt);
   if (auto refine = block.get("refine")) read_refine(*refine, d);

@@ -169,14 +169,17 @@ void read_scene_block(const Node& block, solver::Scene& scene) {
 }
 
 void read_stop(const Node& block, solver::Scene& scene) {
-  block.allow({"after", "decayed", "max_steps"});
-  if (!block.has("after") && !block.has("decayed"))
-    block.fail("needs 'after' (a time, e.g. 'after: 200 fs') or 'decayed' (a fraction, e.g. 'decayed: 1e-5'), or both");
+  if (block.is_map() && block.has("decayed"))
+    block.fail_key("decayed", "stop.decayed is now stop.energy_below (stop once the field energy is below this "
+                              "fraction of its peak)");
+  block.allow({"after", "energy_below", "max_steps"});
+  if (!block.has("after") && !block.has("energy_below"))
+    block.fail("needs 'after' (a time, e.g. 'after: 200 fs') or 'energy_below' (a fraction, e.g. 'energy_below: 1e-5'), or both");
   if (auto after = block.get("after")) scene.stop.after = read_positive_time(*after);
-  if (auto decayed = block.get("decayed")) {
-    const double f = read_number(*decayed);
-    if (!(f > 0 && f < 1)) decayed->fail(fmt::format("must be a fraction between 0 and 1, got '{}'", decayed->text()));
-    scene.stop.decayed = f;
+  if (auto below = block.get("energy_below")) {
+    const double f = read_number(*below);
+    if (!(f > 0 && f < 1)) below->fail(fmt::format("must be a fraction between 0 and 1, got '{}'", below->text()));
+    scene.stop.energy_below = f;
   }
   if (auto max_steps = block.get("max_steps")) scene.stop.max_steps = read_whole_number(*max_steps, 1);
   block.done();

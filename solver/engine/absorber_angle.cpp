@@ -36,7 +36,7 @@ std::pair<double, double> source_band(const Scene& s) {
 }  // namespace
 
 FaceDesign absorber_face_design(const Scene& s, const Grid& g, int face, double thickness) {
-  const AbsorberSpec& spec = s.domain.absorber;
+  const CpmlSpec& spec = s.domain.cpml;
   FaceDesign d;
   d.kappa_max = spec.kappa_max;
   const int a = face / 2;

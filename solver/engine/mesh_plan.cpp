@@ -53,7 +53,7 @@ MeshPlan plan_mesh(const Scene& s) {
   q.domain = {d.center - 0.5 * d.size, d.center + 0.5 * d.size};
   q.base_step = d.step;
   q.ratio = d.grading_ratio;
-  for (int f = 0; f < 6; ++f) q.absorber_cells[f] = d.edges[f] == EdgeKind::absorber ? d.absorber.cells : 0;
+  for (int f = 0; f < 6; ++f) q.absorber_cells[f] = d.edges[f] == EdgeKind::cpml ? d.cpml.cells : 0;
   for (int a = 0; a < 3; ++a) q.periodic[a] = d.edges[2 * a] == EdgeKind::periodic;
   for (const RefineZone& z : d.refine) q.zones.push_back({{z.box.lo, z.box.hi}, z.step});
 

@@ -29,10 +29,10 @@ bool bounded(const geometry::Aabb& box) {
 
 // Whether the box reaches into the absorbing layer at face f.
 bool in_layer(const Scene& s, const Grid& g, const geometry::Aabb& box, int f) {
-  if (s.domain.edges[f] != EdgeKind::absorber || s.domain.absorber.cells <= 0) return false;
+  if (s.domain.edges[f] != EdgeKind::cpml || s.domain.cpml.cells <= 0) return false;
   const int a = f / 2;
   const auto& v = g.nodes[a];
-  const auto layer = static_cast<std::size_t>(s.domain.absorber.cells);
+  const auto layer = static_cast<std::size_t>(s.domain.cpml.cells);
   return f % 2 == 0 ? box.lo[a] < v[layer] : box.hi[a] > v[v.size() - 1 - layer];
 }
 

@@ -61,11 +61,11 @@ double choose_time_step(const Scene& s, const Grid& g) {
           s.file, s.domain.time_step, limit, limit));
     return s.domain.time_step;
   }
-  if (!(s.domain.courant_safety > 0 && s.domain.courant_safety <= 1))
-    throw RunError(fmt::format("{}: domain.courant must lie in (0, 1], got {}", s.file, s.domain.courant_safety));
+  if (!(s.domain.stability_fraction > 0 && s.domain.stability_fraction <= 1))
+    throw RunError(fmt::format("{}: domain.stability_fraction must lie in (0, 1], got {}", s.file, s.domain.stability_fraction));
   // Dispersive media tighten the bound a little (dispersive_stability.h): the courant fraction is
   // applied to the tighter of the two limits, so a default scene with metals runs as written.
-  return s.domain.courant_safety * stable_time_step(s.materials, limit);
+  return s.domain.stability_fraction * stable_time_step(s.materials, limit);
 }
 
 void check_scene(const Scene& s, const Grid& g) {
@@ -79,9 +79,9 @@ void check_scene(const Scene& s, const Grid& g) {
       throw RunError(fmt::format("{}: axis {} has {} cell; a bounded axis needs at least 2 (use periodic edges for an "
                                  "invariant direction)", s.file, "xyz"[a], g.n[a]));
     for (int side = 0; side < 2; ++side)
-      if (s.domain.edges[2 * a + side] == EdgeKind::absorber && 2 * s.domain.absorber.cells + 2 > g.n[a])
+      if (s.domain.edges[2 * a + side] == EdgeKind::cpml && 2 * s.domain.cpml.cells + 2 > g.n[a])
         throw RunError(fmt::format("{}: axis {} has {} cells, too few for two absorbing layers of {} cells", s.file,
-                                   "xyz"[a], g.n[a], s.domain.absorber.cells));
+                                   "xyz"[a], g.n[a], s.domain.cpml.cells));
   }
   if (s.materials.empty()) throw RunError(s.file + ": no materials");
   for (const PlaneWaveSpec& p : s.plane_waves) check_plane_wave_box(p, s, g);
@@ -193,9 +193,9 @@ Simulation::Simulation(const Scene& scene)
   gaps_ = gap_cells.report();
 
   std::array<bool, 6> absorbing{};
-  for (int f = 0; f < 6; ++f) absorbing[f] = scene_.domain.edges[f] == EdgeKind::absorber;
+  for (int f = 0; f < 6; ++f) absorbing[f] = scene_.domain.edges[f] == EdgeKind::cpml;
   if (std::any_of(absorbing.begin(), absorbing.end(), [](bool b) { return b; })) {
-    const AbsorberSpec& a = scene_.domain.absorber;
+    const CpmlSpec& a = scene_.domain.cpml;
     const double n_bg = std::sqrt(scene_.materials[scene_.domain.background].poles.eps_inf);
     CpmlProfile p;
     p.cells = a.cells;
@@ -270,8 +270,8 @@ ModelSummary Simulation::plan(const Scene& original) {
   // CPML: four psi arrays per absorbing face over its slab.
   for (int a = 0; a < 3; ++a)
     for (int side = 0; side < 2; ++side)
-      if (scene.domain.edges[2 * a + side] == EdgeKind::absorber)
-        bytes += 4 * sizeof(real) * static_cast<std::size_t>(scene.domain.absorber.cells) * (L.total / (g.n[a] + 2));
+      if (scene.domain.edges[2 * a + side] == EdgeKind::cpml)
+        bytes += 4 * sizeof(real) * static_cast<std::size_t>(scene.domain.cpml.cells) * (L.total / (g.n[a] + 2));
   // Recorders: complex double per sampled point and frequency.
   for (const auto& f : scene.field_maps) {
     std::size_t pts = 1;
@@ -527,9 +527,9 @@ std::string Simulation::describe_largest_field() const {
   // Growth inside the absorbing layers is the absorber's doing (docs/reliability.md row 50): say so.
   std::string layers;
   for (int a = 0; a < 3; ++a) {
-    const int cells = scene_.domain.absorber.cells;
-    const bool low = scene_.domain.edges[2 * a] == EdgeKind::absorber && big[a] < cells;
-    const bool high = scene_.domain.edges[2 * a + 1] == EdgeKind::absorber && big[a] >= L.n[a] - cells;
+    const int cells = scene_.domain.cpml.cells;
+    const bool low = scene_.domain.edges[2 * a] == EdgeKind::cpml && big[a] < cells;
+    const bool high = scene_.domain.edges[2 * a + 1] == EdgeKind::cpml && big[a] >= L.n[a] - cells;
     if (low || high) layers += std::string(layers.empty() ? "" : " and ") + "xyz"[a];
   }
   if (!layers.empty()) layers = ", inside the absorbing layers of " + layers;

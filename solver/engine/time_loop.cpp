@@ -44,7 +44,7 @@ void run_time_loop(const TimeLoopSetup& setup, TimeLoopCounters c, const std::fu
     const long n = c.step;
     if (after_steps >= 0 && n >= after_steps) c.stop_reason = "time";
     else if (n >= st.max_steps) c.stop_reason = "max_steps";
-    else if ((st.decayed > 0 && n % energy_interval == 0) || n % guard_interval == 0) {
+    else if ((st.energy_below > 0 && n % energy_interval == 0) || n % guard_interval == 0) {
       c.last_energy = field_energy();
       const bool sources_over = n * setup.dt > setup.source_end;
       if (!std::isfinite(c.last_energy) ||
@@ -53,8 +53,8 @@ void run_time_loop(const TimeLoopSetup& setup, TimeLoopCounters c, const std::fu
       } else {
         c.peak_energy = std::max(c.peak_energy, c.last_energy);
         if (sources_over && growth.add(n, c.last_energy, c.peak_energy)) c.stop_reason = "diverged";
-        else if (st.decayed > 0 && sources_over && c.peak_energy > 0 && c.last_energy < st.decayed * c.peak_energy)
-          c.stop_reason = "decayed";
+        else if (st.energy_below > 0 && sources_over && c.peak_energy > 0 && c.last_energy < st.energy_below * c.peak_energy)
+          c.stop_reason = "energy_below";
       }
     }
     if (progress && (n & 15) == 0) {

@@ -29,7 +29,7 @@ struct TimeLoopCounters {
   double& peak_energy;
   double& last_energy;
   double& wall_seconds;            // summed over the segments
-  std::string& stop_reason;        // "time", "max_steps", "decayed", "interrupted" or "diverged"
+  std::string& stop_reason;        // "time", "max_steps", "energy_below", "interrupted" or "diverged"
 };
 
 void run_time_loop(const TimeLoopSetup& setup, TimeLoopCounters counters, const std::function<void()>& step,

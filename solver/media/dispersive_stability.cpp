@@ -19,7 +19,7 @@
 // So the bound is S^2 < eps_d(pi/dt). Vacuum gives S <= 1; one Drude pole with eps_inf = 1 gives
 // dt < dt_c / sqrt(1 + (wp dt_c/2)^2). The damping does not enter, so per-cell gap damping leaves
 // the bound as it is. For Au (Rakic 1998) at 1 nm cells in 3D the bound is S < 0.9995; at 5 nm it
-// is S < 0.987, so a coarse metal scene needs a lower domain.courant.
+// is S < 0.987, so a coarse metal scene needs a lower domain.stability_fraction.
 #include "solver/media/dispersive_stability.h"
 
 #include <cmath>
@@ -146,7 +146,7 @@ void check_dispersive_stability(const Scene& s, double dt, double courant_limit)
     double courant = std::floor(best / courant_limit * 1e4) / 1e4;
     while (courant > 0 && !stable_at(s.materials, courant * courant_limit, courant_limit)) courant -= 1e-4;
     const std::string advice =
-        courant > 0 ? fmt::format("The largest stable time step of this scene is {:.6g} s, i.e. domain.courant at most {:.4f}",
+        courant > 0 ? fmt::format("The largest stable time step of this scene is {:.6g} s, i.e. domain.stability_fraction at most {:.4f}",
                                   best, courant)
                     : std::string("No time step makes it stable; check the material's parameters");
     throw RunError(fmt::format("{}: material '{}' is unstable at the time step {:.6g} s: {}. {} "

@@ -35,8 +35,8 @@ CrossSectionRecorder::CrossSectionRecorder(const CrossSectionSpec& spec, const S
     if (hi - lo <= 2 * flux_offset_cells)
       throw RunError(fmt::format("{}: the plane-wave box must be more than {} cells across for cross sections",
                                  spec.where.location(), 2 * flux_offset_cells));
-    const int margin_lo = scene.domain.edges[2 * a] == EdgeKind::absorber ? scene.domain.absorber.cells : 0;
-    const int margin_hi = scene.domain.edges[2 * a + 1] == EdgeKind::absorber ? scene.domain.absorber.cells : 0;
+    const int margin_lo = scene.domain.edges[2 * a] == EdgeKind::cpml ? scene.domain.cpml.cells : 0;
+    const int margin_hi = scene.domain.edges[2 * a + 1] == EdgeKind::cpml ? scene.domain.cpml.cells : 0;
     if ((lo - flux_offset_cells - 1 < margin_lo && !(g.mirror_low[a] && lo == 0)) ||
         hi + flux_offset_cells + 1 > g.n[a] - margin_hi)
       throw RunError(fmt::format("{}: cross sections need {} free cells between the plane-wave box and the absorber "

@@ -84,9 +84,9 @@ DecayRateRecorder::DecayRateRecorder(const DecayRateSpec& spec, const Scene& sce
     if (on_mirror[a]) lo = 0;
     // Free cells: one beyond the absorbing layer (the flux faces average H over half a cell either
     // side), or one from a metal or periodic face.
-    const int cells = scene.domain.absorber.cells;
-    const int room_lo = on_mirror[a] ? 0 : (scene.domain.edges[2 * a] == EdgeKind::absorber ? cells + 1 : 1);
-    const int room_hi = g.n[a] - (scene.domain.edges[2 * a + 1] == EdgeKind::absorber ? cells + 1 : 1);
+    const int cells = scene.domain.cpml.cells;
+    const int room_lo = on_mirror[a] ? 0 : (scene.domain.edges[2 * a] == EdgeKind::cpml ? cells + 1 : 1);
+    const int room_hi = g.n[a] - (scene.domain.edges[2 * a + 1] == EdgeKind::cpml ? cells + 1 : 1);
     if (lo < room_lo || hi > room_hi)
       throw RunError(fmt::format("{}: the box around the dipole (nodes {} to {} along {}) leaves the free cells {} "
                                  "to {} of the domain; move the dipole away from the face or give a smaller box_size",

@@ -58,7 +58,7 @@ FarFieldRecorder::FarFieldRecorder(const FarFieldSpec& spec, const Scene& scene,
                                  "available yet. Use a flux box around everything for the radiated power.",
                                  who, "xyz"[a]));
   for (int f = 0; f < 6; ++f)
-    if (scene.domain.edges[f] != EdgeKind::absorber)
+    if (scene.domain.edges[f] != EdgeKind::cpml)
       throw RunError(fmt::format("{}: every face of the domain must be an absorber (face {}_{} is not): the "
                                  "transform assumes the background fills all space outside the box, and a metal, "
                                  "periodic or mirror face sends back light it does not see", who, "xyz"[f / 2],
@@ -73,7 +73,7 @@ FarFieldRecorder::FarFieldRecorder(const FarFieldSpec& spec, const Scene& scene,
     throw RunError(fmt::format("{}: the numerical aperture {} must lie between 0 and the background index {}", who,
                                spec.numerical_aperture, index_));
 
-  const int margin = scene.domain.absorber.cells;
+  const int margin = scene.domain.cpml.cells;
   for (int a = 0; a < 3; ++a) {
     int lo = margin + default_margin_cells, hi = g.n[a] - margin - default_margin_cells;
     if (spec.box_given) {

@@ -113,7 +113,7 @@ constexpr int incident_margin = 4;
 // spacing repeated). Sets p.aux_offset (main index - incident index).
 std::vector<double> incident_nodes(const Scene& main, const Grid& g, BlochWavePlan& p) {
   const auto& v = g.nodes[p.axis];
-  const int n = g.n[p.axis], cells = main.domain.absorber.cells;
+  const int n = g.n[p.axis], cells = main.domain.cpml.cells;
   std::vector<double> out;
   if (p.sign > 0) {
     const int last = std::min(n, p.entry + incident_margin);
@@ -234,8 +234,8 @@ Scene BlochRun::prepare(const Scene& original) {
     const BlochWavePlan p = plan_bloch_wave(w, s, g);
     s.domain.bloch_wavevector = p.k_parallel;
     if (w.single_frequency) narrow_band(w, s, norm(p.k_parallel));
-    if (s.domain.absorber.alpha_max == 0)  // the CFS shift Simulation derives from its own sources
-      s.domain.absorber.alpha_max = 0.1 * (w.waveform.omega_min > 0 ? w.waveform.omega_min : w.waveform.omega_max) *
+    if (s.domain.cpml.alpha_max == 0)  // the CFS shift Simulation derives from its own sources
+      s.domain.cpml.alpha_max = 0.1 * (w.waveform.omega_min > 0 ? w.waveform.omega_min : w.waveform.omega_max) *
                                     constants::eps0;
     s.fluxes.push_back(plane_at("reflected", g, p.axis, p.reflected, w.omegas));
     s.fluxes.push_back(plane_at("transmitted", g, p.axis, p.transmitted, w.omegas));
@@ -259,7 +259,7 @@ Scene BlochRun::prepare(const Scene& original) {
     if (s.domain.time_step > limit)
       throw RunError(fmt::format("{}: domain.time_step {:.6g} s is above the limit {:.6g} s with the Bloch wavevector",
                                  s.file, s.domain.time_step, limit));
-    s.domain.time_step = std::min(own, s.domain.courant_safety * limit);
+    s.domain.time_step = std::min(own, s.domain.stability_fraction * limit);
   }
   return s;
 }

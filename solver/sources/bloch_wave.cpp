@@ -62,8 +62,8 @@ BlochWavePlan plan_bloch_wave(const BlochWaveSpec& w, const Scene& s, const Grid
   if (g.periodic[a]) throw RunError(fmt::format("{}: the plane_wave's axis {} must not be periodic", at, "xyz"[a]));
   const DomainSpec& d = s.domain;
   const int n = g.n[a];
-  const int abs_lo = d.edges[2 * a] == EdgeKind::absorber ? d.absorber.cells : 0;
-  const int abs_hi = d.edges[2 * a + 1] == EdgeKind::absorber ? d.absorber.cells : 0;
+  const int abs_lo = d.edges[2 * a] == EdgeKind::cpml ? d.cpml.cells : 0;
+  const int abs_hi = d.edges[2 * a + 1] == EdgeKind::cpml ? d.cpml.cells : 0;
   if ((w.sign > 0 ? abs_lo : abs_hi) == 0 || (w.sign > 0 ? abs_hi : abs_lo) == 0)
     throw RunError(fmt::format("{}: a plane_wave needs absorbing edges at both ends of its axis {}", at, "xyz"[a]));
   p.entry = w.position_given ? g.nearest_node(a, w.position)

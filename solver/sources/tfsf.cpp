@@ -66,8 +66,8 @@ Box place_box(const PlaneWaveSpec& spec, const Scene& scene, const Grid& g, cons
                                    "use E along the plane for mirror_even, across it for mirror_odd",
                                    spec.where.location(), edge_kind_names[static_cast<int>(k)], "xyz"[a]));
     }
-    const int margin = b.open_low[a] ? 0 : (scene.domain.edges[2 * a] == EdgeKind::absorber ? scene.domain.absorber.cells + 1 : 1);
-    const int margin_hi = scene.domain.edges[2 * a + 1] == EdgeKind::absorber ? scene.domain.absorber.cells + 1 : 1;
+    const int margin = b.open_low[a] ? 0 : (scene.domain.edges[2 * a] == EdgeKind::cpml ? scene.domain.cpml.cells + 1 : 1);
+    const int margin_hi = scene.domain.edges[2 * a + 1] == EdgeKind::cpml ? scene.domain.cpml.cells + 1 : 1;
     if (b.lo[a] < margin || b.hi[a] > g.n[a] - margin_hi)
       throw RunError(fmt::format("{}: the plane-wave box must lie inside the domain, clear of the absorbing layers "
                                  "(axis {}: nodes {}..{} allowed, box has {}..{})",

@@ -77,7 +77,7 @@ expect tfsf_dispersive_background 2 "gold_dimer_antenna.yaml:[0-9]+:[0-9]+: .*ba
 cat > "$work/early.yaml" <<'EOF2'
 scene: {version: 1, title: stopped before the pulse arrives}
 materials: {metal: {poles: {eps_inf: 1, drude: [{plasma_frequency: 8 eV, damping: 0.1 eV}]}}}
-domain: {size: [300 nm, 300 nm, 300 nm], step: 10 nm, edges: absorber, absorber: {cells: 6}}
+domain: {size: [300 nm, 300 nm, 300 nm], step: 10 nm, edges: cpml, cpml: {cells: 6}}
 bodies:
   - {shape: sphere, material: metal, center: [0, 0, 0], radius: 20 nm}
 excitation:
@@ -104,12 +104,12 @@ expect staircased_metal_warning 0 "warning +body 0 'left' \(gold\) is a curved o
 cat > "$work/corner.yaml" <<'EOF2'
 scene: {version: 1, title: film through an absorber corner}
 materials: {drude: {poles: {eps_inf: 1, drude: [{plasma_frequency: 9 eV, damping: 0.1 eV}]}}}
-domain: {size: [200 nm, 200 nm, 200 nm], step: 10 nm, edges: {z_low: metal}, absorber: {cells: 6}}
+domain: {size: [200 nm, 200 nm, 200 nm], step: 10 nm, edges: {z_low: metal}, cpml: {cells: 6}}
 bodies:
   - {shape: slab, material: drude, axis: z, from: -1 m, to: -1 nm}
 excitation:
   - dipole: {position: [0, 0, 20 nm], direction: z, band: {from: 450 nm, to: 800 nm}}
-stop: {decayed: 1e-5}
+stop: {energy_below: 1e-5}
 EOF2
 expect absorber_corner_warning 0 "warning +body 0 \(drude\) runs into the absorbing layers of 2 axes \(xy\)" -- "$yeegap" check "$work/corner.yaml"
 

@@ -22,7 +22,7 @@ fail() { echo "FAIL: $*"; failures=$((failures + 1)); }
 # three wavelengths (about 2 MB of results: more than the disk holds).
 cat > "$work/scene.yaml" <<'EOF2'
 scene: {version: 1, title: full disk check}
-domain: {size: [240 nm, 240 nm, 240 nm], step: 10 nm, edges: absorber, absorber: {cells: 6}}
+domain: {size: [240 nm, 240 nm, 240 nm], step: 10 nm, edges: cpml, cpml: {cells: 6}}
 excitation:
   - dipole: {position: [0, 0, 0], direction: z, band: {from: 500 nm, to: 900 nm}}
 outputs:

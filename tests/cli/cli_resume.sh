@@ -24,7 +24,7 @@ scene: {version: 1, title: resume check}
 materials:
   vacuum: {index: 1}
   gold: {library: Au}
-domain: {size: [104 nm, 104 nm, 104 nm], step: 4 nm, edges: absorber, absorber: {cells: 6}}
+domain: {size: [104 nm, 104 nm, 104 nm], step: 4 nm, edges: cpml, cpml: {cells: 6}}
 bodies:
   - {shape: sphere, material: gold, center: [0, 0, 0], radius: 6 nm}
 excitation:

@@ -25,8 +25,8 @@ materials:
 domain:
   size: [10 nm, 10 nm, 600 nm]
   step: 5 nm
-  edges: {x: bloch, y: bloch, z: absorber}
-  absorber: {cells: 20}
+  edges: {x: bloch, y: bloch, z: cpml}
+  cpml: {cells: 20}
 bodies:
   - {shape: slab, material: glass, axis: z, from: -400 nm, to: -50 nm}
   - {shape: slab, material: metal, axis: z, from: -50 nm, to: -10 nm}'

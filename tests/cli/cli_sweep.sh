@@ -44,7 +44,7 @@ domain:
   size: [240 nm, 240 nm, 5 nm]
   step: 5 nm
   edges: {z: periodic}
-  absorber: {cells: 8}
+  cpml: {cells: 8}
 bodies:
   - {shape: cylinder, material: ${mat}, center: [0, 0, 0], axis: z, radius: ${radius}, length: 100 nm}
 excitation:
@@ -52,7 +52,7 @@ excitation:
            band: {from: 400 nm, to: 800 nm}}
 outputs:
   - cross_sections: {name: cyl, frequencies: {from: 400 nm, to: 800 nm, count: 21}}
-stop: {decayed: 1e-4}
+stop: {energy_below: 1e-4}
 sweep:
   radius: {from: 15 nm, to: 25 nm, count: 3}
   mat: [gold]
@@ -136,7 +136,7 @@ scene: {version: 1, title: "film, ${angle}"}
 materials:
   glass: {index: 1.5}
   metal: {poles: {eps_inf: 1, drude: [{plasma_frequency: 8 eV, damping: 0.1 eV}]}}
-domain: {size: [10 nm, 10 nm, 600 nm], step: 5 nm, edges: {x: bloch, y: bloch, z: absorber}, absorber: {cells: 20}}
+domain: {size: [10 nm, 10 nm, 600 nm], step: 5 nm, edges: {x: bloch, y: bloch, z: cpml}, cpml: {cells: 20}}
 bodies:
   - {shape: slab, material: glass, axis: z, from: -400 nm, to: -50 nm}
   - {shape: slab, material: metal, axis: z, from: -50 nm, to: -10 nm}

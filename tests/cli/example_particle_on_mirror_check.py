@@ -22,14 +22,14 @@ yeegap, src = sys.argv[1], sys.argv[2]
 check = Checks()
 
 COARSE = [
-    "domain.step=3nm", "domain.grading=1.5", "domain.absorber.cells=6",
+    "domain.step=3nm", "domain.grading=1.5", "domain.cpml.cells=6",
     "domain.size=[99nm,57nm,96nm]", "domain.center=[0nm,28.5nm,6nm]",
     "domain.refine=[{from: [-4 nm, 0 nm, -1 nm], to: [4 nm, 4 nm, 2 nm], step: 1 nm}]",
     "bodies[0].size=[30nm,30nm,10nm]", "bodies[0].center=[0nm,0nm,-5nm]",
     "bodies[1].radius=10nm", "bodies[1].center=[0nm,0nm,10nm]",
     "excitation[0].tfsf.box={from: [-18 nm, 0 nm, -12 nm], to: [18 nm, 18 nm, 24 nm]}",
     "outputs[0].cross_sections.frequencies.count=16", "outputs[1].field_map.frequencies.count=11",
-    "stop.decayed=1e-3",
+    "stop.energy_below=1e-3",
 ]
 
 
@@ -41,7 +41,7 @@ with tempfile.TemporaryDirectory() as work:
     done = run_example(yeegap, src, "particle_on_mirror.yaml", out, "--point", "5", "--json", "--threads", "1",
                        overrides=COARSE)
     summary = json.loads(done.stdout)
-    check(summary["stop_reason"] == "decayed", "the run stops by decay")
+    check(summary["stop_reason"] == "energy_below", "the run stops by decay")
     with h5py.File(out, "r") as f:
         t = f["tunnelling"]
         width, cells = float(t["smallest_width"][0]), int(t["cells"][0])

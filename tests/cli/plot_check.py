@@ -309,7 +309,7 @@ with tempfile.TemporaryDirectory() as work:
     # 5. `yeegap run --plot --json` on a coarse example: sidecar, figures, and stdout still one JSON object.
     out = os.path.join(work, "coarse.h5")
     done = subprocess.run([yeegap, "run", os.path.join(src, "examples", "dipole_near_sphere.yaml"), "-o", out,
-                           "--plot", "--json", "--set", "domain.step=10 nm", "--set", "domain.absorber.cells=6"],
+                           "--plot", "--json", "--set", "domain.step=10 nm", "--set", "domain.cpml.cells=6"],
                           capture_output=True, text=True, env=headless)
     check(done.returncode == 0, f"run --plot exit code {done.returncode}: {done.stderr[-2000:]}")
     try:

@@ -49,8 +49,8 @@ materials:
 domain:
   size: [96 nm, 96 nm, 96 nm]
   step: 4 nm
-  edges: absorber
-  absorber: {{cells: 4}}
+  edges: cpml
+  cpml: {{cells: 4}}
   refine:
     - {{from: [-{ZONE} nm, -{ZONE} nm, -{ZONE} nm], to: [{ZONE} nm, {ZONE} nm, {ZONE} nm], step: [1 nm, 4 nm, 1 nm]}}
   grading: 1.2

@@ -18,7 +18,7 @@ constexpr const char* built_in_scene = R"(scene: {version: 1, title: built-in}
 domain:
   size: [400 nm, 400 nm, 400 nm]
   step: 5 nm
-  edges: absorber
+  edges: cpml
 materials:
   glass: {index: 1.5}
   metal: {poles: {eps_inf: 1, drude: [{plasma_frequency: 9 eV, damping: 70 meV}]}}

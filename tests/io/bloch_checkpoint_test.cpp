@@ -41,9 +41,9 @@ Scene film_scene() {
   s.domain.step = {step, step, step};
   s.domain.size = {step, step, 400 * nm + 2 * absorber * step};
   s.domain.edges = {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                    EdgeKind::periodic, EdgeKind::absorber, EdgeKind::absorber};
+                    EdgeKind::periodic, EdgeKind::cpml, EdgeKind::cpml};
   s.domain.bloch = {true, true, false};
-  s.domain.absorber.cells = absorber;
+  s.domain.cpml.cells = absorber;
   s.domain.gap_cells = 0;
   MaterialSpec air, glass, metal;
   air.name = "air";

@@ -29,7 +29,7 @@ materials:
   vacuum: {index: 1}
   measured: {table: data/measured.csv, poles: 1}
   glass: {index: 1.5}
-domain: {size: [80 nm, 80 nm, 80 nm], step: 10 nm, edges: absorber, absorber: {cells: 2}}
+domain: {size: [80 nm, 80 nm, 80 nm], step: 10 nm, edges: cpml, cpml: {cells: 2}}
 bodies:
   - {shape: sphere, material: measured, center: [0, 0, 0], radius: 15 nm}
   - {shape: mesh, material: glass, file: tet.stl, unit: nm}

@@ -39,8 +39,8 @@ materials:
 domain:
   size: [108 nm, 108 nm, 108 nm]
   step: 3 nm
-  edges: absorber
-  absorber: {cells: 6}
+  edges: cpml
+  cpml: {cells: 6}
 bodies:
   - {shape: sphere, material: gold, center: [0, 0, 0], radius: 4.5 nm}
 excitation:
@@ -201,7 +201,7 @@ const char* small_text = R"(scene: {version: 1}
 materials:
   vacuum: {index: 1}
   gold: {library: Au}
-domain: {size: [96 nm, 96 nm, 96 nm], step: 4 nm, edges: absorber, absorber: {cells: 6}}
+domain: {size: [96 nm, 96 nm, 96 nm], step: 4 nm, edges: cpml, cpml: {cells: 6}}
 bodies:
   - {shape: sphere, material: gold, center: [0, 0, 0], radius: 12 nm}
 excitation:
@@ -232,15 +232,15 @@ TEST_F(Checkpoint, MissingStateChangesTheResult) {
 }
 
 TEST_F(Checkpoint, DecayStopRuleResumesWithItsMemory) {
-  // The `decayed` rule compares the energy with its peak so far: a resume that forgot the peak
+  // The `energy_below` rule compares the energy with its peak so far: a resume that forgot the peak
   // would stop at another step. Stopped half-way between the end of the source (the 400-1000 nm
   // pulse lasts 18.3 fs: waveform.cpp) and the end of the run.
   std::string text = small_text;
-  text.replace(text.find("stop: {after: 6 fs}"), 19, "stop: {decayed: 1e-6}");
+  text.replace(text.find("stop: {after: 6 fs}"), 19, "stop: {energy_below: 1e-6}");
   const solver::Scene decaying = scene_with(text);
   solver::Simulation whole_sim(decaying);
   const solver::RunResults whole = whole_sim.run();
-  ASSERT_EQ(whole.summary.stop_reason, "decayed");
+  ASSERT_EQ(whole.summary.stop_reason, "energy_below");
   const long source_end = static_cast<long>(std::ceil(18.3e-15 / whole.summary.time_step));
   const long at = (source_end + whole.summary.steps) / 2;
   ASSERT_GT(whole.summary.steps - source_end, 2 * 20) << "the decay should span a few energy checks (every 20 steps) after the source";
@@ -250,7 +250,7 @@ TEST_F(Checkpoint, DecayStopRuleResumesWithItsMemory) {
   io::read_checkpoint(file, resumed, decaying, info);
   const solver::RunResults rest = resumed.run();
   EXPECT_EQ(rest.summary.steps, whole.summary.steps);
-  EXPECT_EQ(rest.summary.stop_reason, "decayed");
+  EXPECT_EQ(rest.summary.stop_reason, "energy_below");
   EXPECT_TRUE(same_bits(rest.probes[0].values, whole.probes[0].values));
   EXPECT_EQ(rest.summary.final_energy_fraction, whole.summary.final_energy_fraction);
   // Without the peak the rule would judge the decay against later, smaller energies only and stop

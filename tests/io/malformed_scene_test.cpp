@@ -143,7 +143,7 @@ TEST(MalformedScene, MissingRequiredKeyNamesItAndPointsAtItsBlock) {
   const auto f = failure_of(R"(scene: {version: 1}
 domain:
   size: 400 nm
-  edges: absorber
+  edges: cpml
 excitation: {dipole: {position: [0, 0, 0], direction: z, frequency: 600 nm}}
 stop: {after: 100 fs}
 )");
@@ -215,12 +215,12 @@ TEST(MalformedScene, TextWhereANumberIsExpectedIsRefused) {
 domain:
   size: 400 nm
   step: 5 nm
-  courant: fast
+  stability_fraction: fast
 excitation: {dipole: {position: [0, 0, 0], direction: z, frequency: 600 nm}}
 stop: {after: 100 fs}
 )");
-  EXPECT_THAT(f.what, HasSubstr("domain.courant: must be a plain number, got 'fast'"));
-  expect_at(f, 5, 12);
+  EXPECT_THAT(f.what, HasSubstr("domain.stability_fraction: must be a plain number, got 'fast'"));
+  expect_at(f, 5, 23);
 }
 
 TEST(MalformedScene, ListWhereABlockIsExpectedIsRefused) {
@@ -253,12 +253,30 @@ TEST(MalformedScene, BadEdgeWordSuggestsTheClosestOne) {
 domain:
   size: 400 nm
   step: 5 nm
-  edges: {x: periodic, y: periodic, z: absorbr}
+  edges: {x: periodic, y: periodic, z: cmpl}
 excitation: {dipole: {position: [0, 0, 0], direction: z, frequency: 600 nm}}
 stop: {after: 100 fs}
 )");
-  EXPECT_THAT(f.what, HasSubstr("domain.edges.z: unknown word 'absorbr'; did you mean 'absorber'?"));
+  EXPECT_THAT(f.what, HasSubstr("domain.edges.z: unknown word 'cmpl'; did you mean 'cpml'?"));
   expect_at(f, 5, 40);
+}
+
+// Keys and words renamed with #15 (absorber, courant, decayed): an old scene is refused at the old
+// word, and the message names the new one.
+TEST(MalformedScene, RenamedKeysAndWordsNameTheirNewSpelling) {
+  const std::string tail = "excitation: {dipole: {position: [0, 0, 0], direction: z, frequency: 600 nm}}\n";
+  auto f = failure_of("scene: {version: 1}\ndomain: {size: 400 nm, step: 5 nm, absorber: {cells: 8}}\n" + tail +
+                      "stop: {after: 100 fs}\n");
+  EXPECT_THAT(f.what, HasSubstr("domain.absorber is now domain.cpml"));
+  expect_at(f, 2, 36);
+  f = failure_of("scene: {version: 1}\ndomain: {size: 400 nm, step: 5 nm, courant: 0.9}\n" + tail + "stop: {after: 100 fs}\n");
+  EXPECT_THAT(f.what, HasSubstr("domain.courant is now domain.stability_fraction"));
+  f = failure_of("scene: {version: 1}\ndomain: {size: 400 nm, step: 5 nm, edges: {z: absorber}}\n" + tail +
+                 "stop: {after: 100 fs}\n");
+  EXPECT_THAT(f.what, HasSubstr("'absorber' is now called 'cpml'"));
+  f = failure_of("scene: {version: 1}\ndomain: {size: 400 nm, step: 5 nm}\n" + tail + "stop: {decayed: 1e-5}\n");
+  EXPECT_THAT(f.what, HasSubstr("stop.decayed is now stop.energy_below"));
+  expect_at(f, 4, 8);
 }
 
 TEST(MalformedScene, PeriodicOnOneFaceOnlyIsRefused) {

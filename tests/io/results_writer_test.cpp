@@ -117,7 +117,7 @@ std::complex<double> map_value(std::size_t f, std::size_t c, std::size_t i) {
 solver::RunResults make_results(long steps = 1234) {
   solver::RunResults r;
   r.summary = {.steps = steps, .time_step = dt, .simulated_time = double(steps) * dt, .wall_seconds = 2.5,
-               .cell_updates_per_second = 1e8, .stop_reason = "decayed", .final_energy_fraction = 1e-5,
+               .cell_updates_per_second = 1e8, .stop_reason = "energy_below", .final_energy_fraction = 1e-5,
                .sources_end_time = 0, .divergence = {}};
   r.grid_x = {0, 1e-9, 2e-9, 3e-9};          // 3 cells
   r.grid_y = {0, 1e-9, 2.5e-9, 4e-9, 5e-9};  // 4 cells, graded
@@ -416,7 +416,7 @@ TEST_F(ResultsWriter, StoresSceneTextProgramSummaryAndSources) {
   EXPECT_EQ(read_int_attribute(f.id(), "/program", "threads"), 2);
   EXPECT_EQ(read_int_attribute(f.id(), "/summary", "steps"), 1234);
   EXPECT_EQ(read_double_attribute(f.id(), "/summary", "time_step"), dt);
-  EXPECT_EQ(read_string_attribute(f.id(), "/summary", "stop_reason"), "decayed");
+  EXPECT_EQ(read_string_attribute(f.id(), "/summary", "stop_reason"), "energy_below");
   EXPECT_EQ(read_doubles(f.id(), "/sources/spectrum_re"), (std::vector<double>{1.0, 3.0}));
   EXPECT_EQ(read_doubles(f.id(), "/sources/spectrum_im"), (std::vector<double>{2.0, -4.0}));
   EXPECT_EQ(dataset_shape(f.id(), "/sources/spectrum_re"), (std::vector<hsize_t>{1, 2}));

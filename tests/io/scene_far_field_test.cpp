@@ -22,7 +22,7 @@ const std::string head = R"(scene: {version: 1}
 domain: {size: 800 nm, step: 20 nm}
 excitation:
   - dipole: {position: [0, 0, 0], direction: z, band: {from: 500 nm, to: 800 nm}}
-stop: {decayed: 1e-5}
+stop: {energy_below: 1e-5}
 outputs:
 )";
 

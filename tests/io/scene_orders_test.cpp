@@ -21,10 +21,10 @@ materials:
 domain:
   size: [600 nm, 10 nm, 1000 nm]
   step: 10 nm
-  edges: {x: bloch, y: periodic, z: absorber}
+  edges: {x: bloch, y: periodic, z: cpml}
 bodies:
   - {shape: box, material: glass, center: [0, 0, 0], size: [300 nm, 20 nm, 100 nm]}
-stop: {decayed: 1e-6}
+stop: {energy_below: 1e-6}
 )";
 const std::string wave = "excitation:\n  - plane_wave: {polarization: p, angle: 10 deg, band: {from: 500 nm, to: 700 nm}}\n";
 

@@ -25,10 +25,10 @@ materials:
 domain:
   size: [10 nm, 10 nm, 1000 nm]
   step: 1 nm
-  edges: {x: bloch, y: bloch, z: absorber}
+  edges: {x: bloch, y: bloch, z: cpml}
 bodies:
   - {shape: slab, material: glass, axis: z, from: -600 nm, to: -100 nm}
-stop: {decayed: 1e-6}
+stop: {energy_below: 1e-6}
 excitation:
 )";
 

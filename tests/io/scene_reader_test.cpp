@@ -48,10 +48,10 @@ domain:
   size: [400 nm, 300 nm, 0.2 um]
   center: [0, 0, 10 nm]
   step: [5 nm, 5 nm, 4 nm]
-  edges: {x: periodic, y_low: metal, y_high: absorber}
-  absorber: {cells: 10, grading_order: 4, reflection: 1e-6, kappa_max: 2, alpha_max: 0.5 S/m}
+  edges: {x: periodic, y_low: metal, y_high: cpml}
+  cpml: {cells: 10, grading_order: 4, reflection: 1e-6, kappa_max: 2, alpha_max: 0.5 S/m}
   background: glass
-  courant: 0.9
+  stability_fraction: 0.9
   time_step: 0.005 fs
 materials:
   glass: {index: 1.5}
@@ -84,7 +84,7 @@ outputs:
       components: Ez
   - flux: {name: up, plane: {axis: z, at: 90 nm}, frequencies: [600 nm]}
   - flux: {name: around, box: {from: [-50 nm, -50 nm, -50 nm], to: [50 nm, 50 nm, 50 nm]}, frequencies: 1.5 eV}
-stop: {after: 0.2 ps, decayed: 1e-5, max_steps: 5000}
+stop: {after: 0.2 ps, energy_below: 1e-5, max_steps: 5000}
 )";
 
 const std::string small_scene = R"(scene: {version: 1}
@@ -112,18 +112,18 @@ TEST(SceneReader, ConvertsDomainLengthsToMetres) {
 TEST(SceneReader, ReadsEdgesPerAxisAndPerFaceWithAbsorberForFacesNotNamed) {
   const auto s = read_scene_text(full_scene, "full.yaml");
   const std::array<EdgeKind, 6> expected = {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::metal,
-                                            EdgeKind::absorber, EdgeKind::absorber, EdgeKind::absorber};
+                                            EdgeKind::cpml, EdgeKind::cpml, EdgeKind::cpml};
   EXPECT_EQ(s.domain.edges, expected);
 }
 
 TEST(SceneReader, ReadsAbsorberAndTimeStepSettings) {
   const auto s = read_scene_text(full_scene, "full.yaml");
-  EXPECT_EQ(s.domain.absorber.cells, 10);
-  EXPECT_EQ(s.domain.absorber.grading_order, 4.0);
-  EXPECT_EQ(s.domain.absorber.reflection, 1e-6);
-  EXPECT_EQ(s.domain.absorber.kappa_max, 2.0);
-  EXPECT_EQ(s.domain.absorber.alpha_max, 0.5);
-  EXPECT_EQ(s.domain.courant_safety, 0.9);
+  EXPECT_EQ(s.domain.cpml.cells, 10);
+  EXPECT_EQ(s.domain.cpml.grading_order, 4.0);
+  EXPECT_EQ(s.domain.cpml.reflection, 1e-6);
+  EXPECT_EQ(s.domain.cpml.kappa_max, 2.0);
+  EXPECT_EQ(s.domain.cpml.alpha_max, 0.5);
+  EXPECT_EQ(s.domain.stability_fraction, 0.9);
   expect_close(s.domain.time_step, 0.005e-15, "time_step");
 }
 
@@ -250,7 +250,7 @@ TEST(SceneReader, ReadsOutputRegionsAndComponents) {
 TEST(SceneReader, ReadsStopConditions) {
   const auto s = read_scene_text(full_scene, "full.yaml");
   expect_close(s.stop.after, 0.2e-12, "after");
-  EXPECT_EQ(s.stop.decayed, 1e-5);
+  EXPECT_EQ(s.stop.energy_below, 1e-5);
   EXPECT_EQ(s.stop.max_steps, 5000);
 }
 
@@ -260,7 +260,7 @@ TEST(SceneReader, SceneWithoutBackgroundUsesBuiltInVacuum) {
   EXPECT_EQ(s.materials[s.domain.background].name, "vacuum");
   EXPECT_EQ(s.materials[s.domain.background].poles.eps_inf, 1.0);
   EXPECT_EQ(s.bodies[0].material, 0);  // bodies may come before the materials block in the file
-  for (auto e : s.domain.edges) EXPECT_EQ(e, EdgeKind::absorber);
+  for (auto e : s.domain.edges) EXPECT_EQ(e, EdgeKind::cpml);
   expect_vec(s.domain.size, {400 * nm, 400 * nm, 400 * nm}, "one size for all axes");
 }
 
@@ -274,7 +274,7 @@ TEST(SceneReader, OverridesReplaceAndAddValuesBeforeValidation) {
   EXPECT_EQ(s.stop.max_steps, 7);
   EXPECT_EQ(s.domain.edges[0], EdgeKind::periodic);
   EXPECT_EQ(s.domain.edges[3], EdgeKind::periodic);
-  EXPECT_EQ(s.domain.edges[4], EdgeKind::absorber);
+  EXPECT_EQ(s.domain.edges[4], EdgeKind::cpml);
   expect_vec(s.dipoles[0].direction, {1, 0, 0}, "direction");
   EXPECT_EQ(s.materials[0].poles.eps_inf, 9.0);
   EXPECT_EQ(s.text, small_scene);  // the stored text is the file as written
@@ -288,7 +288,7 @@ TEST(SceneReader, LaterOverrideOfTheSameKeyWins) {
 TEST(SceneReader, ExampleDipoleNearSphereHasTheGeometryItsCommentsState) {
   const auto s = yeegap::io::read_scene_file(std::string(YEEGAP_SOURCE_DIR) + "/examples/dipole_near_sphere.yaml");
   for (int a = 0; a < 3; ++a) EXPECT_NEAR(s.domain.size[a] / s.domain.step[a], 80.0, 1e-9) << "cells along " << a;
-  for (auto e : s.domain.edges) EXPECT_EQ(e, EdgeKind::absorber);
+  for (auto e : s.domain.edges) EXPECT_EQ(e, EdgeKind::cpml);
   ASSERT_EQ(s.bodies.size(), 1u);
   ASSERT_EQ(s.dipoles.size(), 1u);
   const auto& sphere = *s.bodies[0].shape;
@@ -298,7 +298,7 @@ TEST(SceneReader, ExampleDipoleNearSphereHasTheGeometryItsCommentsState) {
   expect_vec(dipole.direction, {0, 0, 1}, "z dipole");
   expect_close(dipole.waveform.omega_min, omega_of_wavelength(900 * nm), "band");
   expect_close(dipole.waveform.omega_max, omega_of_wavelength(450 * nm), "band");
-  EXPECT_EQ(s.stop.decayed, 1e-5);
+  EXPECT_EQ(s.stop.energy_below, 1e-5);
   ASSERT_EQ(s.probes.size(), 1u);
   expect_vec(s.probes[0].position, dipole.position, "probe at the dipole");
   ASSERT_EQ(s.fluxes.size(), 2u);
@@ -315,7 +315,7 @@ TEST(SceneReader, ExampleDipoleNearSphereHasTheGeometryItsCommentsState) {
   EXPECT_TRUE(inside(s.fluxes[1].region, dipole.position));
   EXPECT_TRUE(inside(s.fluxes[1].region, sphere_box.lo));
   EXPECT_TRUE(inside(s.fluxes[1].region, sphere_box.hi));
-  const double absorber = s.domain.absorber.cells * s.domain.step.x;
+  const double absorber = s.domain.cpml.cells * s.domain.step.x;
   for (int a = 0; a < 3; ++a) {
     EXPECT_LT(s.fluxes[1].region.hi[a], 0.5 * s.domain.size[a] - absorber);
     EXPECT_GT(s.fluxes[1].region.lo[a], -0.5 * s.domain.size[a] + absorber);

@@ -21,14 +21,14 @@ materials:
   water: {index: 1.3317}
   metal: {perfect_conductor: true}
   spare: {index: 1.45}
-domain: {size: [2 nm, 2 nm, 600 nm], step: 2 nm, background: water, edges: {x: bloch, y: bloch, z: absorber}}
+domain: {size: [2 nm, 2 nm, 600 nm], step: 2 nm, background: water, edges: {x: bloch, y: bloch, z: cpml}}
 bodies:
   - {shape: slab, axis: z, from: -300 nm, to: 0 nm, material: glass}
   - {shape: slab, axis: z, from: 0 nm, to: 50 nm, material: gold}
   - {shape: slab, axis: z, from: 250 nm, to: 300 nm, material: metal}
 excitation:
   - plane_wave: {from: low, polarization: p, wavelength: 633 nm, angles: {from: 60 deg, to: 85 deg, count: 26}}
-stop: {decayed: 1e-5}
+stop: {energy_below: 1e-5}
 outputs:
 )";
 

@@ -84,9 +84,9 @@ TEST(BlochHalos, OneCellAxisMakesTheLateralWavenumberExact) {
 TEST(BlochCell, EmptyCellCarriesAPureBlochWaveWithPhaseKxLAcrossThePeriod) {
   // 16 cells of 10 nm along x (period 160 nm), vacuum, s-polarized plane wave at 30 deg, 600 nm.
   Scene s = testing::vacuum_box({16, 1, 100}, 10 * nm, {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                                                        EdgeKind::periodic, EdgeKind::absorber, EdgeKind::absorber});
+                                                        EdgeKind::periodic, EdgeKind::cpml, EdgeKind::cpml});
   s.domain.bloch = {true, true, false};
-  s.domain.absorber.cells = 20;
+  s.domain.cpml.cells = 20;
   s.domain.gap_cells = 0;
   const double omega = 2 * pi * c0 / (600 * nm);
   BlochWaveSpec w;
@@ -103,7 +103,7 @@ TEST(BlochCell, EmptyCellCarriesAPureBlochWaveWithPhaseKxLAcrossThePeriod) {
   map.omegas = {omega};
   map.components = {Component::Ey};
   s.field_maps = {map};
-  s.stop.decayed = 1e-7;
+  s.stop.energy_below = 1e-7;
   BlochRun run(s);
   const double kx = std::sin(30 * deg) * omega / c0;
   EXPECT_NEAR(run.real_part().scene().domain.bloch_wavevector.x, kx, 1e-9 * kx);

@@ -32,9 +32,9 @@ Scene stack_scene(double step, double length, int absorber_cells) {
   s.domain.step = {step, step, step};
   s.domain.size = {step, step, length + 2 * absorber_cells * step};
   s.domain.edges = {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                    EdgeKind::periodic, EdgeKind::absorber, EdgeKind::absorber};
+                    EdgeKind::periodic, EdgeKind::cpml, EdgeKind::cpml};
   s.domain.bloch = {true, true, false};
-  s.domain.absorber.cells = absorber_cells;
+  s.domain.cpml.cells = absorber_cells;
   s.domain.gap_cells = 0;
   MaterialSpec air;
   air.name = "air";

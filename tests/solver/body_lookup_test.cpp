@@ -16,7 +16,7 @@ namespace {
 constexpr double nm = 1e-9;
 
 TEST(BodyLookup, SameAnswerAsTestingEveryBody) {
-  Scene s = testing::vacuum_box({40, 40, 40}, 5 * nm, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({40, 40, 40}, 5 * nm, testing::all_edges(EdgeKind::cpml));
   for (int m = 1; m <= 4; ++m) s.materials.push_back(s.materials[0]);
   s.bodies.push_back({geometry::make_slab(2, -100 * nm, -60 * nm), 1, {}});
   std::mt19937 rng(7);

@@ -25,7 +25,7 @@ std::vector<double> probe_series(std::array<int, 3> cells, Vec3 source, Vec3 dir
                                  long steps) {
   std::array<EdgeKind, 6> edges{};
   for (int a = 0; a < 3; ++a) {
-    const EdgeKind k = cells[a] == 1 ? EdgeKind::periodic : EdgeKind::absorber;
+    const EdgeKind k = cells[a] == 1 ? EdgeKind::periodic : EdgeKind::cpml;
     edges[2 * a] = edges[2 * a + 1] = k;
   }
   Scene s = testing::vacuum_box(cells, d, edges);

@@ -22,9 +22,9 @@ using constants::pi;
 double rms_error(materials::CylinderPolarization pol, Vec3 e_dir) {
   const double d = 2.5e-9, radius = 50e-9;
   Scene s = testing::vacuum_box({112, 112, 1}, d,
-                                {EdgeKind::absorber, EdgeKind::absorber, EdgeKind::absorber, EdgeKind::absorber,
+                                {EdgeKind::cpml, EdgeKind::cpml, EdgeKind::cpml, EdgeKind::cpml,
                                  EdgeKind::periodic, EdgeKind::periodic});
-  s.domain.absorber.cells = 12;
+  s.domain.cpml.cells = 12;
   MaterialSpec glass;
   glass.name = "n2";
   glass.poles.eps_inf = 4.0;
@@ -43,7 +43,7 @@ double rms_error(materials::CylinderPolarization pol, Vec3 e_dir) {
   cs.name = "cylinder";
   for (int q = 0; q <= 10; ++q) cs.omegas.push_back(2 * pi * c0 / (400e-9 + 50e-9 * q));
   s.cross_sections.push_back(cs);
-  s.stop.decayed = 1e-7;
+  s.stop.energy_below = 1e-7;
   const RunResults r = Simulation(s).run();
   const CrossSectionResult& x = r.cross_sections.at(0);
   EXPECT_TRUE(x.per_unit_length);

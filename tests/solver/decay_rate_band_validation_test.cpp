@@ -35,7 +35,7 @@ double parallel(double u) {
 // The metal face is z = 0; the dipole at (0, 0, h). Planes through the dipole: x = 0 for a half
 // domain, x = 0 and y = 0 for a quarter, with the parity the dipole has (docs/scene.md).
 DecayRateResult run(Vec3 direction, double h, Cut cut) {
-  Scene s = testing::vacuum_box({lateral, lateral, vertical}, step, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({lateral, lateral, vertical}, step, testing::all_edges(EdgeKind::cpml));
   s.domain.center = {0, 0, 0.5 * vertical * step};
   s.domain.edges[4] = EdgeKind::metal;
   const bool along_x = direction[0] != 0;
@@ -59,9 +59,9 @@ DecayRateResult run(Vec3 direction, double h, Cut cut) {
   rate.name = "rate";
   for (int cells : {20, 24, 30, 36, 44, 52}) rate.omegas.push_back(2 * pi * c0 / (cells * step));
   s.decay_rates.push_back(rate);
-  s.stop.decayed = 1e-7;
+  s.stop.energy_below = 1e-7;
   const RunResults r = Simulation(s).run();
-  EXPECT_EQ(r.summary.stop_reason, "decayed");
+  EXPECT_EQ(r.summary.stop_reason, "energy_below");
   return r.decay_rates.at(0);
 }
 

@@ -31,7 +31,7 @@ double parallel(double u) {
 
 // A dipole at height h above the metal face z = 0, with outputs at h = lambda/4 and lambda/8.
 DecayRateResult mirror_run(Vec3 direction, double h) {
-  Scene s = testing::vacuum_box({64, 64, 40}, step, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({64, 64, 40}, step, testing::all_edges(EdgeKind::cpml));
   s.domain.center = {0, 0, 20 * step};  // z from 0 to 40 cells
   s.domain.edges[4] = EdgeKind::metal;
   DipoleSpec dip;
@@ -44,9 +44,9 @@ DecayRateResult mirror_run(Vec3 direction, double h) {
   rate.name = "rate";
   rate.omegas = {2 * pi * c0 / (4 * h), 2 * pi * c0 / (8 * h)};
   s.decay_rates.push_back(rate);
-  s.stop.decayed = 1e-6;
+  s.stop.energy_below = 1e-6;
   const RunResults r = Simulation(s).run();
-  EXPECT_EQ(r.summary.stop_reason, "decayed");
+  EXPECT_EQ(r.summary.stop_reason, "energy_below");
   return r.decay_rates.at(0);
 }
 

@@ -27,7 +27,7 @@ constexpr double step = 25e-9;
 // Vacuum with a sphere of index 2 and radius 6 cells at the origin, and a z dipole 3 cells above
 // its top (common-practice test geometry; the numbers are a demo, not a published case).
 Scene sphere_scene() {
-  Scene s = testing::vacuum_box({64, 64, 64}, step, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({64, 64, 64}, step, testing::all_edges(EdgeKind::cpml));
   MaterialSpec glass;
   glass.name = "index2";
   glass.poles.eps_inf = 4.0;
@@ -51,13 +51,13 @@ Scene sphere_scene() {
   rate.name = "rate";
   rate.radiated = "far";  // frequencies taken from the far field
   s.decay_rates.push_back(rate);
-  s.stop.decayed = 1e-6;
+  s.stop.energy_below = 1e-6;
   return s;
 }
 
 TEST(DecayRate, LosslessSphereHasQuantumEfficiencyOneWithin1Percent) {
   const RunResults r = Simulation(sphere_scene()).run();
-  ASSERT_EQ(r.summary.stop_reason, "decayed");
+  ASSERT_EQ(r.summary.stop_reason, "energy_below");
   const DecayRateResult& d = r.decay_rates.at(0);
   ASSERT_EQ(d.omegas.size(), 3u);
   ASSERT_EQ(d.efficiency.size(), 3u);
@@ -72,7 +72,7 @@ TEST(DecayRate, LosslessSphereHasQuantumEfficiencyOneWithin1Percent) {
 TEST(DecayRate, RefusesABoxThatReachesIntoTheSphere) {
   Scene s = sphere_scene();
   s.decay_rates[0].box_size = 8 * step;  // reaches 4 cells down from the dipole, into the sphere
-  s.stop.decayed = 0;
+  s.stop.energy_below = 0;
   s.stop.after = 1e-15;
   EXPECT_THROW(Simulation sim(s), RunError);
 }
@@ -80,7 +80,7 @@ TEST(DecayRate, RefusesABoxThatReachesIntoTheSphere) {
 TEST(DecayRate, RefusesAnUnknownRadiatedOutput) {
   Scene s = sphere_scene();
   s.decay_rates[0].radiated = "nowhere";
-  s.stop.decayed = 0;
+  s.stop.energy_below = 0;
   s.stop.after = 1e-15;
   EXPECT_THROW(Simulation sim(s), RunError);
 }

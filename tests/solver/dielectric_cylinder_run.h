@@ -25,9 +25,9 @@ inline double dielectric_cylinder_rms_error(materials::CylinderPolarization pol,
   const double radius = 50e-9, d = radius / cells_per_radius;
   const int n = static_cast<int>(std::ceil(140e-9 / d)) + 34;  // 65 nm box, 3 free cells, 12-cell absorbers
   Scene s = vacuum_box({n, n, 1}, d,
-                       {EdgeKind::absorber, EdgeKind::absorber, EdgeKind::absorber, EdgeKind::absorber,
+                       {EdgeKind::cpml, EdgeKind::cpml, EdgeKind::cpml, EdgeKind::cpml,
                         EdgeKind::periodic, EdgeKind::periodic});
-  s.domain.absorber.cells = 12;
+  s.domain.cpml.cells = 12;
   s.domain.averaging = averaging;
   s.domain.averaging_cross_terms = cross_terms;
   MaterialSpec glass;
@@ -47,7 +47,7 @@ inline double dielectric_cylinder_rms_error(materials::CylinderPolarization pol,
   cs.name = "cylinder";
   for (int q = 0; q <= 10; ++q) cs.omegas.push_back(2 * pi * c0 / (400e-9 + 50e-9 * q));
   s.cross_sections.push_back(cs);
-  s.stop.decayed = 1e-7;
+  s.stop.energy_below = 1e-7;
   const RunResults r = Simulation(s).run();
   const CrossSectionResult& x = r.cross_sections.at(0);
   double sum2 = 0;

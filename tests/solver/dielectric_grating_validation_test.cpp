@@ -47,9 +47,9 @@ Scene grating_scene(const Grating& g) {
   s.domain.size = {g.period, g.step, below + g.depth + above + 2 * absorber * g.step};
   s.domain.center = {0, 0, 0.5 * (g.depth + above - below)};
   s.domain.edges = {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                    EdgeKind::periodic, EdgeKind::absorber, EdgeKind::absorber};
+                    EdgeKind::periodic, EdgeKind::cpml, EdgeKind::cpml};
   s.domain.bloch = {true, false, false};
-  s.domain.absorber.cells = absorber;
+  s.domain.cpml.cells = absorber;
   s.domain.gap_cells = 0;
   MaterialSpec air;
   air.name = "air";
@@ -67,7 +67,7 @@ Scene grating_scene(const Grating& g) {
   for (double l : g.lambdas) w.omegas.push_back(omega_of(l));
   s.bloch_waves = {w};
   s.orders.push_back({"orders", {}});
-  s.stop.decayed = 1e-7;
+  s.stop.energy_below = 1e-7;
   return s;
 }
 

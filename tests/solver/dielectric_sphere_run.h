@@ -27,11 +27,11 @@ inline double dielectric_sphere_rms_error(double cells_per_radius, bool averagin
   const double margin = std::max(15e-9, 3 * d);
   const int box_cells = static_cast<int>(std::ceil((radius + margin) / d));
   const int absorber = 16, half = std::max(box_cells + 4 + absorber, 2 * absorber + 2);  // the check wants 2 layers + 2
-  Scene s = vacuum_box({half, half, 2 * half}, d, all_edges(EdgeKind::absorber));
+  Scene s = vacuum_box({half, half, 2 * half}, d, all_edges(EdgeKind::cpml));
   s.domain.center = {half * d / 2, half * d / 2, 0};
   s.domain.edges[0] = EdgeKind::mirror_odd;
   s.domain.edges[2] = EdgeKind::mirror_even;
-  s.domain.absorber.cells = absorber;
+  s.domain.cpml.cells = absorber;
   s.domain.averaging = averaging;
   s.domain.averaging_cross_terms = cross_terms;
   MaterialSpec glass;
@@ -53,7 +53,7 @@ inline double dielectric_sphere_rms_error(double cells_per_radius, bool averagin
   cs.name = "sphere";
   for (int q = 0; q <= 20; ++q) cs.omegas.push_back(2 * pi * c0 / (400e-9 + 25e-9 * q));
   s.cross_sections.push_back(cs);
-  s.stop.decayed = 1e-7;
+  s.stop.energy_below = 1e-7;
   Simulation sim(s);
   const RunResults r = sim.run();
   const CrossSectionResult& x = r.cross_sections.at(0);

@@ -41,7 +41,7 @@ struct DimerSettings {
   double e_min_eV = 0.6;     // band of the pulse and of the spectrum
   double e_max_eV = 5.0;
   int count = 89;            // frequencies, evenly spaced (0.05 eV apart for the defaults)
-  double decayed = 1e-5;     // stop when the field energy has fallen to this fraction of its peak
+  double energy_below = 1e-5;// stop when the field energy has fallen to this fraction of its peak
   double cell = 0.5e-9;      // m, cells over the cylinders (20 per radius)
   double axis_cell = 0.2e-9; // m, cells along y near the axis, |y| < 2.5 nm
 };
@@ -52,7 +52,7 @@ inline Scene drude_cylinder_dimer(const DimerSettings& o) {
   // Half domain x >= 0: x 80 nm, y 160 nm. The absorbers (12 cells of 2 nm) start about 3R from
   // the dimer's centre, where its near field has fallen to a tenth of its value at the surface.
   Scene s = vacuum_box({40, 80, 1}, 2 * nm,
-                       {EdgeKind::mirror_odd, EdgeKind::absorber, EdgeKind::absorber, EdgeKind::absorber,
+                       {EdgeKind::mirror_odd, EdgeKind::cpml, EdgeKind::cpml, EdgeKind::cpml,
                         EdgeKind::periodic, EdgeKind::periodic});
   s.domain.step = {2 * nm, 2 * nm, mid};
   s.domain.size.z = mid;
@@ -94,7 +94,7 @@ inline Scene drude_cylinder_dimer(const DimerSettings& o) {
   for (int q = 0; q < o.count; ++q)
     cs.omegas.push_back(units::eV_to_omega(o.e_min_eV + (o.e_max_eV - o.e_min_eV) * q / (o.count - 1)));
   s.cross_sections.push_back(cs);
-  s.stop.decayed = o.decayed;
+  s.stop.energy_below = o.energy_below;
   return s;
 }
 

@@ -27,7 +27,7 @@ DimerSettings coarse(double gap, bool quantum) {
   o.cell = 1 * nm;         // 10 cells per radius: peaks shift by a few per cent, the trends stay
   o.axis_cell = 0.25 * nm;
   o.count = 221;           // 0.02 eV apart
-  o.decayed = 1e-4;
+  o.energy_below = 1e-4;
   return o;
 }
 

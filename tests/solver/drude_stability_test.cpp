@@ -160,7 +160,7 @@ TEST(DrudeStability, RunJustBelowTheBoundStaysBoundedAndJustAboveIsRefused) {
   } catch (const RunError& e) {
     // The message advises a Courant number just below the bound, and that one must run.
     const std::string msg = e.what();
-    const std::string key = "domain.courant at most ";
+    const std::string key = "domain.stability_fraction at most ";
     const auto at = msg.find(key);
     ASSERT_NE(at, std::string::npos) << msg;
     const double advised = std::stod(msg.substr(at + key.size()));
@@ -168,7 +168,7 @@ TEST(DrudeStability, RunJustBelowTheBoundStaysBoundedAndJustAboveIsRefused) {
     EXPECT_LE(advised, 0.8) << msg;
     Scene ok = periodic_column(p);
     ok.domain.time_step = 0;
-    ok.domain.courant_safety = advised;
+    ok.domain.stability_fraction = advised;
     EXPECT_NO_THROW(Simulation accepted(ok));
   }
 }

@@ -45,7 +45,7 @@ struct DipoleRun {
 
 const DipoleRun& dipole_run() {
   static const DipoleRun run = [] {
-    Scene s = testing::vacuum_box({64, 64, 64}, step, testing::all_edges(EdgeKind::absorber));
+    Scene s = testing::vacuum_box({64, 64, 64}, step, testing::all_edges(EdgeKind::cpml));
     DipoleSpec dip;
     dip.direction = {0, 0, 1};
     dip.waveform.omega_min = 2 * pi * c0 / 1500e-9;
@@ -70,7 +70,7 @@ const DipoleRun& dipole_run() {
     far.name = "far_x";  // the same surface, collecting about x instead
     far.collection_axis = {1, 0, 0};
     s.far_fields.push_back(far);
-    s.stop.decayed = 1e-6;
+    s.stop.energy_below = 1e-6;
     out.r = Simulation(s).run();
     return out;
   }();
@@ -94,7 +94,7 @@ constexpr std::size_t resolved = 3;  // the frequencies at 40 cells per waveleng
 
 TEST(FarField, DipolePatternIsSinSquaredWithin1PercentOfPeak) {
   const DipoleRun& run = dipole_run();
-  ASSERT_EQ(run.r.summary.stop_reason, "decayed");
+  ASSERT_EQ(run.r.summary.stop_reason, "energy_below");
   const FarFieldResult& f = run.r.far_fields[0];
   for (std::size_t q = 0; q < resolved; ++q) {
     const double worst = pattern_error(f, q);
@@ -160,7 +160,7 @@ TEST(FarField, CollectionConeTakesTheAnalyticFractionOfTheDipolePower) {
 }
 
 TEST(FarField, RefusesABodyOutsideTheBox) {
-  Scene s = testing::vacuum_box({40, 40, 40}, step, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({40, 40, 40}, step, testing::all_edges(EdgeKind::cpml));
   MaterialSpec glass;
   glass.name = "glass";
   glass.poles.eps_inf = 2.25;
@@ -183,7 +183,7 @@ TEST(FarField, RefusesABodyOutsideTheBox) {
 }
 
 TEST(FarField, Refuses2DAndMetalFaces) {
-  Scene s = testing::vacuum_box({40, 40, 40}, step, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({40, 40, 40}, step, testing::all_edges(EdgeKind::cpml));
   DipoleSpec dip;
   dip.waveform.omega_min = 2 * pi * c0 / 900e-9;
   dip.waveform.omega_max = 2 * pi * c0 / 400e-9;

@@ -1,6 +1,6 @@
 // Test helper: the domain of a planar stack run as a one-dimensional Bloch cell along z (one
 // lateral cell, Bloch phase across it): `below` of the incident medium from the entry side, the
-// films from z = 0, `above` of the exit medium, `absorber` cells at each end, subcell averaging on
+// films from z = 0, `above` of the exit medium, `cpml` cells at each end, subcell averaging on
 // so the film faces see the mean of their two media. Materials and bodies are the caller's.
 #pragma once
 
@@ -18,9 +18,9 @@ inline Scene film_stack_domain(double step, double below, double above, int abso
   s.domain.size = {step, step, below + above + 2 * absorber * step};
   s.domain.center = {0, 0, 0.5 * (above - below)};
   s.domain.edges = {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                    EdgeKind::periodic, EdgeKind::absorber, EdgeKind::absorber};
+                    EdgeKind::periodic, EdgeKind::cpml, EdgeKind::cpml};
   s.domain.bloch = {true, true, false};
-  s.domain.absorber.cells = absorber;
+  s.domain.cpml.cells = absorber;
   s.domain.gap_cells = 0;
   s.domain.averaging = true;
   return s;

@@ -53,9 +53,9 @@ Scene grating_scene(const Grating& g, const std::vector<double>& lambdas, double
   s.domain.center = {0, 0, 0.5 * (hi + lo)};
   s.domain.refine.push_back({{{-1, -1, -g.film - 50 * nm}, {1, 1, g.depth + 50 * nm}}, {g.step_x, g.step_x, g.fine_z}});
   s.domain.edges = {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                    EdgeKind::periodic, EdgeKind::absorber, EdgeKind::absorber};
+                    EdgeKind::periodic, EdgeKind::cpml, EdgeKind::cpml};
   s.domain.bloch = {true, false, false};
-  s.domain.absorber.cells = absorber;
+  s.domain.cpml.cells = absorber;
   s.domain.gap_cells = 0;
   MaterialSpec air, au;
   air.name = "air";
@@ -81,7 +81,7 @@ Scene grating_scene(const Grating& g, const std::vector<double>& lambdas, double
     f.omegas = w.omegas;
     s.fluxes.push_back(f);
   }
-  s.stop.decayed = 1e-5;
+  s.stop.energy_below = 1e-5;
   return s;
 }
 

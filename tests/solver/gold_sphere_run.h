@@ -62,11 +62,11 @@ inline Scene gold_sphere_scene(double cells_per_radius, Averaging averaging, dou
   const double margin = std::max(10e-9, 4 * d);
   const int box_cells = static_cast<int>(std::ceil((radius + margin) / d));
   const int half = std::max(box_cells + 4 + absorber, 2 * absorber + 2);  // the check wants 2 layers + 2
-  Scene s = vacuum_box({half, half, 2 * half}, d, all_edges(EdgeKind::absorber));
+  Scene s = vacuum_box({half, half, 2 * half}, d, all_edges(EdgeKind::cpml));
   s.domain.center = {half * d / 2, half * d / 2, 0};
   s.domain.edges[0] = EdgeKind::mirror_odd;
   s.domain.edges[2] = EdgeKind::mirror_even;
-  s.domain.absorber.cells = absorber;
+  s.domain.cpml.cells = absorber;
   s.domain.averaging = averaging != Averaging::off;
   s.domain.averaging_cross_terms = averaging == Averaging::full;
   s.materials[0].name = "water";
@@ -86,7 +86,7 @@ inline Scene gold_sphere_scene(double cells_per_radius, Averaging averaging, dou
   w.waveform.omega_min = 2 * pi * c0 / lambda_long;
   w.waveform.omega_max = 2 * pi * c0 / lambda_short;
   s.plane_waves.push_back(w);
-  s.stop.decayed = 1e-5;
+  s.stop.energy_below = 1e-5;
   return s;
 }
 

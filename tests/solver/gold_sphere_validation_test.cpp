@@ -40,11 +40,11 @@ TEST(GoldSphere, PlasmonPeakWavelengthMatchesMieWithin1p5Percent) {
   // A quarter of the domain: the scene is odd under x -> -x (E along x) and even under y -> -y,
   // so x_low is an electric and y_low a magnetic symmetry plane (mirror_symmetry_validation_test
   // shows quarter and whole runs agree to 1e-13).
-  Scene s = testing::vacuum_box({31, 31, 62}, d, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({31, 31, 62}, d, testing::all_edges(EdgeKind::cpml));
   s.domain.center = {31 * d / 2, 31 * d / 2, 0};
   s.domain.edges[0] = EdgeKind::mirror_odd;
   s.domain.edges[2] = EdgeKind::mirror_even;
-  s.domain.absorber.cells = 8;
+  s.domain.cpml.cells = 8;
   s.materials[0].name = "water";
   s.materials[0].poles.eps_inf = n_water * n_water;
   const materials::PoleSet gold = materials::find_material("Au")->poles;
@@ -66,7 +66,7 @@ TEST(GoldSphere, PlasmonPeakWavelengthMatchesMieWithin1p5Percent) {
   std::vector<double> lambdas;
   for (double l = 480e-9; l <= 600.1e-9; l += 4e-9) lambdas.push_back(l), cs.omegas.push_back(2 * pi * c0 / l);
   s.cross_sections.push_back(cs);
-  s.stop.decayed = 1e-5;
+  s.stop.energy_below = 1e-5;
   Simulation sim(s);
   const RunResults r = sim.run();
   const CrossSectionResult& x = r.cross_sections.at(0);

@@ -35,7 +35,7 @@ struct ProbeRun {
 Scene sheet_scene(int base_cells, const std::vector<RefineZone>& zones, const std::vector<double>& pins) {
   Scene s = testing::vacuum_box({1, 1, base_cells}, d,
                                 {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                                 EdgeKind::absorber, EdgeKind::absorber});
+                                 EdgeKind::cpml, EdgeKind::cpml});
   s.domain.refine = zones;
   for (double z : pins) s.bodies.push_back({geometry::make_slab(2, z, 1.0), 0, {}});  // vacuum: only its face counts
   DipoleSpec dip;

@@ -35,10 +35,10 @@ FilmRun run_film(bool graded, bool with_film, const FrequencyList& omegas, bool 
   const int n = static_cast<int>(std::lround(600e-9 / step));
   Scene s = testing::vacuum_box({1, 1, n}, step,
                                 {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                                 EdgeKind::absorber, EdgeKind::absorber});
+                                 EdgeKind::cpml, EdgeKind::cpml});
   s.domain.step = {fine, fine, step};  // the column's cross-section is one fine cell on both meshes
   s.domain.size = {fine, fine, n * step};
-  s.domain.absorber.cells = static_cast<int>(std::lround(60e-9 / step));
+  s.domain.cpml.cells = static_cast<int>(std::lround(60e-9 / step));
   // Fine cells over the film and 2 nm beyond it: slab faces become nodes (mesh_plan.h).
   if (graded) s.domain.refine.push_back({{{-1, -1, film_lo - 2e-9}, {1, 1, film_hi + 2e-9}}, {fine, fine, fine}});
   MaterialSpec m;
@@ -54,11 +54,11 @@ FilmRun run_film(bool graded, bool with_film, const FrequencyList& omegas, bool 
   sheet.waveform.omega_max = 2 * pi * c0 / 450e-9;
   s.dipoles.push_back(sheet);
   s.fluxes.push_back({"front", {{0, 0, -100e-9}, {0, 0, -100e-9}}, omegas, {}});
-  s.stop.decayed = 1e-9;
+  s.stop.energy_below = 1e-9;
   s.domain.averaging = averaging;
   Simulation sim(s);
   const RunResults r = sim.run();
-  EXPECT_EQ(r.summary.stop_reason, "decayed");
+  EXPECT_EQ(r.summary.stop_reason, "energy_below");
   return {r.fluxes[0].power, sim.grid().nodes[2], sim.grid().n[2]};
 }
 

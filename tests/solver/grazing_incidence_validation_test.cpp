@@ -52,7 +52,7 @@ Scene stack_scene(double step, bool with_gold, std::vector<double> angles, doubl
   s.bodies.push_back({geometry::make_slab(2, -1.0, 0.0), 1, {}, "prism"});
   if (with_gold) s.bodies.push_back({geometry::make_slab(2, 0.0, 50 * nm), 2, {}, "gold"});
   s.bloch_waves = {testing::p_angle_scan(omega0, std::move(angles))};
-  s.stop.decayed = 1e-6;
+  s.stop.energy_below = 1e-6;
   return s;
 }
 

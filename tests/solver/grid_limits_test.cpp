@@ -32,7 +32,7 @@ TEST(GridLimits, AnAxisBeyondAnIntIsRefusedNotWrapped) {
 }
 
 TEST(GridLimits, AGridBeyondTheTotalIsRefusedBeforeAllocating) {
-  Scene s = testing::vacuum_box({10, 10, 10}, 1e-9, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({10, 10, 10}, 1e-9, testing::all_edges(EdgeKind::cpml));
   s.domain.size = {4194302e-9, 4194302e-9, 4194302e-9};  // 7.4e19 cells: past 2^63 bytes
   const std::string why = refusal(s);
   EXPECT_NE(why.find("cells, more than"), std::string::npos) << why;

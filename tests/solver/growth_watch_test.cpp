@@ -48,7 +48,7 @@ TEST(GrowthWatch, NoiseFarBelowThePeakIsIgnored) {
 }
 
 TEST(GrowthWatch, WindowSpansTwoPeriodsOfTheLowestSourceFrequency) {
-  Scene s = testing::vacuum_box({10, 10, 10}, 10e-9, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({10, 10, 10}, 10e-9, testing::all_edges(EdgeKind::cpml));
   const double dt = 1e-17;
   EXPECT_EQ(growth_window_steps(s, dt), 400);  // no source: the minimum
   DipoleSpec d;

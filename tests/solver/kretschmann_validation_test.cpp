@@ -88,7 +88,7 @@ Scene kretschmann_scene(const Stack& k, double step, std::vector<double> angles)
   s.bodies.push_back({geometry::make_slab(2, 0.0, 50 * nm), 2, {}, "gold"});
   if (k.layer_thickness > 0) s.bodies.push_back({geometry::make_slab(2, 50 * nm, 50 * nm + k.layer_thickness), 3, {}, "layer"});
   s.bloch_waves = {testing::p_angle_scan(omega0, std::move(angles))};
-  s.stop.decayed = 1e-6;
+  s.stop.energy_below = 1e-6;
   return s;
 }
 

@@ -20,8 +20,8 @@ bool is_node(const std::vector<double>& v, double x) {
 }
 
 TEST(MeshPlan, WithoutGradingItIsTheUniformGrid) {
-  Scene s = testing::vacuum_box({40, 30, 20}, 5 * nm, testing::all_edges(EdgeKind::absorber));
-  s.domain.absorber.cells = 8;
+  Scene s = testing::vacuum_box({40, 30, 20}, 5 * nm, testing::all_edges(EdgeKind::cpml));
+  s.domain.cpml.cells = 8;
   s.bodies.push_back({geometry::make_sphere({0, 0, 0}, 30 * nm), 0, {}});   // box extremes: optional only
   s.bodies.push_back({geometry::make_slab(2, -20 * nm, 10 * nm), 0, {}});   // faces on the grid
   const MeshPlan p = plan_mesh(s);
@@ -35,7 +35,7 @@ TEST(MeshPlan, WithoutGradingItIsTheUniformGrid) {
 }
 
 TEST(MeshPlan, OffGridSlabFacesBecomeCellEdgesOnARefinedAxis) {
-  Scene s = testing::vacuum_box({40, 30, 40}, 5 * nm, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({40, 30, 40}, 5 * nm, testing::all_edges(EdgeKind::cpml));
   s.bodies.push_back({geometry::make_slab(2, -12.3 * nm, 7.9 * nm), 0, {}});
   // Unrefined: the faces stay between nodes (a staircased layer keeps its thickness that way).
   EXPECT_FALSE(is_node(plan_mesh(s).grid.nodes[2], -12.3 * nm));
@@ -47,7 +47,7 @@ TEST(MeshPlan, OffGridSlabFacesBecomeCellEdgesOnARefinedAxis) {
 }
 
 TEST(MeshPlan, GapBetweenSpheresGetsItsCellsAcross) {
-  Scene s = testing::vacuum_box({60, 40, 40}, 5 * nm, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({60, 40, 40}, 5 * nm, testing::all_edges(EdgeKind::cpml));
   s.bodies.push_back({geometry::make_sphere({-20.5 * nm, 0, 0}, 20 * nm), 0, {}});
   s.bodies.push_back({geometry::make_sphere({20.5 * nm, 0, 0}, 20 * nm), 0, {}});
   s.domain.gap_cells = 5;
@@ -64,7 +64,7 @@ TEST(MeshPlan, GapBetweenSpheresGetsItsCellsAcross) {
 }
 
 TEST(MeshPlan, RefineZoneAndTouchingBodies) {
-  Scene s = testing::vacuum_box({40, 40, 40}, 5 * nm, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({40, 40, 40}, 5 * nm, testing::all_edges(EdgeKind::cpml));
   s.domain.refine.push_back({{{-10 * nm, -10 * nm, -10 * nm}, {10 * nm, 10 * nm, 10 * nm}}, {1 * nm, 2 * nm, 5 * nm}});
   // Two stacked slabs share a face: touching, not a gap.
   s.bodies.push_back({geometry::make_slab(2, -30 * nm, 0), 0, {}});
@@ -84,7 +84,7 @@ TEST(MeshPlan, RefineZoneAndTouchingBodies) {
 TEST(MeshPlan, ThinLayerOfAStackIsNotAGapButAJunctionBetweenMetalFilmsIs) {
   // Glass / 2 nm adhesion layer / gold on 1 nm cells: the glass and gold slabs are 2 nm apart, but
   // that is a layer of the stack, not a gap: no zone (it would halve the step of a film run).
-  Scene s = testing::vacuum_box({20, 1, 200}, 1 * nm, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({20, 1, 200}, 1 * nm, testing::all_edges(EdgeKind::cpml));
   MaterialSpec glass, metal;
   glass.name = "glass";
   glass.poles.eps_inf = 2.3;
@@ -121,8 +121,8 @@ TEST(MeshPlan, ThinLayerOfAStackIsNotAGapButAJunctionBetweenMetalFilmsIs) {
 Scene sphere_array(int n) {
   const double pitch = 22 * nm, extent = n * pitch + 60 * nm;
   Scene s = testing::vacuum_box({static_cast<int>(extent / (5 * nm)), static_cast<int>(extent / (5 * nm)), 20}, 5 * nm,
-                                testing::all_edges(EdgeKind::absorber));
-  s.domain.absorber.cells = 8;
+                                testing::all_edges(EdgeKind::cpml));
+  s.domain.cpml.cells = 8;
   for (int i = 0; i < n; ++i)
     for (int j = 0; j < n; ++j)
       s.bodies.push_back({geometry::make_sphere({(i - 0.5 * (n - 1)) * pitch, (j - 0.5 * (n - 1)) * pitch, 0}, 10 * nm), 0, {}});
@@ -151,7 +151,7 @@ TEST(MeshPlan, AnArrayOfNarrowGapsGetsASaneGrid) {
 
 // A gap narrower than an atom is refined as asked, and noted.
 TEST(MeshPlan, SubAtomicGapIsNoted) {
-  Scene s = testing::vacuum_box({40, 30, 30}, 5 * nm, testing::all_edges(EdgeKind::absorber));
+  Scene s = testing::vacuum_box({40, 30, 30}, 5 * nm, testing::all_edges(EdgeKind::cpml));
   s.bodies.push_back({geometry::make_sphere({-20.025 * nm, 0, 0}, 20 * nm), 0, {}});
   s.bodies.push_back({geometry::make_sphere({20.025 * nm, 0, 0}, 20 * nm), 0, {}});
   const MeshPlan p = plan_mesh(s);

@@ -42,8 +42,8 @@ FilmRun run(const materials::PoleSet* gold) {
   // 600 cells from -150 to 150 nm; 40-cell absorbers at both ends (a generous layer: in 1D it is cheap).
   Scene s = testing::vacuum_box({1, 1, 600}, dz,
                                 {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                                 EdgeKind::absorber, EdgeKind::absorber});
-  s.domain.absorber.cells = 40;
+                                 EdgeKind::cpml, EdgeKind::cpml});
+  s.domain.cpml.cells = 40;
   FrequencyList omegas;
   for (double lambda = 450e-9; lambda <= 900.1e-9; lambda += 25e-9) omegas.push_back(2 * pi * c0 / lambda);
   if (gold) {
@@ -62,10 +62,10 @@ FilmRun run(const materials::PoleSet* gold) {
   s.fluxes.push_back({"front", {{0, 0, z_front}, {0, 0, z_front}}, omegas, {}});
   s.fluxes.push_back({"back", {{0, 0, z_back}, {0, 0, z_back}}, omegas, {}});
   s.field_maps.push_back({"film", {{0, 0, 0}, {0, 0, 30.5e-9}}, omegas, {Component::Ex}, {}});
-  s.stop.decayed = 1e-9;
+  s.stop.energy_below = 1e-9;
   Simulation sim(s);
   const RunResults r = sim.run();
-  EXPECT_EQ(r.summary.stop_reason, "decayed");
+  EXPECT_EQ(r.summary.stop_reason, "energy_below");
   FilmRun out;
   out.omegas = omegas;
   out.front = r.fluxes[0].power;

@@ -21,8 +21,8 @@ using constants::pi;
 
 TEST(MieSphere, DielectricSphereScatteringWithin3PercentRms) {
   const double d = 5e-9, radius = 50e-9;
-  Scene s = testing::vacuum_box({48, 48, 48}, d, testing::all_edges(EdgeKind::absorber));
-  s.domain.absorber.cells = 8;
+  Scene s = testing::vacuum_box({48, 48, 48}, d, testing::all_edges(EdgeKind::cpml));
+  s.domain.cpml.cells = 8;
   MaterialSpec glass;
   glass.name = "n2";
   glass.poles.eps_inf = 4.0;
@@ -41,7 +41,7 @@ TEST(MieSphere, DielectricSphereScatteringWithin3PercentRms) {
   cs.name = "sphere";
   for (int q = 0; q <= 20; ++q) cs.omegas.push_back(2 * pi * c0 / (400e-9 + 25e-9 * q));
   s.cross_sections.push_back(cs);
-  s.stop.decayed = 1e-7;
+  s.stop.energy_below = 1e-7;
   Simulation sim(s);
   const RunResults r = sim.run();
   const CrossSectionResult& x = r.cross_sections.at(0);

@@ -21,8 +21,8 @@ using constants::pi;
 constexpr double d = 5e-9;
 
 Scene sphere_scene(bool quarter) {
-  Scene s = testing::vacuum_box({48, 48, 48}, d, testing::all_edges(EdgeKind::absorber));
-  s.domain.absorber.cells = 8;
+  Scene s = testing::vacuum_box({48, 48, 48}, d, testing::all_edges(EdgeKind::cpml));
+  s.domain.cpml.cells = 8;
   if (quarter) {
     // x, y in [0, 120 nm]: half the cells along x and y, low faces on the symmetry planes.
     s.domain.size = {24 * d, 24 * d, 48 * d};
@@ -68,8 +68,8 @@ TEST(MirrorSymmetry, QuarterDomainSphereCrossSectionsMatchTheWholeDomain) {
 }
 
 Scene dipole_scene(bool quarter) {
-  Scene s = testing::vacuum_box({40, 40, 40}, d, testing::all_edges(EdgeKind::absorber));
-  s.domain.absorber.cells = 8;
+  Scene s = testing::vacuum_box({40, 40, 40}, d, testing::all_edges(EdgeKind::cpml));
+  s.domain.cpml.cells = 8;
   if (quarter) {
     s.domain.size = {20 * d, 20 * d, 40 * d};
     s.domain.center = {10 * d, 10 * d, 0};

@@ -20,8 +20,8 @@ bool has(const std::vector<std::string>& notes, const std::string& text) {
 }
 
 TEST(PlacementNotes, OutsideInTheLayerAndInsideAMetalAreNoted) {
-  Scene s = testing::vacuum_box({40, 40, 40}, 5 * nm, testing::all_edges(EdgeKind::absorber));
-  s.domain.absorber.cells = 8;  // the interior runs from -60 nm to 60 nm
+  Scene s = testing::vacuum_box({40, 40, 40}, 5 * nm, testing::all_edges(EdgeKind::cpml));
+  s.domain.cpml.cells = 8;  // the interior runs from -60 nm to 60 nm
   MaterialSpec metal = s.materials[0];
   metal.name = "metal";
   metal.poles.drude.push_back({1.2e16, 1e14});

@@ -71,7 +71,7 @@ TEST(SubcellCrossTerms, CouplingOfDdIntoEcEqualsThatOfDcIntoEd) {
 // over that shortly after the pulse.
 double energy_growth(double eps, double courant, double* smallest_scale) {
   Scene s = glass_sphere_box(12, eps);
-  s.domain.courant_safety = courant;
+  s.domain.stability_fraction = courant;
   DipoleSpec dip;
   dip.position = {4.5e-9, 0.5e-9, 0};
   dip.direction = {0.6, 0.64, 0.48};

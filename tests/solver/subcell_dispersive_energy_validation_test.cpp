@@ -30,7 +30,7 @@ double energy_growth(const materials::PoleSet& metal, double courant, std::size_
                      int steps = 100000) {
   Scene s = metal_sphere_box(12, metal, 3.6);
   if (graded) s.domain.refine.push_back({{{-1, -1, -1}, {1, 1, 0.4e-9}}, {0.5e-9, 0.5e-9, 0.5e-9}});
-  s.domain.courant_safety = courant;
+  s.domain.stability_fraction = courant;
   s.dipoles.push_back(kick({4.5e-9, 0.5e-9, 0}));
   Simulation sim(s);
   *drawn_in = 0;

@@ -29,8 +29,8 @@ struct Leak {
 
 Leak empty_box(int axis, int sign, Vec3 pol, Component probe_comp, double index = 1) {
   const double d = 10e-9;
-  Scene s = testing::vacuum_box({40, 40, 40}, d, testing::all_edges(EdgeKind::absorber));
-  s.domain.absorber.cells = 8;
+  Scene s = testing::vacuum_box({40, 40, 40}, d, testing::all_edges(EdgeKind::cpml));
+  s.domain.cpml.cells = 8;
   s.materials[0].poles.eps_inf = index * index;
   PlaneWaveSpec w;
   w.box = {{-100e-9, -100e-9, -100e-9}, {100e-9, 100e-9, 100e-9}};

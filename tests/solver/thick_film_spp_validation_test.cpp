@@ -85,7 +85,7 @@ Scene film_scene(double k_par_angle, double reference, double lambda_lo, double 
   for (int i = 0; i < count; ++i)  // evenly in frequency, increasing
     w.omegas.push_back(w.waveform.omega_min + (w.waveform.omega_max - w.waveform.omega_min) * i / (count - 1));
   s.bloch_waves = {w};
-  s.stop.decayed = 1e-6;
+  s.stop.energy_below = 1e-6;
   return s;
 }
 

@@ -12,8 +12,8 @@ namespace {
 
 RunResults run_with_threads(int threads) {
   const double d = 10e-9;
-  Scene s = testing::vacuum_box({40, 40, 40}, d, testing::all_edges(EdgeKind::absorber));
-  s.domain.absorber.cells = 8;
+  Scene s = testing::vacuum_box({40, 40, 40}, d, testing::all_edges(EdgeKind::cpml));
+  s.domain.cpml.cells = 8;
   MaterialSpec glass;
   glass.name = "glass";
   glass.poles.eps_inf = 2.25;

@@ -28,7 +28,7 @@ struct Case {
 
 double measured_omega(const Case& c, double step, double& dt_out, std::array<double, 3>& k) {
   Scene s = testing::vacuum_box(c.cells, step, testing::all_edges(EdgeKind::periodic));
-  s.domain.courant_safety = 0.9;
+  s.domain.stability_fraction = 0.9;
   for (int a = 0; a < 3; ++a) k[a] = 2 * pi * c.wavenumbers[a] / (c.cells[a] * step);
   Simulation sim(s);
   // E along z, k in the xy plane: Ez = cos(k . r) at the Ez locations, H = 0.

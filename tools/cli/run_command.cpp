@@ -389,7 +389,7 @@ int execute_run(const RunOptions& o) {
   if (!interrupted && !diverged && s.simulated_time < s.sources_end_time && std::isfinite(s.sources_end_time))
     std::fprintf(stderr,
                  "yeegap: warning: the run stopped at %.4g fs, before its sources ended (%.4g fs): the spectra below "
-                 "are those of a cut-off pulse, not of the structure; lengthen stop.after or use stop.decayed\n",
+                 "are those of a cut-off pulse, not of the structure; lengthen stop.after or use stop.energy_below\n",
                  s.simulated_time * 1e15, s.sources_end_time * 1e15);
   if (diverged)
     std::fprintf(stderr,
