@@ -1,9 +1,7 @@
-// Fraction of a grid cell that a body fills, by adaptive subdivision of the cell (an octree on the
-// signed distance): a sub-box the surface cannot cross, because |d| at its centre is at least half
-// its diagonal, counts as wholly in or out; this relies on |d| never exceeding the true distance,
-// which every shape here guarantees (exact, or a lower bound). At the finest level the sub-box
-// counts as the slab fraction clamp(1/2 - d/h, 0, 1), h its mean edge: exact for a plane parallel
-// to a face, and unbiased on average for tilted planes, so curved surfaces converge quickly.
+// Fraction of a cell a body fills, by adaptive subdivision on the signed distance: a sub-box with |d|
+// at its centre of at least half its diagonal is wholly in or out (sound since no shape's |d| exceeds
+// the true distance). At the finest level the slab fraction clamp(1/2 - d/h, 0, 1), h the mean edge:
+// exact for a face-parallel plane, unbiased on average for tilted ones.
 #pragma once
 
 #include "geometry/shape.h"

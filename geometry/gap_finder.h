@@ -1,10 +1,7 @@
-// Gap finder: the narrowest surface-to-surface distance between two bodies and where it is, so the
-// mesh builder can put enough cells across the gap. Method: sample d_A + d_B over the region where
-// both bodies come within the search width (it is at least the gap everywhere and equals it on the
-// segment joining the nearest points), then from the best samples minimise d_B over the surface
-// of A by projected gradient steps with a line search. Exact for bodies with exact distances
-// (two spheres: the centre distance minus the radii); a first version: one gap per pair, the
-// narrowest.
+// Gap finder: the narrowest surface-to-surface distance between two bodies and where it is, so the mesh
+// can put cells across it. Samples d_A + d_B where both bodies are near (never below the gap, equal to
+// it between the nearest points), then minimises d_B over A's surface by projected gradient steps with
+// a line search. Exact for bodies with exact distances; one gap per pair, the narrowest.
 #pragma once
 
 #include <optional>

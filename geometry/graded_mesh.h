@@ -1,12 +1,7 @@
-// Graded (non-uniform) tensor-product mesh: node coordinates per axis with finer cells in refine
-// zones, cell edges on given interfaces, uniform absorbing layers at the domain faces, and smooth
-// transitions: neighbouring cells differ by at most `ratio` (default 1.2, common practice for Yee
-// grids, physics.md 3.1). Each axis is built on its own: the largest allowed cell at x is
-//   S(x) = min(base, min over zones of (zone step + ln(ratio) * distance to the zone)),
-// cells are spread so that each holds an equal share of the integral of 1/S between consecutive
-// interfaces (equidistribution: neighbours then differ by at most exp(ln ratio) = ratio), and any
-// remaining jump (short segments between interfaces, the absorber edge) is removed by adding a
-// zone at the smaller cell and rebuilding.
+// Graded tensor-product mesh: nodes per axis with finer cells in refine zones, cell edges on given
+// interfaces, uniform absorbing layers, neighbours differing by at most `ratio` (default 1.2, common
+// practice). Cells equidistribute 1/S(x), S the largest cell allowed at x; a jump left over gets a
+// zone at the smaller cell and a rebuild (docs/physics.md 3.1).
 #pragma once
 
 #include <array>

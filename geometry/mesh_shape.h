@@ -1,16 +1,7 @@
-// A closed triangle mesh (stl_mesh.h) as a signed-distance function: the distance to the nearest
-// facet, found through a bounding-volume hierarchy of the facets, with the sign of the angle-
-// weighted pseudonormal of the nearest feature (face, edge or vertex): for a closed, consistently
-// oriented mesh, p is outside iff (p - q) . n >= 0 at its nearest point q (J. A. Baerentzen and
-// H. Aanaes, IEEE Trans. Vis. Comput. Graph. 11, 243 (2005)).
-// Speed: points deep inside a round body are nearly equidistant from every facet, so the exact
-// search visits them all. A coarse grid of exact values (16 cells along the longest side) gives,
-// by the 1-Lipschitz property, |d(p)| >= |d(c)| - |p - c| with the sign of a corner c; where that
-// bound exceeds one coarse-cell diagonal it is returned instead (the bound is at least the true
-// distance minus two diagonals). So the distance is exact within one coarse-cell diagonal of the
-// surface and a lower bound with exact sign beyond, as the Shape contract allows (voxelising
-// needs only that; gap finding works near the surface). Trap: the switch between the two is not
-// 1-Lipschitz, so do not march along rays with steps of |d| beyond the band.
+// A closed triangle mesh (stl_mesh.h) as a signed distance: nearest facet through a bounding-volume
+// hierarchy, sign from the angle-weighted pseudonormal (Baerentzen & Aanaes, IEEE Trans. Vis. Comput.
+// Graph. 11, 243 (2005)). Exact near the surface, a lower bound with exact sign beyond (docs/scene.md,
+// bodies). Trap: that switch is not 1-Lipschitz, so never march along rays in steps of |d| far out.
 #pragma once
 
 #include <array>

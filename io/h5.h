@@ -1,11 +1,7 @@
-// A thin RAII layer over the HDF5 1.10 C API (C API only: the C++ API does not exist for parallel
-// HDF5): files, groups, N-d datasets of double/float/int32/int64/uint8 with optional chunking and
-// deflate, complex arrays as a pair of real datasets <name>_re/<name>_im, and string attributes
-// stored as fixed-length ASCII (ParaView 5.11 rejects variable-length UTF-8 strings).
-// Reading is the small part needed to read back what we wrote (checkpoints, sidecars, the sweep
-// merge reading each point's record): whole datasets of numbers or fixed-length strings.
-// Every HDF5 failure throws std::runtime_error naming the file and the object, carrying HDF5's own
-// innermost message; HDF5's automatic printing of its error stack is switched off.
+// A thin RAII layer over the HDF5 1.10 C API (the C++ API does not exist for parallel HDF5): files,
+// groups, N-d datasets (optional chunking, deflate), complex arrays as <name>_re/<name>_im, strings as
+// fixed-length ASCII (docs/results_file.md says why). Reads back only what we write. Every failure
+// throws std::runtime_error naming file, object and HDF5's innermost message; its own printing is off.
 #pragma once
 
 #include <hdf5.h>

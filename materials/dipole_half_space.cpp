@@ -1,11 +1,7 @@
-// Sommerfeld integrals of a dipole above a half-space (see dipole_half_space.h). With s = k_par / k1,
-// s_z = sqrt(1 - s^2) (Im >= 0), u = 2 k1 h and the Fresnel coefficients of the interface,
-//   P_perp / P0 = 1 + (3/2) Re int_0^inf  s^3 / s_z  r_p  exp(i u s_z) ds
-//   P_par  / P0 = 1 + (3/4) Re int_0^inf  s / s_z  (r_s - s_z^2 r_p)  exp(i u s_z) ds
-// (L. Novotny and B. Hecht, Principles of Nano-Optics, Cambridge 2006, sec. 10.5; form from memory,
-// checked here against image theory in the perfect-conductor limit). The propagating part runs over
-// s = sin t, the evanescent part over s = cosh t, which remove the 1/s_z end points; each is
-// integrated by adaptive Gauss-Kronrod (7/15 points) to a relative 1e-10 of its running total.
+// Sommerfeld integrals of a dipole above a half-space (see dipole_half_space.h; Novotny & Hecht 2006,
+// sec. 10.5, form from memory, checked against image theory). Propagating part over s = sin t,
+// evanescent part over s = cosh t (no 1/s_z end points), each by adaptive Gauss-Kronrod 7/15 to a
+// relative 1e-10. The integrals: docs/physics.md 4.6.
 #include "materials/dipole_half_space.h"
 
 #include <array>

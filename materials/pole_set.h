@@ -1,13 +1,7 @@
 // A linear, isotropic, dispersive medium as the solver sees it: eps_inf, a static conductivity and
-// any number of Drude and Lorentz poles, all in SI (rad/s, S/m). Convention exp(-i omega t), so a
-// passive medium has Im eps >= 0.
-//   Drude:   -omega_p^2 / (omega^2 + i gamma omega)
-//   Lorentz: delta_eps omega_0^2 / (omega_0^2 - omega^2 - i gamma omega)
-//   conductivity: + i sigma / (eps0 omega)
-//   critical point (Etchegoin, Le Ru, Meyer, J. Chem. Phys. 125, 164705 (2006)):
-//            A Omega [ e^{i phi}/(Omega - omega - i Gamma) + e^{-i phi}/(Omega + omega + i Gamma) ]
-//   A critical point is a Lorentz-like pole with a complex numerator; it cannot be written as Drude or
-//   Lorentz poles, so it has its own list. discrete_permittivity.h gives its time-stepping form.
+// lists of Drude, Lorentz and critical-point poles, in SI (rad/s, S/m), exp(-i omega t); forms in
+// docs/physics.md 2.1 and 2.3. A critical point (Etchegoin et al. 2006) has a complex numerator, so it
+// is neither Drude nor Lorentz and has its own list; discrete_permittivity.h steps it.
 #pragma once
 
 #include <complex>

@@ -1,24 +1,7 @@
-// Characteristic-matrix multilayer response (see transfer_matrix.h). Derivation, exp(-i omega t),
-// plane of incidence xz, every field ~ exp(i kx x) with kx = k0 n_inc sin(theta) the same in all
-// layers (Snell), and in layer j: kz = k0 q_j, q_j = sqrt(eps_j - eps_inc sin^2 theta).
-//   s (TE): U = E_y,  W = -omega mu0 H_x    (from curl E = i omega mu0 H)
-//   p (TM): U = H_y,  W =  omega eps0 E_x   (from curl H = -i omega eps0 eps E)
-// U and W are the tangential fields, continuous at every interface. For a wave A e^{i kz z} +
-// B e^{-i kz z} in layer j: U = A e + B e^-, W = Y_j (A e - B e^-), with the admittance
-//   Y_j = q_j (s)   or   Y_j = q_j / eps_j (p).
-// Across a layer of thickness d, with delta = k0 q_j d,
-//   [U; W](z + d) = [[cos delta, i sin delta / Y_j], [i Y_j sin delta, cos delta]] [U; W](z)
-// (the inverse of Born & Wolf's characteristic matrix, which takes the fields at the back of the
-// layer to those at its front; from memory). Multiply the layers into M = [[a, b], [c, d]]. With U = 1 + r,
-// W = Y_0 (1 - r) in front and U = t, W = Y_s t behind:
-//   r = [Y_0 (d - Y_s b) - (Y_s a - c)] / D,   t = 2 Y_0 / D,   D = Y_0 (d - Y_s b) + (Y_s a - c)
-// (t from the inverse map, det M = 1, which avoids the cancellation of a (1 + r) + b Y_0 (1 - r)
-// behind a thick absorbing layer).
-// The z-component of the time-averaged Poynting vector of one wave is Re(Y) |U|^2 / (2 omega mu0)
-// for s and Re(Y) |U|^2 / (2 omega eps0) for p, so for a lossless incident medium
-//   R = |r|^2,  T = Re(Y_s) / Re(Y_0) |t|^2.
-// For no layers r reduces to (Y_0 - Y_s)/(Y_0 + Y_s): the Fresnel coefficients, r_p in the
-// convention of the H amplitude. Thick absorbing layers overflow cos/sin once |Im delta| > ~700.
+// Characteristic-matrix multilayer response (see transfer_matrix.h): the tangential fields (U, W)
+// carried across each layer by a 2x2 matrix, r and t from the product, t through the inverse map
+// (det M = 1) to avoid cancellation behind a thick absorbing layer. Derivation: docs/physics.md 4.4.
+// Trap: cos and sin of a thick absorbing layer overflow once |Im delta| exceeds about 700.
 #include "materials/transfer_matrix.h"
 
 #include <cmath>

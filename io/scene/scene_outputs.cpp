@@ -1,9 +1,6 @@
-// The `outputs` list: what a run records. Each item is one recorder with a unique name: a probe
-// (time series at a point), a field_map (frequency-domain fields on a plane or in a region), a
-// flux (power through a plane, or out of a closed box), cross sections, a far_field (pattern and
-// radiated power), a decay_rate (Purcell enhancement of a dipole), the diffraction orders of a
-// plane wave in a Bloch cell or a sensor (the figures of an angle scan's reflectance dip,
-// docs/sensor.md).
+// The `outputs` list: what a run records, one uniquely named recorder per item: a probe, field_map,
+// flux, cross sections, far_field, decay_rate, the diffraction orders of a Bloch plane wave, or a
+// sensor (the figures of an angle scan's dip, docs/sensor.md). Keys: docs/scene.md, `outputs`.
 #include <algorithm>
 #include <cctype>
 #include <cmath>

@@ -1,10 +1,7 @@
-// Absorbing faces of a Bloch cell (see absorber_angle.h). The in-plane wavevector k_par is the same
-// in every layer (phase matching), so in the medium at the face kz^2 = (n omega/c)^2 - k_par^2:
-// positive, the wave arrives at cos(theta) = kz/(n omega/c) and sigma_max/cos(theta) makes the
-// round trip through the layer attenuate it by R(0) again; negative, the field decays as
-// exp(-alpha z), alpha = sqrt(-kz^2), and the layer's stretch kappa multiplies that decay, so a mean
-// kappa of -ln R(0) / (2 alpha d) over the layer (1 + (kappa_max - 1)/(m + 1) for the polynomial
-// grading) returns R(0) of it. Sampled over the sources' band.
+// Absorbing faces of a Bloch cell (see absorber_angle.h), sampled over the sources' band: where the
+// wave propagates in the face's medium, sigma_max / cos(theta); where it is evanescent, a mean kappa
+// of -ln R(0) / (2 alpha d) over the layer. Either way its round trip returns R(0) again.
+// Derivation: docs/physics.md 3.5.
 #include "solver/engine/absorber_angle.h"
 
 #include <algorithm>

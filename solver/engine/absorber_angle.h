@@ -1,9 +1,7 @@
-// How an absorbing face of a Bloch cell must be built for the waves that reach it, which travel at
-// an angle to its normal or, beyond the critical angle, decay towards it. A graded layer designed
-// for a normal reflection R(0) returns R(0)^cos(theta) at the angle theta (Taflove & Hagness 2005,
-// ch. 7, from memory for the form): 0.04 in amplitude at 80 deg for R(0) = 1e-8, enough to move a
-// prism's reflectance by 0.04. An evanescent field is not damped by sigma at all; it reaches the
-// lossy layer and its backing wall, tunnels out and gives a non-zero, even negative, T.
+// How an absorbing face of a Bloch cell is built for waves that reach it at an angle or, beyond the
+// critical angle, evanescent. A layer built for normal incidence returns R(0)^cos(theta) (4 % in
+// amplitude at 80 deg for 1e-8) and does not damp an evanescent field at all, which tunnels out and
+// gives a non-zero, even negative, T (docs/physics.md 3.5).
 #pragma once
 
 #include "solver/engine/grid.h"

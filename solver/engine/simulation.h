@@ -1,8 +1,6 @@
-// One run: builds the model from a Scene (grid, material index, coefficients, absorbing layers,
-// sources, recorders) and advances it. Per step (Taflove & Hagness 2005, ch. 3):
-//   periodic E halos -> H update -> CPML(H) -> record H
-//   periodic H halos -> pole currents J^{n+1/2} -> E update -> CPML(E) -> sources -> E -= cb J
-//   -> record E   (pole currents: dispersive.h)
+// One run: builds the model from a Scene and advances it. Per step (Taflove & Hagness 2005, ch. 3):
+//   E halos, H update, CPML(H), record H; H halos, pole currents J^{n+1/2} (dispersive.h), E update,
+//   CPML(E), sources, E -= cb J, record E.
 // Nothing global: a test may hold two Simulations at once.
 #pragma once
 

@@ -1,9 +1,7 @@
-// The time loop shared by every kind of run (Simulation, BlochRun): steps until a stop rule holds
-// (a time, a step cap, or the field energy decayed by a factor after the sources have ended),
-// stops a run whose fields diverge (energy not finite, runaway growth after the sources, or growth
-// from a small seed: growth_watch.h), reports progress at most twice a second, and lets the caller
-// stop between steps (checkpoints, signals). The run keeps its own counters; the loop only reads
-// and updates them.
+// The time loop of every kind of run (Simulation, BlochRun): steps until a stop rule holds, stops a run
+// whose fields diverge (not finite, runaway, or growth from a small seed: growth_watch.h), reports
+// progress at most twice a second, and lets the caller stop between steps (checkpoints, signals). It
+// only reads and updates the run's own counters.
 #pragma once
 
 #include <functional>

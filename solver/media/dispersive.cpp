@@ -1,18 +1,7 @@
-// Polarization-current passes (see dispersive.h). The updates are those of
-// materials/discrete_permittivity.cpp, multiplied by dt/eps0 so they act on Q = dt J/eps0 and
-// Ptilde = P/eps0 (both V/m):
-//   Drude:    Q^{n+1/2} = [(1 - g dt/2) Q^{n-1/2} + (wp dt)^2 E^n] / (1 + g dt/2)
-//   Lorentz:  Q^{n+1/2} = [(1 - g dt/2) Q^{n-1/2} - (w0 dt)^2 Pt^n + de (w0 dt)^2 E^n] / (1 + g dt/2)
-//   critical point (P'' + 2G P' + w0^2 P = eps0 (a0 E + a1 E'), centred difference for E'):
-//             Q^{n+1/2} = [(1 - G dt) Q^{n-1/2} - (w0 dt)^2 Pt^n + a0 dt^2 E^n
-//                          + (a1 dt/2)(E^{n+1} - E^{n-1})] / (1 + G dt)
-//   and Pt^{n+1} = Pt^n + Q^{n+1/2}. The E update eps0 eps_inf (E^{n+1} - E^n)/dt = curl H - sum J
-//   subtracts (cb eps0/dt) sum Q. The critical point's E^{n+1} share is implicit: its coefficient
-//   eps0 a1 / (2 (1 + G dt)) sits in the material's ca, cb (material_map.cpp), so here the pass
-//   before update_e computes the explicit part Q*, the pass after it subtracts Q* like any other
-//   current and then completes Q = Q* + (a1 dt/2)/(1 + G dt) E^{n+1}.
-// With g dt -> infinity the Drude factor (1 - g dt/2)/(1 + g dt/2) tends to -1 from above, so the
-// update stays stable for any damping (physics.md 1.4).
+// Polarization-current passes (see dispersive.h): the updates of materials/discrete_permittivity.cpp
+// scaled to Q = dt J/eps0 and Pt = P/eps0 (V/m), written out in docs/physics.md 3.4. A critical
+// point's E^{n+1} share is implicit: folded into ca, cb (material_map.cpp), completed after update_e.
+// Stable for any damping: the Drude factor tends to -1 from above as g dt grows (physics.md 1.4).
 #include "solver/media/dispersive.h"
 #include "solver/engine/simulation_state.h"
 

@@ -1,25 +1,7 @@
-// Stability bound of the explicit pole updates (derived here from the bulk discrete dispersion
-// relation; the von Neumann root argument follows Taflove & Hagness 2005, ch. 4 and 9).
-//
-// A bulk wave exp(i k.r - i w t) on the Yee grid satisfies (materials/discrete_permittivity.cpp)
-//   Omega^2 eps_d(w) = c^2 K^2,   Omega = (2/dt) sin(w dt/2),   K^2 = sum_a [2 sin(k_a d_a/2)/d_a]^2,
-// and K^2 runs over [0, 4/(c dt_c)^2], dt_c being the vacuum Courant limit of the grid. Write
-// z = exp(-i w dt); the run is stable when every root z has |z| <= 1 for every K. The roots move
-// continuously with K^2. At K = 0 they are z = 1 and the poles' own modes, inside the circle when
-// each pole's recursion is stable (Lorentz and critical point: omega_0 dt < 2; Drude: any g >= 0).
-// A root can leave only through |z| = 1, i.e. at a real w in [0, pi/dt] where Omega^2 eps_d(w) is
-// real and at most c^2 K_max^2:
-//  * inside (0, pi/dt) that needs Im eps_d(w) = 0, which a model with loss at every frequency never
-//    has (a model with gain somewhere can grow there, so gain is refused too);
-//  * at w = pi/dt, z = -1: Omega = 2/dt and cos(w dt/2) = 0, so every loss term drops out and
-//      eps_d(pi/dt) = eps_inf - sum_Drude (wp dt/2)^2 - sum_Lorentz de w0^2 dt^2/(4 - w0^2 dt^2)
-//                     - sum_critical a0 dt^2/(4 - w0^2 dt^2)
-//    is real. The root reaches -1 when 4 eps_d(pi/dt)/dt^2 <= 4/dt_c^2, that is when
-//      eps_d(pi/dt) <= S^2,  S = dt/dt_c.
-// So the bound is S^2 < eps_d(pi/dt). Vacuum gives S <= 1; one Drude pole with eps_inf = 1 gives
-// dt < dt_c / sqrt(1 + (wp dt_c/2)^2). The damping does not enter, so per-cell gap damping leaves
-// the bound as it is. For Au (Rakic 1998) at 1 nm cells in 3D the bound is S < 0.9995; at 5 nm it
-// is S < 0.987, so a coarse metal scene needs a lower domain.stability_fraction.
+// Stability bound of the explicit pole updates, from the bulk discrete dispersion relation
+// (materials/discrete_permittivity.cpp; root argument after Taflove & Hagness 2005, ch. 4 and 9):
+// S^2 < eps_d(pi/dt), S = dt over the vacuum Courant limit; the damping drops out. Derivation and
+// the figures for gold: docs/physics.md 3.2.
 #include "solver/media/dispersive_stability.h"
 
 #include <cmath>

@@ -1,10 +1,7 @@
-// Averaged update of mixed E locations (see subcell_average.h). Each location's three branches are
-// the media of subcell_branch.h, all driven by the same increment of D. That increment is recovered
-// from the bulk kernel's result: E_k = ca E^n + cb C, so dDt = (dt/eps0) C = (dt/eps0)/cb
-// (E_k - ca E^n), exact for whatever the CPML and sources added with that cb.
-// Passivity: each branch is a passive medium and 1/eps_eff a positive combination of their inverse
-// permittivities, so the cell stays passive; the instantaneous permittivity lies between the two
-// eps_inf, so the Courant bound of the bulk media holds (dispersive_stability.h).
+// Averaged update of mixed E locations (see subcell_average.h): three subcell_branch.h media driven by
+// one increment of D, recovered from the bulk kernel's result as (dt/eps0)/cb (E_k - ca E^n), exact
+// whatever CPML and sources added. Passive branches, and an eps_inf between the two materials', so the
+// bulk Courant bound holds (docs/physics.md 3.8).
 #include "solver/media/subcell_average.h"
 
 #include <algorithm>

@@ -1,20 +1,7 @@
-// Subcell averaging at the E locations a material interface crosses (mixed_cells.h). The averaged
-// permittivity is the anisotropic one of Farjadpour et al., Opt. Lett. 31, 2972 (2006), for every
-// pair of materials, dispersive or not, taken along the E component (diagonal only):
-//   1/eps_eff = n_c^2 <1/eps> + (1 - n_c^2) / <eps>,   <.> = fill-weighted mean over the box.
-// For metals eps(omega) is averaged as a response, never as a number: the cell holds three
-// branches driven by the same D, E_in = D/eps_in, E_out = D/eps_out (series, for the normal part)
-// and E_mix = D/<eps> (parallel: eps_inf and every pole's susceptibility weighted by its fill
-// fraction, the fill-weighted polarization currents), and E = n_c^2 (f E_in + (1-f) E_out)
-// + (1 - n_c^2) E_mix. Each branch is the scheme of dispersive.h in D form, so no pole of an averaged
-// 1/eps is ever built (physics.md 3.8 warns against that), and a cell with f = 1 is the bulk update.
-// The off-diagonal terms n_c n_d (<1/eps> - 1/<eps>) D_d are added between lossless dielectrics in
-// a symmetric form (subcell_cross_terms.h) and between a dispersive or lossy material and its
-// surroundings in a passive form (subcell_dispersive_cross_terms.h: per triple of components, each
-// location's share of its update; bulk locations of either material in those triples join the
-// averaged ones with fill 1 or 0). Without them an oblique surface leaves a first-order error (2D
-// cylinder, E across the axis: 1.27 % at 10 cells per radius, 0.033 % with them; gold sphere peak
-// 0.73 % at 10 cells per radius, 0.008 % with them).
+// Subcell averaging at the E locations a material interface crosses (mixed_cells.h): the diagonal of
+// the anisotropic average of Farjadpour et al., Opt. Lett. 31, 2972 (2006), a metal's eps averaged as
+// a response (three passive branches on one D), never as a number. Off-diagonal terms:
+// subcell_cross_terms.h, subcell_dispersive_cross_terms.h. Formulas: docs/physics.md 3.8.
 #pragma once
 
 #include <array>

@@ -1,11 +1,7 @@
-// One branch of an averaged E location (subcell_average.h): a medium driven by the increments of D,
-// whose E it gives back. In the units of dispersive.h (Dt = D/eps0, Q = dt J/eps0, both V/m) a
-// branch of relative eps_inf, loss s = sigma dt/eps0 and poles with weights w steps as
-//   eps_inf (E^{n+1} - E^n) = dDt - s (E^{n+1} + E^n)/2 - sum w Q^{n+1/2},
-// which is eps0 eps_inf dE/dt = dD/dt - sigma E - J of physics.md 3.4 with the pole updates of
-// dispersive.cpp; the critical points' E^{n+1} share moves to the left side. A branch mixing two
-// materials (weights f and 1 - f) is the fill-weighted medium: eps_inf, loss and every pole's
-// susceptibility weighted, which is <eps>(omega) exactly; a branch is passive when its poles are.
+// One branch of an averaged E location (subcell_average.h): a medium driven by increments of D that
+// gives back its E, stepped in the units of dispersive.h with the pole updates of dispersive.cpp. A
+// two-material branch is the fill-weighted medium, exactly <eps>(omega); a branch is passive when its
+// poles are. The update equation: docs/physics.md 3.8.
 #pragma once
 
 #include <vector>

@@ -1,9 +1,7 @@
-// Symmetric off-diagonal averaging terms between dielectrics (see subcell_cross_terms.h). A triple
-// is named by a node N and one bit per axis: it holds E_a at N - bit_a e_a for a = x, y, z, so every
-// E location lies in eight triples and every pair of neighbouring E_c, E_d in two. A location across
-// a mirror plane is the image of the one inside, with the normal component's sign of the mirror
-// (odd across a magnetic wall) and the reflected tensor; images only send terms, the triple seen
-// from inside gives the reverse coupling (the plane's own locations count half in the energy).
+// Symmetric off-diagonal averaging terms between dielectrics (see subcell_cross_terms.h). A triple is a
+// node N and one bit per axis, holding E_a at N - bit_a e_a. Across a mirror plane a location is the
+// image of the one inside (the mirror's sign, reflected tensor); images only send terms, and the
+// plane's own locations count half in the energy (docs/physics.md 3.8).
 #include "solver/media/subcell_cross_terms.h"
 
 #include <algorithm>

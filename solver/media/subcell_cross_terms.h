@@ -1,13 +1,7 @@
-// Off-diagonal terms of the anisotropic averaged permittivity (Farjadpour et al., Opt. Lett. 31,
-// 2972 (2006)) between lossless dielectrics: E_c += sum_d kappa_cd D_d, kappa = eps_eff^-1, with D_d
-// taken at the four E_d locations around E_c. Written as an energy, sum over the (E_x, E_y, E_z)
-// triples that share a node, (1/8) D_t^T kappa_t D_t, so the coupling of D_d into E_c equals that of
-// D_c into E_d and the D->E operator is symmetric; where needed a triple's off-diagonal part is
-// scaled down until kappa_t is positive definite with eigenvalues below (Courant limit / dt)^2, so the
-// operator stays positive, its largest eigenvalue at most that (every D location lies in eight
-// triples), and the leapfrog update within its Courant bound (a symmetric, positive semidefinite
-// D->E operator is what keeps such updates stable: Werner & Cary, J. Comput. Phys. 226, 1085
-// (2007), abstract). Only on uniform cells around the triple, where the 1/8 weights are the energy's.
+// Off-diagonal terms of the averaged permittivity (Farjadpour et al., Opt. Lett. 31, 2972 (2006))
+// between lossless dielectrics, written as an energy over the E triples at each node so the D->E
+// operator is symmetric and, scaled where needed, positive within the Courant bound (Werner & Cary,
+// J. Comput. Phys. 226, 1085 (2007)). Uniform cells only. docs/physics.md 3.8.
 #pragma once
 
 #include <cstddef>

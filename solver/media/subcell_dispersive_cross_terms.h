@@ -1,34 +1,7 @@
 // Off-diagonal averaging terms where a metal (or any dispersive or lossy material) meets its
-// surroundings, in a form that is passive by construction.
-//
-// The averaged inverse permittivity of Farjadpour et al., Opt. Lett. 31, 2972 (2006),
-//   kappa(omega) = S n n^T + M (1 - n n^T),   S = <1/eps> (series),  M = 1/<eps> (fill-weighted),
-// is passive, but its off-diagonal part alone, (S - M) n_c n_d, is not (for gold in water its
-// imaginary part has the active sign): coupling neighbours with it, as a trial did, grew without
-// bound. Here each triple t (the E_x, E_y, E_z that meet at a node, E_c at N - bit_c e_c, as in
-// subcell_cross_terms.h) gets a 3x3 operator built only from passive scalar media times rank-one
-// positive matrices, and E = sum_t W_t B_t^T K_t B_t D (B_t picks the triple's three D, W_t its
-// locations' shares, below):
-//   K_t = u u^T / eps_in + v v^T / eps_out + sum_{a<b} r_ab r_ab^T / <eps>_ab,
-//   u_c = sqrt(f_c) n_c,  v_c = sqrt(1 - f_c) n_c,  r_ab = n_b e_a - n_a e_b,
-// with f_c each location's own fill and n the triple's normal. Each term is a scalar passive branch
-// (subcell_branch.h) driven by a projection of D, so the sum is symmetric and passive whatever the
-// fills. With equal fills it is exactly kappa (sum r r^T = 1 - n n^T); with its own fills each
-// location keeps its own series part S(f_c) n_c^2 on the diagonal, and the pair (a, b)'s
-// fill-weighted medium takes the fill (n_b^2 f_a + n_a^2 f_b) / (n_a^2 + n_b^2), which is a's own
-// fill wherever a lies along the surface (n_a = 0) and b's where b does, so a flat face parallel to
-// the grid gets exactly the diagonal average at every location.
-//
-// A triple whose three fills differ much on an oblique surface could have an instantaneous operator
-// (the eps_inf parts) above what the time step allows; there the series fills are drawn toward the
-// triple's mean (where the bound always holds) until it fits. Bulk locations of either material in
-// a triple join the averaged ones (fill 1 inside, 0 outside). A triple with a third material, the
-// gap medium, another pair's averaged location or no defined normal is not coupled: its share of
-// each of its locations stays with that location's own diagonal update (subcell_average.h). The
-// shares are 1/8 on equal cells and (V_cell / 8) / V_location on a graded mesh (the energy's
-// weights, which keep the operator symmetric there). On a mirror plane the triples with an image
-// location are left out and the plane's locations count their other triples twice (the plane's
-// locations weigh half in the energy).
+// surroundings, passive by construction: each triple of E components at a node gets a sum of passive
+// scalar branches (subcell_branch.h) times rank-one positive matrices, stable whatever the fills.
+// Derivation, the step cap on fills and the triples left uncoupled: docs/physics.md 3.8.
 #pragma once
 
 #include <array>

@@ -1,9 +1,7 @@
-// Decay-rate recorder (see decay_rate.h). The box flux is the dipole's own emitted power: in the
-// Yee scheme the discrete Poynting theorem holds exactly for DFT fields in a lossless medium, so
-// any box from one cell around the source up gives the same number (checked to 1e-5 for boxes of
-// 1 to 10 cells). It differs from the continuum P0 by the grid's own dispersion, +0.5 % at 20 cells
-// per wavelength (tests/solver/dipole_power_validation_test.cpp), which is why P0 in closed form
-// is a fair normalisation there.
+// Decay-rate recorder (see decay_rate.h). The discrete Poynting theorem holds exactly for DFT fields in
+// a lossless medium, so any box from one cell around the dipole gives its emitted power; that differs
+// from the continuum P0 only by the grid's dispersion (+0.5 % at 20 cells per wavelength), so P0 in
+// closed form is a fair normalisation (docs/scene.md, decay_rate).
 #include "solver/outputs/decay_rate.h"
 
 #include <algorithm>

@@ -1,9 +1,7 @@
-// Diffraction orders from the DFT fields on a plane (see diffraction_orders.h).
-// The field map gives each tangential component at the grid nodes, interpolated from its Yee
-// location by the mean of the two neighbours half a cell either side along the axis it is
-// staggered on. A Bloch mode exp(i k x) comes out of that mean multiplied by cos(k h / 2) exactly,
-// so dividing by it restores the Yee samples' own coefficient; E_b and H_c share their lateral
-// positions (and E_c, H_b theirs), so their product is the flux recorder's, order by order.
+// Diffraction orders from the DFT fields on a plane (see diffraction_orders.h). A node value of the
+// field map is the mean of two Yee samples half a cell apart, which multiplies a Bloch mode by
+// cos(k h/2) exactly; dividing restores the samples' own coefficient, and E_b, H_c (and E_c, H_b)
+// share lateral positions, so their product is the flux recorder's, order by order.
 #include "solver/outputs/diffraction_orders.h"
 
 #include <algorithm>

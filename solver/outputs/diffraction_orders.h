@@ -1,9 +1,7 @@
-// Diffraction orders of a Bloch-periodic field on a plane in a homogeneous medium: the spatial
-// Fourier series of the tangential E and H (Petit (ed.), Electromagnetic Theory of Gratings,
-// Springer 1980, ch. 1: the Rayleigh expansion), order (m_b, m_c) at the lateral wavevector
-// k_par + 2 pi (m_b / period_b, m_c / period_c), and the Poynting flux of each. The coefficients are
-// those of the Yee samples the flux planes integrate, so the orders' powers add up (Parseval) to the
-// plane's flux, less what evanescent orders carry (nothing in a lossless medium).
+// Diffraction orders of a Bloch-periodic field on a plane in a homogeneous medium: the Rayleigh
+// expansion of the tangential E and H (Petit (ed.), Electromagnetic Theory of Gratings, Springer 1980,
+// ch. 1), order (m_b, m_c) at k_par + 2 pi (m_b / period_b, m_c / period_c), and each one's flux. From
+// the flux planes' own Yee samples, so the orders add up (Parseval) to the plane's flux.
 #pragma once
 
 #include <array>

@@ -1,11 +1,7 @@
-// Near-to-far-field transform (see far_field.h). For a direction s and wavenumber k of the
-// background (physics.md 3.10, exp(-i omega t)):
-//   N = sum J w exp(-i k s.(r - r0)),   L = sum M w exp(-i k s.(r - r0))   (trapezoid weights w)
-//   r exp(-ikr) E = (i k / 4 pi) (eta N_perp - s x L),   dP/dOmega = k^2 |eta N_perp - s x L|^2 / (32 pi^2 eta)
-// with r0 the box centre. Along a face the phase factorises into one factor per axis, so each
-// direction costs one complex multiply-add per surface point and set. H is averaged onto the E
-// plane of each face, and the averaging is undone per direction (see the loop; derived here). The
-// DFTs use each component's true sample time (dft_box.h), so H's half-step lag needs no extra phase.
+// Near-to-far-field transform (see far_field.h): radiation integrals N and L summed with trapezoid
+// weights, the phase factorised per axis along a face. H is averaged onto each face's E plane and that
+// averaging undone per direction; the DFTs keep each component's true sample time (dft_box.h), so no
+// half-step phase is needed. Formulas: docs/physics.md 3.10.
 #include "solver/outputs/far_field.h"
 #include "solver/engine/simulation_state.h"
 #include "solver/outputs/surface_weights.h"

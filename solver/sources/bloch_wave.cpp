@@ -1,10 +1,7 @@
-// Bloch plane wave: planes, sheet and TFSF corrections (see bloch_wave.h). The corrections follow
-// from the updates of yee_kernels.cpp, written for the normal axis a and the lateral axes b = a+1,
-// c = a+2 (cyclic):
-//   E_b += cb [ ... - (H_c(P) - H_c(P - e_a)) / d_a ],   E_c += cb [ (H_b(P) - H_b(P - e_a)) / d_a - ... ]
-//   H_b -= ch [ ... - (E_c(P + e_a) - E_c(P)) ],         H_c -= ch [ (E_b(P + e_a) - E_b(P)) - ... ]
-// (cb, ch = dt/(mu0 d_a)). An update that reads a neighbour across the plane gets the incident value
-// there, added when the updated location is in the total field and removed when it is scattered.
+// Bloch plane wave: planes, sheet and TFSF corrections (see bloch_wave.h). An update that reads a
+// neighbour across the plane gets the incident value there, added when the updated location is in the
+// total field and removed when it is scattered; the terms follow from the updates of yee_kernels.cpp,
+// written out in docs/physics.md 3.7.
 #include "solver/sources/bloch_wave.h"
 
 #include <cmath>

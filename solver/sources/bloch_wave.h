@@ -1,12 +1,7 @@
-// A plane wave in a Bloch-periodic cell, injected one way only through a total-field/scattered-
-// field plane normal to the stack axis (Taflove & Hagness 2005, secs. 5.9-5.10 for the TFSF
-// corrections; ch. 13 for periodic structures at oblique incidence). The incident field at the
-// plane is not a formula: it is read from an auxiliary problem of one lateral cell filled with the
-// incident medium, on the same cells along the axis, with the same time step, lateral spacing and
-// Bloch phase per cell, driven by a current sheet (Taflove & Hagness 2005, sec. 5.9: "matched
-// numerical dispersion"). Its wave is therefore an exact solution of the main grid's own discrete
-// equations in the incident medium, and the plane does not leak: with no structure the scattered
-// side stays empty to round-off. The same auxiliary problem gives the incident power.
+// A plane wave in a Bloch-periodic cell, injected one way through a TFSF plane normal to the stack
+// axis (Taflove & Hagness 2005, secs. 5.9-5.10, ch. 13). The incident field comes from an auxiliary
+// one-cell problem on the same cells, step and Bloch phase, an exact solution of the grid's own
+// equations: the plane does not leak, and it gives the incident power. docs/physics.md 3.7.
 #pragma once
 
 #include <array>

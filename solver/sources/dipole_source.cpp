@@ -1,9 +1,7 @@
-// Dipole source (see dipole_source.h). Where a dipole sits within half a cell of a face, one of the
-// two Yee locations that bracket it along the component's own axis lies beyond the face. Its share
-// goes to the image location inside: with the image's sign (+1 for the normal component at an
-// electric wall, -1 at a magnetic wall) when the face is a metal or the dipole is off a mirror
-// plane (its mirror image is a second, real dipole), and dropped when the dipole sits on the mirror
-// plane, because then it is its own image and the half-domain run must hold only its half of it.
+// Dipole source (see dipole_source.h). Within half a cell of a face a bracketing Yee location lies
+// beyond it; its share goes to the image location inside with the image's sign (+1 normal at an
+// electric wall, -1 at a magnetic one) for a metal face or a dipole off a mirror plane, and is dropped
+// for a dipole on the plane: it is its own image, and the half domain holds only its half.
 #include "solver/sources/dipole_source.h"
 
 #include <algorithm>

@@ -1,10 +1,7 @@
-// The 1D auxiliary grid that carries a TFSF plane wave: scalar E1 on the 3D grid's nodes along
-// the propagation axis, H1 on its half nodes, the same time step and spacing, so a plane wave along
-// that axis sees exactly the 3D scheme's dispersion (Taflove & Hagness 2005, sec. 5.9). Fields:
-//   E_inc = e E1,  H_inc = h H1,  h = s a x e   (a the axis unit vector, s the sign of travel)
-//   eps dE1/dt = -s dH1/da,   mu0 dH1/dt = -s dE1/da.
-// A soft current sheet launches the wave; both ends are matched 1D absorbers (sigma* = sigma mu0/eps,
-// reflection-free in the continuum; graded so the discrete reflection is below 1e-8).
+// The 1D auxiliary grid that carries a TFSF plane wave: E1 on the 3D grid's nodes along the axis, H1
+// on its half nodes, same step and spacing, so the wave has exactly the 3D scheme's dispersion
+// (Taflove & Hagness 2005, sec. 5.9). A soft current sheet launches it; matched 1D layers absorb it at
+// both ends (reflection below 1e-8). Equations: docs/physics.md 3.6.
 #pragma once
 
 #include <vector>

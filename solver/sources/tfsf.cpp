@@ -1,9 +1,6 @@
-// TFSF corrections (see tfsf.h). The updates being corrected (yee_kernels.cpp), for c and its
-// cyclic successors c1, c2:
-//   E_c(P) += cb [ (H_c2(P) - H_c2(P - e_c1)) / d_c1 - (H_c1(P) - H_c1(P - e_c2)) / d_c2 ]
-//   H_c(P) -= (dt/mu0) [ (E_c2(P + e_c1) - E_c2(P)) / d_c1 - (E_c1(P + e_c2) - E_c1(P)) / d_c2 ]
-// Each neighbour Q enters with a known coefficient; if P and Q differ in class, P gets
-// +coefficient * incident(Q) when P is total and -coefficient * incident(Q) when P is scattered.
+// TFSF corrections (see tfsf.h): each neighbour Q in a curl of yee_kernels.cpp enters with a known
+// coefficient; where P and Q lie on different sides of the box, P gets + coefficient * incident(Q) if
+// P is in the total field and - coefficient * incident(Q) if scattered. Updates: docs/physics.md 3.6.
 #include "solver/sources/tfsf.h"
 
 #include <cmath>

@@ -1,9 +1,7 @@
-// Time dependence of a source's dipole moment p(t) and of its current moment I l(t) = dp/dt.
-//   pulse:      p(t) = exp(-(t - t0)^2 / (2 tau^2)) sin(omega_c (t - t0)); odd about t0, so it
-//               carries no static (zero-frequency) part and leaves no charge behind.
-//   continuous: p(t) = r(t) sin(omega t), r rising smoothly from 0 to 1 over the ramp time.
-// For a pulse, tau follows from the band: the Gaussian spectrum exp(-(w-wc)^2 tau^2 / 2) carries
-// 1 % of its peak power at the band edges, so tau = sqrt(2 ln 10) / half-width.
+// Time dependence of a source's dipole moment p(t) and current moment I l(t) = dp/dt. Pulse:
+// exp(-(t - t0)^2 / (2 tau^2)) sin(omega_c (t - t0)), odd about t0, so no static part and no charge
+// left behind; tau = sqrt(2 ln 10) / half-width puts 1 % of the peak power at the band edges.
+// Continuous: r(t) sin(omega t), r rising smoothly from 0 to 1 over the ramp.
 #pragma once
 
 #include "solver/scene.h"

@@ -1,12 +1,7 @@
-// Checkpoint and resume of a Bloch run (solver/runs/bloch_run.h): the real and imaginary parts of the
-// complex fields and the incident problem's two parts are four Simulations, checkpointed together.
-// A plane wave at 30 degrees on a glass film over a Drude metal, stopped at half-way, written,
-// read into a fresh BlochRun and finished: reflectance, transmittance and every recorder equal the
-// uninterrupted run's bit for bit. An angle scan of the same film keeps whole angles: on one thread
-// the angles run in order, so stopping during the second run leaves exactly one finished angle; its
-// checkpoint, read into a fresh AngleScan, runs the other three and ends with a table equal to an
-// uninterrupted scan's, and its partial results hold the finished row only. Invented numbers,
-// chosen only to be small.
+// Checkpoint and resume of a Bloch run (four Simulations: real and imaginary parts of the fields and
+// of the incident problem) and of an angle scan, which keeps whole angles: a film over a Drude metal,
+// stopped half-way and resumed in a fresh BlochRun or AngleScan, matches the uninterrupted run bit for
+// bit, and a scan's partial results hold its finished rows only. Invented numbers.
 #include <fmt/format.h>
 #include <gtest/gtest.h>
 #include <omp.h>

@@ -1,9 +1,7 @@
-// Checkpoint and resume (io/results/checkpoint.h, solver/engine/simulation_state.h): a small scene with every
-// stateful part of the time loop (a dispersive gold sphere, CPML on all faces, a TFSF box, a
-// dipole, probes of E and H, a field map, a flux box, cross sections, a far field and a decay rate)
-// is stopped at about half-way, written to a checkpoint, read into a fresh Simulation and finished;
-// every result must equal the uninterrupted run's bit for bit. Damaged and mismatched checkpoints
-// are refused with the file's name and what differs.
+// Checkpoint and resume (io/results/checkpoint.h, simulation_state.h): a small scene holding every
+// stateful part of the time loop (dispersive sphere, CPML, TFSF box, dipole, every recorder) is stopped
+// half-way, written, read into a fresh Simulation and finished, bit for bit like the uninterrupted run.
+// Damaged and mismatched checkpoints are refused naming the file and what differs.
 #include "io/results/checkpoint.h"
 
 #include <fmt/format.h>

@@ -1,9 +1,7 @@
-// The half-space dipole reference (materials/dipole_half_space.h) against closed forms it must
-// reach: image theory for a perfect conductor (Novotny & Hecht 2006, ch. 8, u = 2 k h:
-// perpendicular 1 + 3 [sin u / u^3 - cos u / u^2], parallel 1 - (3/2) [sin u / u + cos u / u^2 -
-// sin u / u^3]), a metal of very large |eps| tending to it, and the quasi-static limit close to a
-// lossy surface, P_perp / P0 -> (3/8) Im[(eps - 1)/(eps + 1)] / (k h)^3 and P_par half of it
-// (the same book, sec. 10.5, the lossy-surface-wave term; derived here from the integrals' large-s end).
+// The half-space dipole reference (dipole_half_space.h) against the closed forms it must reach (Novotny
+// & Hecht 2006, ch. 8 and sec. 10.5; physics.md 4.6): image theory for a perfect conductor, a metal of
+// very large |eps| tending to it, and close to a lossy surface the quasi-static term
+// P_perp / P0 -> (3/8) Im[(eps - 1)/(eps + 1)] / (k h)^3, P_par half of it.
 #include "materials/dipole_half_space.h"
 
 #include <cmath>

@@ -1,9 +1,7 @@
-// Plane waves in Bloch cells against closed-form optics: the Fresnel reflectance of one glass
-// interface for s and p at several angles and Brewster's angle, and a dielectric slab at a fixed
-// in-plane wavevector, where each frequency of the pulse meets the slab at its own angle
-// (physics.md 3.7). Reference: Born & Wolf, Principles of Optics, 7th ed. (1999), sec. 1.5-1.6
-// (section numbers from memory), through materials/transfer_matrix.h, itself checked against the
-// closed-form Fresnel formulas in tests/materials/transfer_matrix_test.cpp.
+// Plane waves in Bloch cells against closed-form optics: the Fresnel reflectance of one glass face for
+// s and p and Brewster's angle, and a slab at fixed in-plane wavevector, each frequency at its own angle
+// (physics.md 3.7). Reference: Born & Wolf 1999, secs. 1.5-1.6 (from memory), via transfer_matrix.h,
+// itself checked against the Fresnel formulas in tests/materials/transfer_matrix_test.cpp.
 #include <gtest/gtest.h>
 
 #include <cmath>

@@ -1,14 +1,7 @@
-// Convergence of the 2D dielectric cylinder with E across its axis (TE; tests/solver/
-// dielectric_cylinder_run.h: index 2, radius 50 nm, against the series solution of Bohren &
-// Huffman 1983, ch. 8), staircased, averaged with the diagonal of the Farjadpour et al. (Opt. Lett.
-// 31, 2972 (2006)) tensor only, and with its off-diagonal terms (solver/media/subcell_cross_terms.h).
-// Measured RMS errors at 5, 7.07, 10, 14.14, 20 cells per radius:
-//   staircase      6.15  4.70  3.58  2.39  0.87 %
-//   diagonal only  2.03  1.60  1.27  0.90  0.70 %   (first order: 0.77 fitted)
-//   full tensor    0.38  0.12  0.033 0.008 0.018 %  (3.7 fitted over 5-14.14; at 20 the run's own
-//                                                     floor, near 0.01-0.02 %, is reached)
-// Asserted: the full tensor beats the staircase and the diagonal at every resolution, and its
-// fitted order over 5-14.14 cells per radius is at least 2 (second order, Farjadpour et al. 2006).
+// Convergence of the 2D dielectric cylinder with E across its axis (dielectric_cylinder_run.h; series
+// solution of Bohren & Huffman 1983, ch. 8): staircased, diagonal only, whole tensor. Asserted: the
+// whole tensor beats the others at every size, with a fitted order of at least 2 over 5-14.14 cells
+// per radius (Farjadpour et al. 2006). Measured series: docs/measurements.md.
 #include <gtest/gtest.h>
 
 #include <cmath>

@@ -1,14 +1,7 @@
-// Subcell averaging on a curved surface, in 2D where it is cheap: an infinite dielectric cylinder
-// (tests/solver/dielectric_cylinder_run.h: index 2, radius 50 nm, in air) against the series
-// solution (Bohren & Huffman, Absorption and Scattering of Light by Small Particles, Wiley 1983,
-// ch. 8). With E along the axis (TM) every surface is parallel to E, where the averaged
-// permittivity (the mean of eps) is exact to first order (Farjadpour et al., Opt. Lett. 31, 2972
-// (2006)): measured 0.018 % RMS at 5 cells per radius against 3.1 % staircased. With E across the
-// axis (TE) the normal turns through the grid and the off-diagonal terms of the averaged tensor
-// matter (solver/media/subcell_cross_terms.h): measured 0.38 % (5) and 0.033 % (10) against 6.1 % and
-// 3.6 % staircased; without the off-diagonal terms 2.0 % and 1.3 %. Tolerances: TM within 0.1 %;
-// TE at 10 cells within 0.1 %, and the off-diagonal terms at least ten times better than the
-// diagonal alone there (the check discriminates).
+// Subcell averaging on a curved surface, in 2D: a dielectric cylinder (dielectric_cylinder_run.h)
+// against the series solution (Bohren & Huffman 1983, ch. 8). Tolerances: E along the axis within
+// 0.1 % at 5 cells per radius; E across it within 0.1 % at 10, and the off-diagonal terms at least
+// ten times better than the diagonal alone there. Measured: docs/measurements.md.
 #include <gtest/gtest.h>
 
 #include "dielectric_cylinder_run.h"

@@ -1,11 +1,7 @@
-// Decay rate of a dipole above a perfect mirror over the whole band, in the whole domain and in
-// half and quarter domains cut by symmetry planes through the dipole, at heights down to 2 cells.
-// Reference: image theory (physics.md 4.6; Novotny & Hecht, Principles of Nano-Optics, 2006,
-// ch. 8, from memory for the form), u = 2 k h:
-//   perpendicular: P/P0 = 1 + 3 [sin u / u^3 - cos u / u^2]
-//   parallel:      P/P0 = 1 - (3/2) [sin u / u + cos u / u^2 - sin u / u^3]
-// Tolerance 2 % at every frequency (the figure); the grid's own dipole radiates +0.3 to
-// +0.7 % more than the continuum one over 18-28 cells per wavelength (dipole_power_validation_test).
+// Decay rate of a dipole above a perfect mirror over the whole band, in whole, half and quarter domains
+// (symmetry planes through the dipole), at heights down to 2 cells, against image theory (physics.md
+// 4.6; Novotny & Hecht 2006, ch. 8, form from memory). Tolerance 2 % at every frequency (the issue's),
+// part of which the grid's own dipole takes (docs/measurements.md).
 #include <gtest/gtest.h>
 
 #include <cmath>

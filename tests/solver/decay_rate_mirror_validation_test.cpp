@@ -1,12 +1,6 @@
-// Decay rate of a dipole above a perfect mirror (solver/outputs/decay_rate.h): the power out of a small box
-// around the dipole over the dipole alone, against image theory (physics.md 4.6, derived there from
-// the image dipole; Novotny & Hecht, Principles of Nano-Optics, 2006, ch. 8, from memory for the
-// form), with u = 2 k h:
-//   perpendicular: P/P0 = 1 + 3 [sin u / u^3 - cos u / u^2]             (1.3040 at h = lambda/4)
-//   parallel:      P/P0 = 1 - (3/2) [sin u / u + cos u / u^2 - sin u / u^3]  (1.1520 at h = lambda/4)
-// The mirror is the domain's metal z-low face. Tolerance from the issue: 3 % at h = lambda/4 and at
-// h = lambda/8 (measured: within 0.9 %, about half of it the grid's own +0.5 % at 20 cells per
-// wavelength, tests/solver/dipole_power_validation_test.cpp).
+// Decay rate of a dipole above a perfect mirror (the domain's metal z-low face; decay_rate.h) at
+// h = lambda/4 and lambda/8, against image theory (physics.md 4.6; Novotny & Hecht 2006, ch. 8, form
+// from memory). The issue's tolerance: 3 %. Measured: docs/measurements.md.
 #include <gtest/gtest.h>
 
 #include <cmath>

@@ -1,10 +1,7 @@
-// Decay rate and quantum efficiency of a dipole next to a lossless sphere (solver/outputs/decay_rate.h,
-// solver/outputs/far_field.h). With no loss anywhere, everything the dipole emits reaches the far field,
-// so the radiative rate equals the total rate and the quantum efficiency is 1 (energy
-// conservation; Novotny & Hecht, Principles of Nano-Optics, 2006, sec. 8.5, from memory for the
-// definitions). The tolerance: 1 %. The total rate is taken from a box one cell around the
-// dipole, the radiative one from the far-field transform on a box near the absorbers: two
-// independent routes to the same power.
+// Decay rate and quantum efficiency of a dipole next to a lossless sphere: with no loss all the power
+// reaches the far field, so the efficiency is 1 (Novotny & Hecht 2006, sec. 8.5, definitions from
+// memory), within 1 % (the issue's). Two independent routes: the total rate from a box one cell
+// around the dipole, the radiative one from the far-field transform near the absorbers.
 #include <gtest/gtest.h>
 
 #include <cmath>

@@ -1,9 +1,7 @@
-// A lossless lamellar grating (ridges of n = 2 in air) in a Bloch cell: the power in the
-// propagating diffraction orders, reflected and transmitted, must add up to the incident power
-// (energy conservation for a lossless grating: Petit (ed.), Electromagnetic Theory of Gratings,
-// Springer 1980, ch. 1), each order must leave in the direction of the grating equation
-// sin theta_m = sin theta_0 + m lambda / Lambda (ibid.), and with a single propagating order the
-// zeroth order must carry exactly the flux-based reflectance and transmittance.
+// A lossless lamellar grating (n = 2 ridges in air) in a Bloch cell: the propagating orders' powers add
+// up to the incident power, each leaves along sin theta_m = sin theta_0 + m lambda / Lambda (Petit
+// (ed.), Electromagnetic Theory of Gratings, Springer 1980, ch. 1), and with one propagating order
+// the zeroth carries exactly the flux-based R and T.
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -13,7 +11,7 @@
 
 #include "base/constants.h"
 #include "geometry/shapes.h"
-#include "solver/runs/run_scene.h"
+#include "solver/runs/run_plan.h"
 
 namespace yeegap::solver {
 namespace {

@@ -1,10 +1,7 @@
-// One TFSF run of a dielectric sphere (index 2, radius 50 nm, in air) at a chosen number of cells
-// per radius, with or without subcell averaging: the RMS relative error of its scattering cross
-// section over 400-900 nm against Mie theory (Bohren & Huffman 1983, ch. 4; materials/mie_sphere.h).
-// A quarter of the domain, as in gold_sphere_run.h. 16 absorbing cells: with 8 the absorber's
-// reflection left a floor near 0.2-0.3 % that grew as the sphere came closer to it in finer cells
-// (measured at 8.33 cells per radius: 0.32 % with 8 cells and a 15 nm margin, 0.17 % with a 40 nm
-// margin, 0.100 % with 16 cells at 40 or 80 nm).
+// One TFSF run of a dielectric sphere (index 2, radius 50 nm, in air, a quarter domain) at a chosen
+// number of cells per radius, averaged or not: the RMS relative error of its scattering over 400-900
+// nm against Mie theory (Bohren & Huffman 1983, ch. 4). 16 absorbing cells: 8 left a floor of
+// 0.2-0.3 % that grew in finer cells (docs/measurements.md).
 #pragma once
 
 #include <cmath>

@@ -1,12 +1,7 @@
-// The project's key physics check, in full: a dimer of Drude cylinders (2D, radius 10 nm, jellium
-// gold of Esteban et al. 2012) at gaps from 1 nm down to 0.1 nm, classical and quantum-corrected,
-// extinction per unit length over 0.6-5 eV. Esteban, Borisov, Nordlander, Aizpurua, Nat. Commun. 3,
-// 825 (2012) report for dimers across this range: classically the bonding-dipole peak redshifts
-// ever further as the gap closes; with the quantum-corrected gap it stops redshifting and fades once
-// the gap conducts, and a charge-transfer mode appears at lower energy. Thresholds are derived from
-// the gap permittivity (drude_dimer_2d.h, gap_thresholds) and the numbers are in docs/gaps.md.
-// Cost: 12 runs of 0.17-0.82 million steps on about 14 000 cells, two at a time: 9.5 min of CPU (34 min
-// wall on a shared, loaded 2-core machine).
+// The key physics check in full: a 2D dimer of Drude cylinders (jellium gold) at gaps of 1 to 0.1 nm,
+// classical and quantum-corrected, against the trends reported by Esteban, Borisov, Nordlander,
+// Aizpurua, Nat. Commun. 3, 825 (2012); thresholds from drude_dimer_2d.h (gap_thresholds). Results,
+// reasons and cost: docs/gaps.md.
 #include <gtest/gtest.h>
 
 #include <future>

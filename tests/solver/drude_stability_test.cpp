@@ -1,9 +1,7 @@
-// Stability of the Drude/Lorentz pole updates (solver/media/dispersive.cpp, dispersive_stability.cpp):
-// any damping, as tunnelling-gap cells need (physics.md 1.4: gamma_g can exceed the bulk damping by
-// orders of magnitude), and the Courant bound S^2 < eps_d(pi/dt) derived in
-// dispersive_stability.cpp, checked here against a von Neumann analysis of one Fourier mode
-// (Taflove & Hagness, Computational Electrodynamics, 3rd ed., 2005, ch. 4: the amplification
-// matrix of a stable scheme has spectral radius <= 1).
+// Stability of the pole updates (dispersive.cpp, dispersive_stability.cpp): any damping, as gap cells
+// need (physics.md 1.4), and the bound S^2 < eps_d(pi/dt) against a von Neumann analysis of one
+// Fourier mode (Taflove & Hagness 2005, ch. 4: a stable scheme's amplification matrix has spectral
+// radius <= 1).
 #include <gtest/gtest.h>
 
 #include <Eigen/Eigenvalues>

@@ -1,14 +1,7 @@
-// Near-to-far-field transform of a point dipole in vacuum (solver/outputs/far_field.h, physics.md 3.10).
-// References: the Hertzian dipole's far field E_theta = -i eta k I l sin(theta) e^{ikr} / (4 pi r)
-// (exp(-i omega t); Jackson, Classical Electrodynamics, 3rd ed., 1999, sec. 9.2; Balanis, Antenna
-// Theory, 3rd ed., 2005, eq. 4-26a with j -> -i), so dP/dOmega is proportional to sin^2 theta and
-// the directivity is 1.5 sin^2 theta; its total power is the Larmor power eta k^2 |I l|^2 / (12 pi)
-// (Jackson 1999, eq. 9.24). Tolerances from the issue: pattern within 1 % of its peak, power within
-// 2 %. The Yee grid's own anisotropy bends the pattern at second order in the cell size (measured
-// here: by 2.2 % of the peak at 20 cells per wavelength, 1.6 % at 24, 0.7 % at 32; the real
-// Poynting flux through small patches 17 cells from the dipole shows the same size, along an axis
-// 2.9 % below the diagonal at 20 cells), so the 1 % pattern check runs at 40 to 56 cells per
-// wavelength.
+// Near-to-far-field transform of a point dipole in vacuum (far_field.h, physics.md 3.10) against the
+// Hertzian dipole: directivity 1.5 sin^2 theta, Larmor power (Jackson 1999, sec. 9.2, eq. 9.24).
+// The issue's tolerances: pattern within 1 % of its peak, power within 2 %. The grid's own anisotropy
+// bends the pattern, so that check runs at 40 to 56 cells per wavelength (docs/measurements.md).
 #include <gtest/gtest.h>
 
 #include <algorithm>

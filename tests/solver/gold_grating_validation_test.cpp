@@ -1,12 +1,7 @@
-// A shallow lamellar gold grating at normal incidence, p polarized (E across the grooves): the
-// light couples to surface plasmons through the grating's first orders, where
-// k0 sin(theta) + m 2 pi / Lambda = +-Re k_spp, k_spp = k0 sqrt(eps_m eps_d / (eps_m + eps_d))
-// (Raether, Surface Plasmons on Smooth and Rough Surfaces and on Gratings, Springer 1988, ch. 6;
-// physics.md 4.8), and the reflectance dips there. Energy must balance: R (reflected orders, in
-// the scattered-field region) + T (below the film) + A (the net flux into the slab between two
-// planes hugging the metal, whose lateral faces cancel by periodicity) = 1. The grating is 5 nm
-// deep (ridges of half the period on a 150 nm film, 2.5 nm cells across the metal): shallow, so the
-// ridges' own shift of the plasmon is small, and the dip shallow too.
+// A shallow (5 nm) lamellar gold grating at normal incidence, p: the reflectance dips where the first
+// orders meet the surface plasmon (Raether, Surface Plasmons, Springer 1988, ch. 6; physics.md 4.8),
+// and R + T + A = 1, A being the net flux into a slab hugging the metal. Shallow, so the ridges shift
+// the plasmon little.
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -17,7 +12,7 @@
 #include "geometry/shapes.h"
 #include "materials/library.h"
 #include "solver/outputs/reflectance_dip.h"
-#include "solver/runs/run_scene.h"
+#include "solver/runs/run_plan.h"
 
 namespace yeegap::solver {
 namespace {

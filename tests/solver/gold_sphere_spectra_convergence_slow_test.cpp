@@ -1,9 +1,7 @@
-// The gold sphere's whole spectra (gold_sphere_spectra_validation_test.cpp) as the cells shrink,
-// with the staircase beside subcell averaging: the red tail (600-800 nm, where the spectra are small)
-// is where the surface treatment shows. Prints the largest errors, relative to the peak and to the
-// local value, per resolution; asserts that refining from 10 to 15 cells per radius brings each
-// averaged spectrum's largest error relative to its peak down, and that the staircase at 10 cells
-// is further from Mie than averaging at 10 (the reason averaging is the recommended setting).
+// The gold sphere's whole spectra as the cells shrink, staircase beside averaging: the small red tail
+// (600-800 nm) shows the surface treatment. Asserted: from 10 to 15 cells per radius each averaged
+// spectrum's largest error relative to its peak falls, and the staircase at 10 is further from Mie
+// than averaging at 10 (why averaging is the recommended setting).
 #include <gtest/gtest.h>
 
 #include <algorithm>

@@ -1,9 +1,7 @@
-// Whole spectra, not only the peak: a gold sphere (radius 30 nm, Rakic 1998 Lorentz-Drude gold in
-// water of index 1.333) at 10 cells per radius with subcell averaging of the whole tensor, its
-// extinction, scattering and absorption cross sections from 450 to 800 nm every 10 nm against Mie
-// theory for the same permittivity model (Bohren & Huffman 1983, ch. 4; materials/mie_sphere.h).
-// The accuracy issue asks every sample within 2 % of the spectrum's peak value; each is asserted
-// so, and the largest errors (relative to the peak and to the local value) are printed.
+// Whole spectra of a gold sphere (radius 30 nm, Rakic gold in water) at 10 cells per radius with the
+// whole averaged tensor: extinction, scattering and absorption over 450-800 nm against Mie theory
+// (Bohren & Huffman 1983, ch. 4), every sample within 2 % of the spectrum's peak (the issue's). The
+// largest errors, relative to the peak and to the local value, are printed.
 #include <gtest/gtest.h>
 
 #include <algorithm>

@@ -1,10 +1,7 @@
-// CPML reflection on a graded mesh (issue check: <= -50 dB). A current sheet (1 x 1 periodic cross
-// section) sends a pulse along z through a zone of 2 nm cells graded up to 10 nm base cells; the
-// probe signal is compared with a reference run whose absorbers are far away, on a grid with the
-// same nodes over the test's interior (its absorber interfaces are made cell edges by two vacuum
-// slabs), so everything but the absorber's reflection cancels. Roden & Gedney, Microw. Opt.
-// Technol. Lett. 27, 334 (2000); -50 dB is the issue's pass mark, looser than the -60 dB of the
-// uniform-grid test (cpml_validation_test.cpp) because graded cells add their own small errors.
+// CPML reflection on a graded mesh (Roden & Gedney, Microw. Opt. Technol. Lett. 27, 334 (2000)): a
+// pulse through 2 nm cells graded up to 10 nm, against a reference with far absorbers on the same
+// interior nodes, so only the absorber's reflection remains. Pass mark -50 dB (the issue's), looser
+// than the uniform test's -60 dB because graded cells add small errors of their own.
 #include <gtest/gtest.h>
 
 #include <cmath>

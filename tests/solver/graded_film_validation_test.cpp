@@ -1,9 +1,6 @@
-// A gold film (30 nm, Rakic et al., Appl. Opt. 37, 5271 (1998)) at normal incidence on a graded
-// mesh, fine (0.5 nm) only across the film and 5 nm elsewhere, against the same film on a uniform
-// 0.5 nm mesh: the geometry issue asks R within 0.5 % of the fine uniform run. A current sheet in a
-// 1x1-cell periodic column sends a pulse; R = 1 - P_front / P_front,empty as in
-// metal_film_validation_test. The characteristic-matrix value (materials/transfer_matrix.h; Born &
-// Wolf 1999, sec. 1.6) is printed beside both for context.
+// A 30 nm Rakic gold film at normal incidence on a graded mesh (0.5 nm across the film, 5 nm elsewhere)
+// against the same film on a uniform 0.5 nm mesh: R within 0.5 %, the geometry issue's figure. The
+// transfer-matrix value (Born & Wolf 1999, sec. 1.6) is printed beside both for context.
 #include <gtest/gtest.h>
 
 #include <cmath>

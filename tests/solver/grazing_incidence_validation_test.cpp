@@ -1,14 +1,7 @@
-// Near grazing incidence and beyond the critical angle, in a Bloch cell: glass (1.515) / 50 nm
-// gold (Rakic et al., Appl. Opt. 37, 5271 (1998)) / water (1.3317), p, 633 nm, R against the
-// transfer matrix of the same stack (Born & Wolf, Principles of Optics, 7th ed., 1999, sec. 1.6),
-// and a bare glass/water face beyond its critical angle (61.5 deg), where Fresnel gives R = 1,
-// T = 0 exactly. Tolerances from the issue: R within 0.005 at 80-85 deg; T within 1e-4 and not
-// negative. Before the absorbing layers were designed for the angle their waves arrive at
-// (solver/engine/absorber_angle.h), the layer returned R(0)^cos(theta) of the wave (4 % in amplitude at
-// 80 deg) and R was off by +0.036 at 80 deg and +0.086 at 82 deg with 5 nm cells; and with the
-// angle alone taken into account, an evanescent field reaching the layer 3.5 deg beyond the
-// critical angle gave R = 1.0013, T = -1.3e-3 (now 1.00000 and 3e-8: the layer's stretch kappa
-// is raised where nothing propagates).
+// Grazing incidence and beyond the critical angle in a Bloch cell: glass / 50 nm Rakic gold / water,
+// p, 633 nm, R against the transfer matrix (Born & Wolf 1999, sec. 1.6), and a bare glass/water face
+// past 61.5 deg, where Fresnel gives R = 1, T = 0. The issue's tolerances: R within 0.005 at 80-85
+// deg, T within 1e-4 and not negative. What the absorber fix changed: docs/measurements.md.
 #include <gtest/gtest.h>
 
 #include <cmath>

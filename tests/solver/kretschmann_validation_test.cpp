@@ -1,11 +1,7 @@
-// The Kretschmann film sensor on the grid: glass (n = 1.515) / 50 nm gold / air or water, p
-// polarized, 633 nm, R(theta) from an angle scan of one-dimensional Bloch runs against the
-// transfer-matrix reflectance (Born & Wolf, Principles of Optics, 7th ed., 1999, sec. 1.6;
-// Raether, Surface Plasmons, Springer 1988, ch. 2: the attenuated-total-reflection dip) evaluated
-// with the same permittivity model, the library's Rakic Au (Rakic et al., Appl. Opt. 37, 5271
-// (1998)), continuous in omega. The scheme's own (discrete) permittivity differs from it by
-// O((omega dt)^2) = 4e-4 relative at these steps (materials/discrete_permittivity.h), too little
-// to move the dip by 0.01 deg.
+// The Kretschmann sensor on the grid: glass (1.515) / 50 nm Rakic Au / air or water, p, 633 nm, R(theta)
+// from an angle scan of 1D Bloch runs against the transfer matrix of the same continuous permittivity
+// (Born & Wolf 1999, sec. 1.6; Raether 1988, ch. 2). The scheme's discrete permittivity differs by
+// O((omega dt)^2) = 4e-4 relative (discrete_permittivity.h), too little to move the dip by 0.01 deg.
 #include <gtest/gtest.h>
 
 #include <algorithm>

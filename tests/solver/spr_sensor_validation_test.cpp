@@ -1,10 +1,7 @@
-// Sensor figures of the Kretschmann film sensor (prism / gold film / analyte, p-polarized, 632.8 nm)
-// from the dip finder (solver/outputs/reflectance_dip.h) on transfer-matrix angle scans (Born & Wolf,
-// Principles of Optics, characteristic matrix), against the physics notes' table (section 4.4, values
-// computed there from three-layer Airy/Fresnel reflectance) and Raether's SPP dispersion relation
-// (Raether, Surface Plasmons, Springer 1988). Gold: Johnson & Christy, Phys. Rev. B 6, 4370 (1972)
-// interpolated to 632.8 nm (notes 2.4, from memory), and the library's Au_critical_points (Etchegoin,
-// Le Ru, Meyer, J. Chem. Phys. 125, 164705 (2006)).
+// Sensor figures of the Kretschmann sensor (prism / gold / analyte, p, 632.8 nm) from the dip finder
+// (reflectance_dip.h) on transfer-matrix angle scans, against physics.md 4.4 and Raether's SPP relation
+// (Raether 1988). Gold: Johnson & Christy, Phys. Rev. B 6, 4370 (1972) at 632.8 nm (physics.md 2.4,
+// from memory) and Au_critical_points (Etchegoin, Le Ru, Meyer, J. Chem. Phys. 125, 164705 (2006)).
 #include <gtest/gtest.h>
 
 #include <cmath>

@@ -1,9 +1,7 @@
-// Off-diagonal averaging terms at metal interfaces (solver/media/subcell_dispersive_cross_terms.h): the
-// D->E operator is symmetric (the response of E_c to a kick of D_d equals that of E_d to a kick of
-// D_c; with passive parts, the condition for a stable update, Werner & Cary, J. Comput. Phys. 226,
-// 1085 (2007), abstract), on a graded mesh in the energy's weights; a face parallel to the grid
-// gets exactly the diagonal average; a resumed run matches bit for bit. The long runs in a closed
-// box are in subcell_dispersive_energy_validation_test.cpp.
+// Off-diagonal averaging terms at metal interfaces (subcell_dispersive_cross_terms.h): the D->E operator
+// is symmetric (with passive parts, the condition for a stable update: Werner & Cary, J. Comput. Phys.
+// 226, 1085 (2007)), also on a graded mesh; a face parallel to the grid gets exactly the diagonal; a
+// resumed run matches bit for bit. Long closed-box runs: subcell_dispersive_energy_validation_test.cpp.
 #include <gtest/gtest.h>
 
 #include <algorithm>

@@ -1,10 +1,7 @@
-// Metal spheres with subcell averaging of the whole tensor (solver/media/subcell_dispersive_cross_terms.h)
-// in a closed periodic box, 1e5 steps (graded mesh 6e4, lossy gold 5e4): by Poynting's theorem the
-// energy a dipole pulse leaves in a closed box of passive media can only slosh around and fall, so
-// an update that is not passive shows up as growth (the asymmetric coupling of a trial grew
-// 1e14-fold between steps 5e4 and 1e5 with the nearly lossless Drude metal here). Checked: nearly
-// lossless metal at 0.9 and at 0.999 of the Courant limit (where the step cap draws fills in), on a
-// graded mesh, and lossy critical-point gold, whose energy must fall.
+// Metal spheres with the whole averaged tensor in a closed periodic box: by Poynting's theorem the
+// energy of passive media can only slosh and fall, so growth exposes an active update. Nearly lossless
+// metal at 0.9 and 0.999 of the Courant limit (1e5 steps), on a graded mesh (6e4), and lossy
+// critical-point gold (5e4), whose energy must fall. What a trial did: docs/measurements.md.
 #include <gtest/gtest.h>
 
 #include <algorithm>

@@ -1,14 +1,7 @@
-// A thick gold film in the Kretschmann geometry (glass n = 1.515 / 70 nm of the library's Rakic Au
-// / air), p polarized, one broadband run at a fixed in-plane wavevector k_par: the reflectance dip
-// sits where k_par meets the surface plasmon of the bare gold/air interface,
-// k_spp = k0 sqrt(eps_m eps_d / (eps_m + eps_d)) (Raether, Surface Plasmons on Smooth and Rough
-// Surfaces and on Gratings, Springer 1988, eq. 2.2), up to the film's own shift, which the transfer
-// matrix of the same stack (Born & Wolf, Principles of Optics, 7th ed., 1999, sec. 1.6) includes;
-// the grid's dip is held to both. With this gold (Im eps = 1.95 at 639 nm) the transfer matrix's
-// dip (an angle scan at 639 nm) lies 0.47, 0.42, 0.41, 0.45 % above Re k_spp for 60, 70, 80,
-// 100 nm: it does not fall with the thickness as the prism's radiation shift would (Raether 1988,
-// ch. 2: as exp(-2 |k_z,metal| d)); the broad dip's minimum is pulled by the sloping background,
-// so a thicker film would not bring it closer.
+// A thick gold film in the Kretschmann geometry (glass / 70 nm Rakic Au / air, p), one broadband run
+// at fixed k_par: the reflectance dip against the bare-interface plasmon (Raether, Surface Plasmons,
+// Springer 1988, eq. 2.2) and against the transfer matrix of the stack (Born & Wolf 1999, sec. 1.6).
+// Why those two differ by about 0.45 %: docs/measurements.md.
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -21,7 +14,7 @@
 #include "materials/transfer_matrix.h"
 #include "film_stack_scene.h"
 #include "solver/outputs/reflectance_dip.h"
-#include "solver/runs/run_scene.h"
+#include "solver/runs/run_plan.h"
 
 namespace yeegap::solver {
 namespace {

@@ -12,7 +12,7 @@
 #include "io/scene/scene_reader.h"
 #include "json.h"
 #include "machine_memory.h"
-#include "solver/runs/run_scene.h"
+#include "solver/runs/run_plan.h"
 
 namespace yeegap::cli {
 
@@ -87,7 +87,7 @@ SweepCost sweep_cost(const std::string& text, const CheckOptions& o, const io::S
                                                                                               : io::NoteSink([](const std::string&) {}));
     solver::ModelSummary m;
     try {
-      m = solver::plan_scene(s);
+      m = solver::plan_run(s).summary;
     } catch (const RunError& e) {
       throw RunError(fmt::format("sweep point {} ({}): {}", k, plan.describe(k), e.what()));
     }
@@ -115,7 +115,8 @@ int run_check(const CheckOptions& o) {
   const solver::Scene scene = plan.empty() ? io::read_scene_text(text, o.scene, o.overrides)
                                            : io::read_scene_point(text, o.scene, plan, 0, o.overrides,
                                                                   [](const std::string&) {});
-  const solver::ModelSummary m = solver::plan_scene(scene);
+  const solver::RunPlan run_plan = solver::plan_run(scene);
+  const solver::ModelSummary& m = run_plan.summary;
   const double cost_seconds = cell_updates(m) / assumed_cell_updates_per_second;
   const double uniform = uniform_cells_at(scene, m);
   if (o.json) {
@@ -131,6 +132,7 @@ int run_check(const CheckOptions& o) {
       j.add("sweep", s.str());
     }
     j.text("scene", o.scene)
+        .text("run", run_plan.description())
         .add("grid", json_array({fmt::format("{}", m.cells[0]), fmt::format("{}", m.cells[1]), fmt::format("{}", m.cells[2])}))
         .number("cells", static_cast<double>(m.cell_count))
         .number("smallest_cell_m", m.smallest_cell)
@@ -164,6 +166,7 @@ int run_check(const CheckOptions& o) {
                  sweep->memory_bytes / 1e6);
     std::fprintf(stderr, "  below: point 0 (%s)\n", plan.describe(0).c_str());
   }
+  std::fprintf(stderr, "  run         %s\n", run_plan.description().c_str());
   std::fprintf(stderr, "  grid        %d x %d x %d = %lld cells, cells %.4g to %.4g nm\n", m.cells[0], m.cells[1], m.cells[2],
                m.cell_count, m.smallest_cell * 1e9, m.largest_cell * 1e9);
   for (int a = 0; a < 3; ++a)

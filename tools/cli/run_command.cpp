@@ -29,9 +29,7 @@
 #include "checkpointed_run.h"
 #include "run_control.h"
 #include "sensor_report.h"
-#include "solver/runs/angle_scan.h"
-#include "solver/runs/bloch_run.h"
-#include "solver/runs/run_scene.h"
+#include "solver/runs/run_plan.h"
 #include "solver/engine/simulation.h"
 #include "viewer_outputs.h"
 
@@ -297,38 +295,22 @@ int execute_run(const RunOptions& o) {
                                 {YEEGAP_VERSION, o.overrides}, {}};  // the duration was checked by the option
   if (o.point) checkpoint.info.overrides.push_back(fmt::format("(sweep point {})", *o.point));  // points share one text
 
-  // Three kinds of run, each Checkpointable: an ordinary Simulation, a Bloch run (complex fields
-  // and/or a plane wave in a Bloch cell: several Simulations in lock step) and an angle scan of
-  // Bloch runs (checkpointed by whole angles: an unfinished angle runs again on resume).
-  // Before anything is allocated: a run that cannot fit is refused, not started.
-  refuse_if_over_memory(static_cast<double>(solver::plan_scene(scene).memory_bytes),
+  // One plan decides the kind of run (run_plan.h); before anything is allocated, a run that
+  // cannot fit is refused, not started.
+  const solver::RunPlan planned = solver::plan_run(scene);
+  refuse_if_over_memory(static_cast<double>(planned.summary.memory_bytes),
                         o.memory.empty() ? std::nullopt : parse_memory_size(o.memory));
-  std::optional<solver::Simulation> sim;
-  std::unique_ptr<solver::BlochRun> bloch;
-  std::unique_ptr<solver::AngleScan> scan;
-  solver::Checkpointable* state = nullptr;
-  RunFunction run_function;
-  if (!solver::is_bloch_scene(scene)) {
-    sim.emplace(scene);
-    state = &*sim;
-    run_function = [&](const auto& report, const auto& between_steps) { return sim->run(report, between_steps); };
-  } else if (solver::is_angle_scan(scene)) {
-    scan = std::make_unique<solver::AngleScan>(solver::bloch_scene_as_run(scene));
-    state = scan.get();
-    run_function = [&](const auto& report, const auto& between_steps) { return scan->run(report, between_steps); };
-    checkpoint.position = [total = scan->angle_count()](long done) {
-      return fmt::format("{} of {} angles finished", done, total);
-    };
-  } else {
-    bloch = std::make_unique<solver::BlochRun>(solver::bloch_scene_as_run(scene));
-    state = bloch.get();
-    run_function = [&](const auto& report, const auto& between_steps) { return bloch->run(report, between_steps); };
-  }
+  const std::unique_ptr<solver::Run> state = solver::make_run(planned);
+  checkpoint.position = [&state](long counter) { return state->position(counter); };
+  const RunFunction run_function = [&](const auto& report, const auto& between_steps) {
+    return state->run(report, between_steps);
+  };
   resume_or_start(*state, scene, checkpoint, o.resume);
-  const solver::ModelSummary plan = sim ? sim->summary() : solver::plan_scene(scene);
-  std::fprintf(stderr, "yeegap: %s: %d x %d x %d cells, dt %.4g fs, %s%ld steps, %.1f MB, %d thread%s\n", o.scene.c_str(),
-               plan.cells[0], plan.cells[1], plan.cells[2], plan.time_step * 1e15, plan.steps_estimated ? "about " : "",
-               plan.steps, plan.memory_bytes / 1e6, threads, threads == 1 ? "" : "s");
+  const solver::ModelSummary plan = state->summary();
+  std::fprintf(stderr, "yeegap: %s: %s; %d x %d x %d cells, dt %.4g fs, %s%ld steps, %.1f MB, %d thread%s\n",
+               o.scene.c_str(), planned.description().c_str(), plan.cells[0], plan.cells[1], plan.cells[2],
+               plan.time_step * 1e15, plan.steps_estimated ? "about " : "", plan.steps, plan.memory_bytes / 1e6, threads,
+               threads == 1 ? "" : "s");
   for (const auto& w : plan.warnings) std::fprintf(stderr, "yeegap: warning: %s\n", w.c_str());
   if (plan.mixed_cells > 0)
     std::fprintf(stderr, "yeegap: %lld E locations on body surfaces averaged (domain.averaging)\n", plan.mixed_cells);
@@ -338,7 +320,7 @@ int execute_run(const RunOptions& o) {
     run = run_with_checkpoints(*state, run_function, scene, checkpoint, progress);
   }
   const bool diverged = run.results.summary.stop_reason == "diverged";
-  if (scan && !scene.sensors.empty() && !run.interrupted && !diverged) {
+  if (planned.kind == solver::RunKind::angle_scan && !scene.sensors.empty() && !run.interrupted && !diverged) {
     // The sensor's repeats of the scan (sensing medium's index raised; bound layer taken away). The
     // finished scan is checkpointed first; a signal during the repeats stops them, writes the scan's
     // results as partial ones and exits 3, and --resume runs the repeats again (they are not
@@ -355,9 +337,8 @@ int execute_run(const RunOptions& o) {
                  spec.binding >= 0 ? scene.materials[static_cast<std::size_t>(spec.binding)].name.c_str() : "");
     ProgressLine progress;
     StopSignals signals;
-    const bool complete = solver::add_sensor_results(solver::bloch_scene_as_run(scene), run.results,
-                                                     [&](const solver::Progress& p) { progress.update(p); },
-                                                     [&] { return signals.received() != 0; });
+    const bool complete = state->run_repeats(run.results, [&](const solver::Progress& p) { progress.update(p); },
+                                             [&] { return signals.received() != 0; });
     if (!complete) {
       progress.break_line();
       run.interrupted = true;

@@ -29,7 +29,7 @@
 #include "machine_memory.h"
 #include "progress.h"
 #include "run_control.h"
-#include "solver/runs/run_scene.h"
+#include "solver/runs/run_plan.h"
 #include "solver/engine/simulation.h"
 #include "sweep_batch.h"
 #include "viewer_outputs.h"
@@ -101,7 +101,7 @@ double run_point(const Point& p, const io::SweepPlan& plan, const SweepOptions& 
   if (!limit && jobs > 1)
     if (const auto free = available_memory_bytes()) limit = 0.9 * *free;
   if (limit) *limit /= jobs;
-  refuse_if_over_memory(static_cast<double>(solver::plan_scene(p.scene).memory_bytes), limit);
+  refuse_if_over_memory(static_cast<double>(solver::plan_run(p.scene).summary.memory_bytes), limit);
   omp_set_num_threads(threads);
   const std::string started = now_iso8601();
   const auto start = std::chrono::steady_clock::now();
