@@ -1,6 +1,8 @@
-"""What the example checks in this folder share: a tally of named checks and running an example
-scene with `yeegap run`, stopping with its error output when the run fails."""
+"""What the example checks in this folder share: a tally of named checks, running an example scene
+with `yeegap run` (stopping with its error output when the run fails), and reading a figure the
+documentation prints to compare it with a run."""
 import os
+import re
 import subprocess
 import sys
 
@@ -34,3 +36,22 @@ def run_example(yeegap, src, scene, out, *args, overrides=()):
     if done.returncode != 0:
         sys.exit(f"run failed ({done.returncode}):\n{done.stderr}")
     return done
+
+
+def printed(src, path, pattern):
+    """The numbers a regular expression finds in a documentation file, as text (to keep the digits).
+    Line breaks and runs of spaces in the file count as one space, as they do in the rendered text."""
+    with open(os.path.join(src, path), encoding="utf-8") as f:
+        m = re.search(pattern, " ".join(f.read().split()))
+    if not m:
+        sys.exit(f"{path}: the text no longer matches /{pattern}/; update this check with the text")
+    return m.groups()
+
+
+def agrees(checks, text, value, what, where, unit=None):
+    """The run's value rounds to the printed one: within half a unit of its last digit, or of `unit`
+    for a figure printed rounded ("about 1770": unit 10)."""
+    digits = len(text.split(".")[1]) if "." in text else 0
+    step = unit if unit is not None else 10 ** -digits
+    ok = abs(float(text) - value) <= 0.5 * step + 1e-12
+    checks(ok, f"{where}: {what} printed {text}, run gives {value:.{digits + 2}f}")

@@ -4,7 +4,9 @@ must hold at any resolution: passivity (absorption >= 0, extinction >= absorptio
 collection fraction in (0, 1), a bonding plasmon red of the single sphere's resonance (526.5 nm for
 one 20 nm-radius sphere of the same gold model in water, from materials/mie_sphere.h; the
 plasmon-ruler trend of Jain, Huang, El-Sayed, Nano Lett. 7, 2080 (2007) puts a gap of a tenth of
-the diameter about 10 % further red), and a gap field well above the incident one.
+the diameter about 10 % further red), and a gap field well above the incident one; and that the
+figures README.md prints for this coarse run (peak, gap enhancement, collected fraction) are the
+run's, to their printed precision.
 Usage: example_gold_dimer_check.py YEEGAP_BINARY SOURCE_DIR [KEEP_DIR]
 With KEEP_DIR the results (dimer.h5) stay there instead of in a temporary folder."""
 import json
@@ -15,16 +17,16 @@ import tempfile
 import h5py
 import numpy as np
 
-from example_checks import Checks, run_example
+from example_checks import Checks, agrees, printed, run_example
 
-yeegap, src = sys.argv[1], sys.argv[2]
+yeegap, src_dir = sys.argv[1], sys.argv[2]
 check = Checks()
 
 
 with tempfile.TemporaryDirectory() as scratch:
     work = sys.argv[3] if len(sys.argv) > 3 else scratch
     out = os.path.join(work, "dimer.h5")
-    done = run_example(yeegap, src, "gold_dimer_antenna.yaml", out, "--json",
+    done = run_example(yeegap, src_dir, "gold_dimer_antenna.yaml", out, "--json",
                        overrides=["domain.step=2 nm", "domain.cpml.cells=6",
                                   "outputs[0].cross_sections.frequencies.count=23"])
     summary = json.loads(done.stdout)
@@ -57,4 +59,11 @@ with tempfile.TemporaryDirectory() as scratch:
         stored = m["E_enhancement"][k, 0][np.argmin(np.abs(y)), np.argmin(np.abs(x))]
         check(abs(stored / enhancement - 1) < 1e-9,
               f"E_enhancement at the gap centre ({stored:.1f}) is |E|^2 / |E_inc|^2 from /sources")
+    # The README's figures of this run (its "A gold dimer antenna" section).
+    text_peak, text_gap, text_collected = printed(
+        src_dir, "README.md", r"the bonding plasmon at ([0-9.]+) nm, red of a single sphere's[\s\S]*?of about ([0-9]+) in "
+        r"the middle of the gap at 620 nm[\s\S]*?collects ([0-9]+) % of the scattered power")
+    agrees(check, text_peak, peak, "dimer extinction peak (nm, sampled)", "README.md")
+    agrees(check, text_gap, enhancement, "dimer gap enhancement at 620 nm (about)", "README.md", unit=10)
+    agrees(check, text_collected, 100 * frac, "dimer fraction collected by 0.9 NA (%)", "README.md")
 check.finish()
