@@ -81,6 +81,65 @@ struct Builder {
 
 }  // namespace
 
+namespace {
+
+// The cell edges an axis must have between its absorbing layers (A and B): the layers' inner faces,
+// the interfaces (those inside a layer are noted, not kept), gap faces clear of the others, and the
+// optional interfaces (zone edges among them) where they cost no extra cells.
+std::vector<double> pinned_edges(const AxisRequest& r, const Builder& b, double A, double B, std::size_t user_zones,
+                                 std::vector<std::string>& notes) {
+  const double merge = 1e-9 * (r.hi - r.lo);
+  std::vector<double> pins = {A, B};
+  for (double x : r.interfaces) {
+    if (x > A + merge && x < B - merge) pins.push_back(x);
+    else if (x > r.lo && x < r.hi && std::abs(x - A) > merge && std::abs(x - B) > merge)
+      notes.push_back(fmt::format("interface at {} lies in an absorbing layer; not made a cell edge", nm(x)));
+  }
+  std::sort(pins.begin(), pins.end());
+  pins.erase(std::unique(pins.begin(), pins.end(), [&](double u, double v) { return v - u <= merge; }), pins.end());
+  // Gap faces, in order along the axis so that a run of near twins keeps its first member.
+  std::vector<double> gap_faces = r.gap_interfaces;
+  std::sort(gap_faces.begin(), gap_faces.end());
+  for (double x : gap_faces) {
+    if (!(x > A && x < B)) continue;
+    const double clear = gap_clearance * b.allowed(x);
+    const auto at = std::lower_bound(pins.begin(), pins.end(), x);
+    const bool near_next = at != pins.end() && *at - x < clear;
+    const bool near_previous = at != pins.begin() && x - *(at - 1) < clear;
+    if (!near_next && !near_previous) pins.insert(at, x);
+  }
+  std::vector<double> optional = r.optional_interfaces;
+  for (std::size_t z = 0; z < user_zones; ++z) {
+    optional.push_back(b.zones[z].from);
+    optional.push_back(b.zones[z].to);
+  }
+  for (double x : optional) {
+    if (!(x > A && x < B)) continue;
+    const double clear = optional_clearance * b.allowed(x);
+    const bool free = std::all_of(pins.begin(), pins.end(), [&](double p) { return std::abs(p - x) >= clear; });
+    if (free) pins.insert(std::upper_bound(pins.begin(), pins.end(), x), x);
+  }
+  return pins;
+}
+
+// Notes on a finished axis: user zones that lie in an absorbing layer (they refine nothing), and
+// layers whose cells were made finer than the base step to grade into the interior.
+void note_layers(const AxisRequest& r, const Builder& b, double A, double B, std::size_t user_zones, double h_lo,
+                 double h_hi, std::vector<std::string>& notes) {
+  for (std::size_t z = 0; z < user_zones; ++z)
+    if (b.zones[z].to <= A || b.zones[z].from >= B)
+      notes.push_back(fmt::format("the refine zone from {} to {} lies in an absorbing layer, whose cells stay "
+                                  "uniform: it refines nothing", nm(b.zones[z].from), nm(b.zones[z].to)));
+  if (h_lo > 0 && h_lo < r.base * (1 - 1e-12))
+    notes.push_back(fmt::format("the low absorbing layer uses cells of {} (base {}) to grade into the interior",
+                                nm(h_lo), nm(r.base)));
+  if (h_hi > 0 && h_hi < r.base * (1 - 1e-12))
+    notes.push_back(fmt::format("the high absorbing layer uses cells of {} (base {}) to grade into the interior",
+                                nm(h_hi), nm(r.base)));
+}
+
+}  // namespace
+
 AxisMesh build_axis(const AxisRequest& r) {
   const double length = r.hi - r.lo;
   YG_CHECK(length > 0 && r.base > 0 && r.ratio > 1, "an axis needs hi > lo, a positive base step and a ratio > 1");
@@ -122,38 +181,7 @@ AxisMesh build_axis(const AxisRequest& r) {
     if (!(B - A > 0))
       throw RunError(fmt::format("the absorbing layers ({} + {} cells) leave no room on an axis of {}", r.absorber_lo,
                                  r.absorber_hi, nm(length)));
-    const double merge = 1e-9 * length;
-    std::vector<double> pins = {A, B};
-    for (double x : r.interfaces) {
-      if (x > A + merge && x < B - merge) pins.push_back(x);
-      else if (x > r.lo && x < r.hi && std::abs(x - A) > merge && std::abs(x - B) > merge)
-        out.notes.push_back(fmt::format("interface at {} lies in an absorbing layer; not made a cell edge", nm(x)));
-    }
-    std::sort(pins.begin(), pins.end());
-    pins.erase(std::unique(pins.begin(), pins.end(), [&](double u, double v) { return v - u <= merge; }), pins.end());
-    // Gap faces, in order along the axis so that a run of near twins keeps its first member.
-    std::vector<double> gap_faces = r.gap_interfaces;
-    std::sort(gap_faces.begin(), gap_faces.end());
-    for (double x : gap_faces) {
-      if (!(x > A && x < B)) continue;
-      const double clear = gap_clearance * b.allowed(x);
-      const auto at = std::lower_bound(pins.begin(), pins.end(), x);
-      const bool near_next = at != pins.end() && *at - x < clear;
-      const bool near_previous = at != pins.begin() && x - *(at - 1) < clear;
-      if (!near_next && !near_previous) pins.insert(at, x);
-    }
-    // Optional interfaces, zone edges among them, where they cost no extra cells.
-    std::vector<double> optional = r.optional_interfaces;
-    for (std::size_t z = 0; z < user_zones; ++z) {
-      optional.push_back(b.zones[z].from);
-      optional.push_back(b.zones[z].to);
-    }
-    for (double x : optional) {
-      if (!(x > A && x < B)) continue;
-      const double clear = optional_clearance * b.allowed(x);
-      const bool free = std::all_of(pins.begin(), pins.end(), [&](double p) { return std::abs(p - x) >= clear; });
-      if (free) pins.insert(std::upper_bound(pins.begin(), pins.end(), x), x);
-    }
+    const std::vector<double> pins = pinned_edges(r, b, A, B, user_zones, out.notes);
 
     std::vector<double>& nodes = out.nodes;
     for (int i = 0; i < r.absorber_lo; ++i) nodes.push_back(r.lo + h_lo * i);
@@ -180,16 +208,7 @@ AxisMesh build_axis(const AxisRequest& r) {
     }
     if (!fixed_any) {
       for (int i = 0; i < n; ++i) YG_CHECK(cell(i) > 0, "graded mesh produced an empty cell");
-      for (std::size_t z = 0; z < user_zones; ++z)
-        if (b.zones[z].to <= A || b.zones[z].from >= B)
-          out.notes.push_back(fmt::format("the refine zone from {} to {} lies in an absorbing layer, whose cells stay "
-                                          "uniform: it refines nothing", nm(b.zones[z].from), nm(b.zones[z].to)));
-      if (h_lo > 0 && h_lo < r.base * (1 - 1e-12))
-        out.notes.push_back(fmt::format("the low absorbing layer uses cells of {} (base {}) to grade into the interior",
-                                        nm(h_lo), nm(r.base)));
-      if (h_hi > 0 && h_hi < r.base * (1 - 1e-12))
-        out.notes.push_back(fmt::format("the high absorbing layer uses cells of {} (base {}) to grade into the interior",
-                                        nm(h_hi), nm(r.base)));
+      note_layers(r, b, A, B, user_zones, h_lo, h_hi, out.notes);
       return out;
     }
   }

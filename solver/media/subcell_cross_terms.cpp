@@ -25,41 +25,54 @@ bool lossless_dielectric(const MaterialSpec& m) {
          m.poles.conductivity == 0;
 }
 
-}  // namespace
+using Key = std::tuple<int, int, int, int>;  // component, i, j, k
 
-SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi,
-                                     const std::vector<Site>& sites, const std::vector<std::ptrdiff_t>& other_mixed,
-                                     double top) {
-  if (sites.empty()) return;
-  YG_CHECK(top >= 1, fmt::format("the cross terms' eigenvalue bound {} must be at least the vacuum's 1", top));
-  const int materials = static_cast<int>(s.materials.size());
-  using Key = std::tuple<int, int, int, int>;  // component, i, j, k
-  std::map<Key, int> node_of;
-  std::vector<Matrix3> kappa;  // per node: the averaged inverse permittivity (bulk: diagonal)
-  for (std::size_t q = 0; q < sites.size(); ++q) {
-    const Site& st = sites[q];
-    const int c = static_cast<int>(st.component);
-    const auto ijk = L.index_of(st.offset);
-    node_of[{c, ijk[0], ijk[1], ijk[2]}] = static_cast<int>(nodes_.size());
-    nodes_.push_back({c, st.offset, static_cast<int>(q), 1.0});
-    // Farjadpour et al. (2006): kappa = <1/eps> n n^T + (1/<eps>) (1 - n n^T).
-    const double a = st.fill / st.eps_in + (1 - st.fill) / st.eps_out;
-    const double b = 1 / (st.fill * st.eps_in + (1 - st.fill) * st.eps_out);
-    Matrix3 t{};
-    for (int x = 0; x < 3; ++x)
-      for (int y = 0; y < 3; ++y) t[x][y] = (x == y ? b : 0) + (a - b) * st.normal[x] * st.normal[y];
-    kappa.push_back(t);
-  }
-  std::vector<std::ptrdiff_t> excluded(other_mixed);
-  std::sort(excluded.begin(), excluded.end());
+// A location of a triple: the node it is (or its mirror image), the sign of D there, and the
+// mirror axis.
+struct Place {
+  int node = -1;
+  double sign = 1;
+  int mirror_axis = -1;
+};
 
-  // A location: the node it is (or its mirror image), the sign of D there, and the mirror axis.
-  struct Place {
-    int node = -1;
-    double sign = 1;
-    int mirror_axis = -1;
+// The locations the cross terms join while they are planned: the sites (mixed locations) first,
+// then the bulk dielectric locations their triples reach, each with its averaged inverse
+// permittivity kappa (bulk: diagonal).
+struct NodePlan {
+  struct Node {
+    int component = 0;
+    std::ptrdiff_t offset = 0;
+    int site = -1;
+    double eps = 1;
   };
-  auto place = [&](int c, std::array<int, 3> idx) -> Place {
+  const Scene& s;
+  const Grid& g;
+  const BlockLayout& L;
+  const MaterialIndex& mi;
+  std::vector<std::ptrdiff_t> excluded;  // sorted: 3 offset + component of other pairs' locations
+  std::map<Key, int> node_of;
+  std::vector<Node> nodes;
+  std::vector<Matrix3> kappa;
+
+  void add_sites(const std::vector<SubcellCrossTerms::Site>& sites) {
+    for (std::size_t q = 0; q < sites.size(); ++q) {
+      const SubcellCrossTerms::Site& st = sites[q];
+      const int c = static_cast<int>(st.component);
+      const auto ijk = L.index_of(st.offset);
+      node_of[{c, ijk[0], ijk[1], ijk[2]}] = static_cast<int>(nodes.size());
+      nodes.push_back({c, st.offset, static_cast<int>(q), 1.0});
+      // Farjadpour et al. (2006): kappa = <1/eps> n n^T + (1/<eps>) (1 - n n^T).
+      const double a = st.fill / st.eps_in + (1 - st.fill) / st.eps_out;
+      const double b = 1 / (st.fill * st.eps_in + (1 - st.fill) * st.eps_out);
+      Matrix3 t{};
+      for (int x = 0; x < 3; ++x)
+        for (int y = 0; y < 3; ++y) t[x][y] = (x == y ? b : 0) + (a - b) * st.normal[x] * st.normal[y];
+      kappa.push_back(t);
+    }
+  }
+
+  // E_c at `idx`: a site, a bulk lossless dielectric (added as a node), or nothing (-1).
+  Place place(int c, std::array<int, 3> idx) {
     Place p;
     for (int a = 0; a < 3; ++a) {
       if (idx[a] >= 0 && idx[a] < g.n[a]) continue;
@@ -83,20 +96,23 @@ SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockL
     const std::ptrdiff_t o = L.at(idx[0], idx[1], idx[2]);
     if (std::binary_search(excluded.begin(), excluded.end(), 3 * o + c)) return {};
     const int m = mi.e[c][o];
-    if (m >= materials || !lossless_dielectric(s.materials[m])) return {};
+    if (m >= static_cast<int>(s.materials.size()) || !lossless_dielectric(s.materials[m])) return {};
     const double eps = s.materials[m].poles.eps_inf;
-    p.node = static_cast<int>(nodes_.size());
+    p.node = static_cast<int>(nodes.size());
     node_of[key] = p.node;
-    nodes_.push_back({c, o, -1, eps});
+    nodes.push_back({c, o, -1, eps});
     Matrix3 t{};
     for (int x = 0; x < 3; ++x) t[x][x] = 1 / eps;
     kappa.push_back(t);
     return p;
-  };
+  }
+};
 
-  // The triples around every site, each once (periodic axes wrap the node).
-  std::map<std::tuple<int, int, int, int>, bool> triples;  // (node i, j, k, bits)
-  for (const Site& st : sites) {
+// The triples around every site, each once (periodic axes wrap the node): (node i, j, k, bits).
+std::map<std::tuple<int, int, int, int>, bool> triples_around(const std::vector<SubcellCrossTerms::Site>& sites,
+                                                              const Grid& g, const BlockLayout& L) {
+  std::map<std::tuple<int, int, int, int>, bool> triples;
+  for (const SubcellCrossTerms::Site& st : sites) {
     const int c = static_cast<int>(st.component);
     const auto idx = L.index_of(st.offset);
     for (int bits = 0; bits < 8; ++bits) {
@@ -107,81 +123,98 @@ SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockL
       triples[{node[0], node[1], node[2], bits}] = true;
     }
   }
+  return triples;
+}
 
-  // Equal cells on both sides of the node along every axis that varies (a graded mesh weighs the
-  // locations' energies by their volumes, which the 1/8 weights do not).
-  auto uniform_around = [&](const std::array<int, 3>& node) {
-    for (int a = 0; a < 3; ++a) {
-      if (g.invariant(a)) continue;
-      auto cell = [&](int i) {
-        if (g.periodic[a]) i = ((i % g.n[a]) + g.n[a]) % g.n[a];
-        return g.primal(a, std::clamp(i, 0, g.n[a] - 1));
-      };
-      const double lo = cell(node[a] - 1), hi = cell(node[a]);
-      if (std::abs(lo - hi) > 1e-9 * hi) return false;
-    }
-    return true;
-  };
-
-  std::map<std::pair<int, int>, double> coupling;  // (target node, source node) -> coefficient
-  for (const auto& [t, unused] : triples) {
-    const std::array<int, 3> node{std::get<0>(t), std::get<1>(t), std::get<2>(t)};
-    const int bits = std::get<3>(t);
-    if (!uniform_around(node)) continue;
-    std::array<Place, 3> at;
-    std::array<Matrix3, 3> k{};
-    bool any_site = false;
-    for (int c = 0; c < 3; ++c) {
-      std::array<int, 3> idx = node;
-      idx[c] -= (bits >> c) & 1;
-      at[c] = place(c, idx);
-      if (at[c].node < 0) continue;
-      k[c] = kappa[at[c].node];
-      any_site = any_site || nodes_[at[c].node].site >= 0;
-      if (at[c].mirror_axis >= 0)  // the image's tensor: the normal reflected in the plane
-        for (int x = 0; x < 3; ++x)
-          for (int y = 0; y < 3; ++y)
-            if ((x == at[c].mirror_axis) != (y == at[c].mirror_axis)) k[c][x][y] = -k[c][x][y];
-    }
-    if (!any_site) continue;
-    // The triple's tensor: each location's own diagonal, the off-diagonal terms averaged over the
-    // two locations they join (an absent location sits decoupled at the smallest present diagonal).
-    Matrix3 diag{}, off{};
-    double lo = 1e300;
-    for (int c = 0; c < 3; ++c)
-      if (at[c].node >= 0) lo = std::min(lo, k[c][c][c]);
-    for (int c = 0; c < 3; ++c) {
-      diag[c][c] = at[c].node >= 0 ? k[c][c][c] : lo;
-      for (int d = 0; d < 3; ++d)
-        if (d != c && at[c].node >= 0 && at[d].node >= 0) off[c][d] = 0.5 * (k[c][c][d] + k[d][c][d]);
-    }
-    // Largest scale in [0, 1] keeping the eigenvalues in [lo/10, top] (bisection; the scale-0
-    // matrix, the diagonal, qualifies: every diagonal is at most 1/eps_min <= 1 <= top).
-    auto fits = [&](double sc) {
-      Matrix3 m = diag;
-      for (int x = 0; x < 3; ++x)
-        for (int y = 0; y < 3; ++y) m[x][y] += sc * off[x][y];
-      const auto e = symmetric_eigenvalues(m);
-      return e[0] >= 0.1 * lo && e[2] <= top;
+// Equal cells on both sides of the node along every axis that varies (a graded mesh weighs the
+// locations' energies by their volumes, which the 1/8 weights do not).
+bool uniform_around(const Grid& g, const std::array<int, 3>& node) {
+  for (int a = 0; a < 3; ++a) {
+    if (g.invariant(a)) continue;
+    auto cell = [&](int i) {
+      if (g.periodic[a]) i = ((i % g.n[a]) + g.n[a]) % g.n[a];
+      return g.primal(a, std::clamp(i, 0, g.n[a] - 1));
     };
-    double scale = 1;
-    if (!fits(1)) {
-      double a = 0, b = 1;
-      for (int it = 0; it < 40; ++it) {
-        const double m = 0.5 * (a + b);
-        (fits(m) ? a : b) = m;
-      }
-      scale = a;
-    }
-    smallest_scale_ = std::min(smallest_scale_, scale);
-
-    for (int c = 0; c < 3; ++c)
-      for (int d = 0; d < 3; ++d) {
-        if (c == d || at[c].node < 0 || at[d].node < 0 || at[c].mirror_axis >= 0 || off[c][d] == 0) continue;
-        coupling[{at[c].node, at[d].node}] += scale * off[c][d] * at[d].sign / 8;
-      }
+    const double lo = cell(node[a] - 1), hi = cell(node[a]);
+    if (std::abs(lo - hi) > 1e-9 * hi) return false;
   }
+  return true;
+}
 
+// Adds one triple's off-diagonal terms to `coupling` ((target node, source node) -> coefficient);
+// returns the scale the positivity cap put on them (1: none needed, or nothing to couple).
+double couple_triple(NodePlan& plan, const std::array<int, 3>& node, int bits, double top,
+                     std::map<std::pair<int, int>, double>& coupling) {
+  std::array<Place, 3> at;
+  std::array<Matrix3, 3> k{};
+  bool any_site = false;
+  for (int c = 0; c < 3; ++c) {
+    std::array<int, 3> idx = node;
+    idx[c] -= (bits >> c) & 1;
+    at[c] = plan.place(c, idx);
+    if (at[c].node < 0) continue;
+    k[c] = plan.kappa[at[c].node];
+    any_site = any_site || plan.nodes[at[c].node].site >= 0;
+    if (at[c].mirror_axis >= 0)  // the image's tensor: the normal reflected in the plane
+      for (int x = 0; x < 3; ++x)
+        for (int y = 0; y < 3; ++y)
+          if ((x == at[c].mirror_axis) != (y == at[c].mirror_axis)) k[c][x][y] = -k[c][x][y];
+  }
+  if (!any_site) return 1;
+  // The triple's tensor: each location's own diagonal, the off-diagonal terms averaged over the
+  // two locations they join (an absent location sits decoupled at the smallest present diagonal).
+  Matrix3 diag{}, off{};
+  double lo = 1e300;
+  for (int c = 0; c < 3; ++c)
+    if (at[c].node >= 0) lo = std::min(lo, k[c][c][c]);
+  for (int c = 0; c < 3; ++c) {
+    diag[c][c] = at[c].node >= 0 ? k[c][c][c] : lo;
+    for (int d = 0; d < 3; ++d)
+      if (d != c && at[c].node >= 0 && at[d].node >= 0) off[c][d] = 0.5 * (k[c][c][d] + k[d][c][d]);
+  }
+  // Largest scale in [0, 1] keeping the eigenvalues in [lo/10, top] (bisection; the scale-0
+  // matrix, the diagonal, qualifies: every diagonal is at most 1/eps_min <= 1 <= top).
+  auto fits = [&](double sc) {
+    Matrix3 m = diag;
+    for (int x = 0; x < 3; ++x)
+      for (int y = 0; y < 3; ++y) m[x][y] += sc * off[x][y];
+    const auto e = symmetric_eigenvalues(m);
+    return e[0] >= 0.1 * lo && e[2] <= top;
+  };
+  double scale = 1;
+  if (!fits(1)) {
+    double a = 0, b = 1;
+    for (int it = 0; it < 40; ++it) {
+      const double m = 0.5 * (a + b);
+      (fits(m) ? a : b) = m;
+    }
+    scale = a;
+  }
+  for (int c = 0; c < 3; ++c)
+    for (int d = 0; d < 3; ++d) {
+      if (c == d || at[c].node < 0 || at[d].node < 0 || at[c].mirror_axis >= 0 || off[c][d] == 0) continue;
+      coupling[{at[c].node, at[d].node}] += scale * off[c][d] * at[d].sign / 8;
+    }
+  return scale;
+}
+
+}  // namespace
+
+SubcellCrossTerms::SubcellCrossTerms(const Scene& s, const Grid& g, const BlockLayout& L, const MaterialIndex& mi,
+                                     const std::vector<Site>& sites, const std::vector<std::ptrdiff_t>& other_mixed,
+                                     double top) {
+  if (sites.empty()) return;
+  YG_CHECK(top >= 1, fmt::format("the cross terms' eigenvalue bound {} must be at least the vacuum's 1", top));
+  NodePlan plan{s, g, L, mi, other_mixed, {}, {}, {}};
+  std::sort(plan.excluded.begin(), plan.excluded.end());
+  plan.add_sites(sites);
+  std::map<std::pair<int, int>, double> coupling;  // (target node, source node) -> coefficient
+  for (const auto& [t, unused] : triples_around(sites, g, L)) {
+    const std::array<int, 3> node{std::get<0>(t), std::get<1>(t), std::get<2>(t)};
+    if (!uniform_around(g, node)) continue;
+    smallest_scale_ = std::min(smallest_scale_, couple_triple(plan, node, std::get<3>(t), top, coupling));
+  }
+  for (const NodePlan::Node& n : plan.nodes) nodes_.push_back({n.component, n.offset, n.site, n.eps});
   int last = -1;
   for (const auto& [pair, coef] : coupling) {
     if (pair.first != last) {

@@ -30,28 +30,27 @@ struct Member {
   Vec3 normal{};
 };
 
-}  // namespace
+// Index i along axis a wrapped across a periodic face; outside_domain beyond a bounded one.
+int wrap_index(const Grid& g, int a, int i) {
+  if (i >= 0 && i < g.n[a]) return i;
+  if (g.periodic[a]) return ((i % g.n[a]) + g.n[a]) % g.n[a];
+  return outside_domain;
+}
 
-SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const Grid& g, const BlockLayout& L,
-                                                         const MaterialIndex& mi, const std::vector<MixedCell>& mixed,
-                                                         int inside, int outside, double dt, double room)
-    : inside_(inside),
-      outside_(outside),
-      in_(branch_response(s.materials[inside].poles, dt)),
-      out_(branch_response(s.materials[outside].poles, dt)) {
-  const int wall = static_cast<int>(s.materials.size());
+// What each E location is to the pair (inside, outside): a wall, a mixed location of the pair, bulk
+// of one of them, or something else.
+struct MemberLookup {
+  const Grid& g;
+  const BlockLayout& L;
+  const MaterialIndex& mi;
+  const std::vector<MixedCell>& mixed;
   std::unordered_map<std::ptrdiff_t, std::size_t> mixed_at;  // 3 offset + component -> index in `mixed`
-  for (std::size_t q = 0; q < mixed.size(); ++q)
-    mixed_at[3 * mixed[q].offset + static_cast<int>(mixed[q].component)] = q;
-  auto wrap = [&](int a, int i) {
-    if (i >= 0 && i < g.n[a]) return i;
-    if (g.periodic[a]) return ((i % g.n[a]) + g.n[a]) % g.n[a];
-    return outside_domain;
-  };
-  auto member = [&](int a, std::array<int, 3> idx) {
+  int wall, inside, outside;
+
+  Member operator()(int a, std::array<int, 3> idx) const {
     Member m;
     for (int t = 0; t < 3; ++t) {
-      const int w = wrap(t, idx[t]);
+      const int w = wrap_index(g, t, idx[t]);
       // Beyond a bounded face, or half a cell below a mirror plane (the image of the location
       // above it, whose triples the plane's locations stand in for, see the shares below).
       if (w == outside_domain) return m;
@@ -63,22 +62,26 @@ SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const G
       m.kind = Member::Kind::wall;
     } else if (auto it = mixed_at.find(3 * m.offset + a); it != mixed_at.end()) {
       const MixedCell& c = mixed[it->second];
-      if (c.inside == inside_ && c.outside == outside_) {
+      if (c.inside == inside && c.outside == outside) {
         m.kind = Member::Kind::mixed;
         m.fill = c.fill;
         m.normal = c.normal;
       }
-    } else if (here == inside_ || here == outside_) {
+    } else if (here == inside || here == outside) {
       m.kind = Member::Kind::bulk;
-      m.fill = here == inside_ ? 1.0 : 0.0;
+      m.fill = here == inside ? 1.0 : 0.0;
     }
     return m;
-  };
+  }
+};
 
-  // The triples around every mixed location of the pair, each once: (node, bits).
+// The triples around every mixed location of the pair, each once: (node, bits).
+std::map<std::tuple<int, int, int, int>, bool> triples_around(const Grid& g, const BlockLayout& L,
+                                                              const std::vector<MixedCell>& mixed, int inside,
+                                                              int outside) {
   std::map<std::tuple<int, int, int, int>, bool> around;
   for (const MixedCell& c : mixed) {
-    if (c.inside != inside_ || c.outside != outside_) continue;
+    if (c.inside != inside || c.outside != outside) continue;
     const int a = static_cast<int>(c.component);
     const auto idx = L.index_of(c.offset);
     for (int bits = 0; bits < 8; ++bits) {
@@ -86,16 +89,94 @@ SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const G
       node[a] += (bits >> a) & 1;  // E_a = E_a(N - bit_a e_a)
       bool inside_grid = true;
       for (int t = 0; t < 3; ++t) {
-        node[t] = wrap(t, node[t]);
+        node[t] = wrap_index(g, t, node[t]);
         inside_grid = inside_grid && node[t] != outside_domain;
       }
       if (inside_grid) around[{node[0], node[1], node[2], bits}] = true;
     }
   }
+  return around;
+}
 
-  auto eps_inf_mix = [&](double f) { return f * in_.eps_inf + (1 - f) * out_.eps_inf; };
+// A triple's vectors (stored in the field precision, as the update uses them).
+struct TripleShape {
+  std::array<real, 3> u{}, v{};
+  std::array<std::array<real, 3>, 3> r{};
+  std::array<real, 3> pair_fill{};
+};
+
+enum class Fit { own_fills, drawn_in, none };
+
+// Shapes a triple of members around the unit normal n: pair vectors and fills, then the series
+// vectors with each member's own fill, or drawn toward their mean until the instantaneous operator's
+// largest eigenvalue fits under `room` (none: not even with one fill).
+Fit shape_triple(const std::array<Member, 3>& m, const Vec3& n, const BranchResponse& in, const BranchResponse& out,
+                 double room, TripleShape& t) {
+  std::array<bool, 3> present{};
+  double mean = 0;
+  int count = 0;
+  for (int a = 0; a < 3; ++a) {
+    present[a] = m[a].kind != Member::Kind::wall;
+    if (present[a]) mean += m[a].fill, ++count;
+  }
+  mean /= count;
+  for (int k = 0; k < 3; ++k) {
+    const int a = pair_a[k], b = pair_b[k];
+    const double wa = n[b] * n[b], wb = n[a] * n[a];  // each fill weighted by how far along the surface it lies
+    double f = mean;
+    if (present[a] && present[b] && wa + wb > 0) f = (wa * m[a].fill + wb * m[b].fill) / (wa + wb);
+    else if (present[a] != present[b]) f = present[a] ? m[a].fill : m[b].fill;
+    t.pair_fill[k] = static_cast<real>(f);
+    if (present[a]) t.r[k][a] = static_cast<real>(n[b]);
+    if (present[b]) t.r[k][b] = static_cast<real>(-n[a]);
+  }
+  auto eps_inf_mix = [&](double f) { return f * in.eps_inf + (1 - f) * out.eps_inf; };
+  // The series vectors with the fills drawn toward their mean by `draw` in [0, 1] (1: own fills).
+  auto series = [&](double draw) {
+    for (int a = 0; a < 3; ++a) {
+      const double f = present[a] ? mean + draw * (m[a].fill - mean) : 0;
+      t.u[a] = present[a] ? static_cast<real>(std::sqrt(f) * n[a]) : 0;
+      t.v[a] = present[a] ? static_cast<real>(std::sqrt(1 - f) * n[a]) : 0;
+    }
+  };
+  // Largest eigenvalue of the instantaneous operator (eps_inf parts) against the room.
+  auto fits = [&]() {
+    Matrix3 k{};
+    for (int x = 0; x < 3; ++x)
+      for (int y = 0; y < 3; ++y) {
+        k[x][y] = t.u[x] * t.u[y] / in.eps_inf + t.v[x] * t.v[y] / out.eps_inf;
+        for (int p = 0; p < 3; ++p) k[x][y] += t.r[p][x] * t.r[p][y] / eps_inf_mix(t.pair_fill[p]);
+      }
+    return symmetric_eigenvalues(k)[2] <= room;
+  };
+  series(1);
+  if (fits()) return Fit::own_fills;
+  series(0);
+  if (!fits()) return Fit::none;  // materials the step cannot hold even with one fill: left uncoupled
+  double lo = 0, hi = 1;
+  for (int it = 0; it < 30; ++it) {
+    const double mid = 0.5 * (lo + hi);
+    series(mid);
+    (fits() ? lo : hi) = mid;
+  }
+  series(lo);
+  return Fit::drawn_in;
+}
+
+}  // namespace
+
+SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const Grid& g, const BlockLayout& L,
+                                                         const MaterialIndex& mi, const std::vector<MixedCell>& mixed,
+                                                         int inside, int outside, double dt, double room)
+    : inside_(inside),
+      outside_(outside),
+      in_(branch_response(s.materials[inside].poles, dt)),
+      out_(branch_response(s.materials[outside].poles, dt)) {
+  MemberLookup member{g, L, mi, mixed, {}, static_cast<int>(s.materials.size()), inside_, outside_};
+  for (std::size_t q = 0; q < mixed.size(); ++q)
+    member.mixed_at[3 * mixed[q].offset + static_cast<int>(mixed[q].component)] = q;
   std::unordered_map<std::ptrdiff_t, int> site_of;  // 3 offset + component -> site
-  for (const auto& [key, unused] : around) {
+  for (const auto& [key, unused] : triples_around(g, L, mixed, inside_, outside_)) {
     const std::array<int, 3> node{std::get<0>(key), std::get<1>(key), std::get<2>(key)};
     const int bits = std::get<3>(key);
     std::array<Member, 3> m;
@@ -110,72 +191,34 @@ SubcellDispersiveCrossTerms::SubcellDispersiveCrossTerms(const Scene& s, const G
     }
     if (!usable || norm(n) == 0) continue;
     n = n * (1 / norm(n));
-
-    std::array<bool, 3> present{};
-    double mean = 0;
-    int count = 0;
-    for (int a = 0; a < 3; ++a) {
-      present[a] = m[a].kind != Member::Kind::wall;
-      if (present[a]) mean += m[a].fill, ++count;
-    }
-    mean /= count;
+    TripleShape shape;
+    const Fit fit = shape_triple(m, n, in_, out_, room, shape);
+    if (fit == Fit::none) continue;
+    if (fit == Fit::drawn_in) ++drawn_in_;
     Triple t;
-    for (int k = 0; k < 3; ++k) {
-      const int a = pair_a[k], b = pair_b[k];
-      const double wa = n[b] * n[b], wb = n[a] * n[a];  // each fill weighted by how far along the surface it lies
-      double f = mean;
-      if (present[a] && present[b] && wa + wb > 0) f = (wa * m[a].fill + wb * m[b].fill) / (wa + wb);
-      else if (present[a] != present[b]) f = present[a] ? m[a].fill : m[b].fill;
-      t.pair_fill[k] = static_cast<real>(f);
-      if (present[a]) t.r[k][a] = static_cast<real>(n[b]);
-      if (present[b]) t.r[k][b] = static_cast<real>(-n[a]);
-    }
-    // The series vectors with the fills drawn toward their mean by `draw` in [0, 1] (1: own fills).
-    auto series = [&](double draw) {
-      for (int a = 0; a < 3; ++a) {
-        const double f = present[a] ? mean + draw * (m[a].fill - mean) : 0;
-        t.u[a] = present[a] ? static_cast<real>(std::sqrt(f) * n[a]) : 0;
-        t.v[a] = present[a] ? static_cast<real>(std::sqrt(1 - f) * n[a]) : 0;
-      }
-    };
-    // Largest eigenvalue of the instantaneous operator (eps_inf parts) against the room.
-    auto fits = [&]() {
-      Matrix3 k{};
-      for (int x = 0; x < 3; ++x)
-        for (int y = 0; y < 3; ++y) {
-          k[x][y] = t.u[x] * t.u[y] / in_.eps_inf + t.v[x] * t.v[y] / out_.eps_inf;
-          for (int p = 0; p < 3; ++p) k[x][y] += t.r[p][x] * t.r[p][y] / eps_inf_mix(t.pair_fill[p]);
-        }
-      return symmetric_eigenvalues(k)[2] <= room;
-    };
-    series(1);
-    if (!fits()) {
-      series(0);
-      if (!fits()) continue;  // materials the step cannot hold even with one fill: left uncoupled
-      double lo = 0, hi = 1;
-      for (int it = 0; it < 30; ++it) {
-        const double mid = 0.5 * (lo + hi);
-        series(mid);
-        (fits() ? lo : hi) = mid;
-      }
-      series(lo);
-      ++drawn_in_;
-    }
+    t.u = shape.u;
+    t.v = shape.v;
+    t.r = shape.r;
+    t.pair_fill = shape.pair_fill;
     for (int a = 0; a < 3; ++a) {
-      if (!present[a]) continue;
+      if (m[a].kind == Member::Kind::wall) continue;
       auto [it, added] = site_of.emplace(3 * m[a].offset + a, static_cast<int>(sites_.size()));
       if (added) sites_.push_back({static_cast<Component>(a), m[a].offset, m[a].kind == Member::Kind::bulk, m[a].fill});
       t.site[a] = it->second;
     }
     triples_.push_back(t);
     // The cell the triple points into: each member's index along its own axis.
-    cell_of_.push_back({wrap(0, node[0] - (bits & 1)), wrap(1, node[1] - ((bits >> 1) & 1)), wrap(2, node[2] - ((bits >> 2) & 1))});
+    cell_of_.push_back({wrap_index(g, 0, node[0] - (bits & 1)), wrap_index(g, 1, node[1] - ((bits >> 1) & 1)),
+                        wrap_index(g, 2, node[2] - ((bits >> 2) & 1))});
   }
+  share_out(g, L);
+}
 
-  // Each location's share of each of its triples: the energy weighs a location by its own box's
-  // volume V and a triple by an eighth of the cell it points into, so the share is (V_cell / 8) / V
-  // (1/8 on equal cells; this keeps the operator symmetric on a graded mesh too). On a mirror plane
-  // the image triples are not held and the plane's location counts its others twice.
+// Each location's share of each of its triples: the energy weighs a location by its own box's
+// volume V and a triple by an eighth of the cell it points into, so the share is (V_cell / 8) / V
+// (1/8 on equal cells; this keeps the operator symmetric on a graded mesh too). On a mirror plane
+// the image triples are not held and the plane's location counts its others twice.
+void SubcellDispersiveCrossTerms::share_out(const Grid& g, const BlockLayout& L) {
   std::vector<double> site_volume(sites_.size()), mirror_factor(sites_.size(), 1.0);
   for (std::size_t q = 0; q < sites_.size(); ++q) {
     const Component c = sites_[q].component;

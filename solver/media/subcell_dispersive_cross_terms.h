@@ -62,6 +62,8 @@ class SubcellDispersiveCrossTerms {
     std::array<real, 3> weight{};            // each location's share of this triple's E
   };
   void advance_triple(std::size_t t, const std::array<double, 3>& dD);
+  /// Each site's share of each of its triples' E (the weights), from the cells the triples point into.
+  void share_out(const Grid& g, const BlockLayout& L);
 
   int inside_ = 0, outside_ = 0;
   BranchResponse in_, out_;

@@ -174,6 +174,129 @@ std::size_t FarFieldRecorder::memory_bytes() const {
   return s;
 }
 
+std::vector<FarFieldRecorder::FaceCurrents> FarFieldRecorder::weighted_currents(std::size_t q, double& surface) const {
+  std::vector<FaceCurrents> cur(faces_.size());
+  surface = 0;
+  for (std::size_t fi = 0; fi < faces_.size(); ++fi) {
+    const Face& face = faces_[fi];
+    const int b = (face.axis + 1) % 3, c = (face.axis + 2) % 3;
+    for (int set = 0; set < 2; ++set) {
+      const DftBox& e = face.dft[2 * set];
+      const DftBox& h = face.dft[2 * set + 1];
+      const std::size_t nb = face.wb[set].size(), nc = face.wc[set].size();
+      WeightedCurrents& wt = cur[fi][set];
+      wt.a.resize(nb * nc);
+      wt.b.resize(nb * nc);
+      for (std::size_t ic = 0; ic < nc; ++ic)
+        for (std::size_t ib = 0; ib < nb; ++ib) {
+          std::array<std::size_t, 3> p{0, 0, 0};
+          p[b] = ib;
+          p[c] = ic;
+          const double w = face.wb[set][ib] * face.wc[set][ic];
+          const Complex ev = e.at(p[0], p[1], p[2], q), hv = h.at(p[0], p[1], p[2], q);
+          wt.a[ic * nb + ib] = w * hv;
+          wt.b[ic * nb + ib] = w * ev;
+          // Poynting flux along the normal: E_b H_c* (set 0) - E_c H_b* (set 1).
+          surface += 0.5 * face.sign * (set == 0 ? 1.0 : -1.0) * w * std::real(ev * std::conj(hv));
+        }
+    }
+  }
+  return cur;
+}
+
+namespace {
+
+// The directions one frequency is evaluated in: the requested ones, then the sphere rule for the
+// radiated power, then the collection cone (if any).
+struct Directions {
+  std::vector<Vec3> all;
+  std::size_t requested = 0;
+  DirectionSet sphere, cone;
+};
+
+Directions directions_for(const FarFieldSpec& spec, double index, double k, double radius) {
+  Directions d;
+  const int n_theta = static_cast<int>(std::ceil(k * radius)) + extra_theta_nodes, n_phi = 2 * n_theta + 2;
+  d.sphere = sphere_directions(n_theta, n_phi);
+  if (spec.numerical_aperture > 0) {
+    const double s = std::min(1.0, spec.numerical_aperture / index);
+    d.cone = cone_directions((1.0 / norm(spec.collection_axis)) * spec.collection_axis, std::asin(s), n_theta, n_phi);
+  }
+  d.requested = spec.theta.size();
+  for (std::size_t i = 0; i < d.requested; ++i) {
+    const double st = std::sin(spec.theta[i]), ct = std::cos(spec.theta[i]);
+    d.all.push_back({st * std::cos(spec.phi[i]), st * std::sin(spec.phi[i]), ct});
+  }
+  d.all.insert(d.all.end(), d.sphere.directions.begin(), d.sphere.directions.end());
+  d.all.insert(d.all.end(), d.cone.directions.begin(), d.cone.directions.end());
+  return d;
+}
+
+// F = eta N_perp - s x L; r exp(-ikr) E = (i k / 4 pi) F.
+CVec far_vector(const Vec3& s, const CVec& N, const CVec& Lm, double eta) {
+  const Complex sn = s.x * N[0] + s.y * N[1] + s.z * N[2];
+  CVec F;
+  for (int t = 0; t < 3; ++t) {
+    const int u = (t + 1) % 3, v = (t + 2) % 3;
+    F[t] = eta * (N[t] - s[t] * sn) - (s[u] * Lm[v] - s[v] * Lm[u]);
+  }
+  return F;
+}
+
+}  // namespace
+
+void FarFieldRecorder::radiation_vectors(const std::vector<FaceCurrents>& cur, double k, const std::vector<Vec3>& dirs,
+                                         std::vector<CVec>& n_vec, std::vector<CVec>& l_vec) const {
+  n_vec.assign(dirs.size(), CVec{});
+  l_vec.assign(dirs.size(), CVec{});
+#pragma omp parallel for schedule(dynamic, 4)
+  for (std::size_t d = 0; d < dirs.size(); ++d) {
+    const Vec3 s = dirs[d];
+    CVec N{}, Lm{};
+    std::vector<Complex> pb, pc;
+    for (std::size_t fi = 0; fi < faces_.size(); ++fi) {
+      const Face& face = faces_[fi];
+      const int a = face.axis, b = (a + 1) % 3, c = (a + 2) % 3;
+      const Complex pa = std::polar(1.0, -k * s[a] * (face.at - centre_[a]));
+      for (int set = 0; set < 2; ++set) {
+        phases(face.xb[set], k * s[b], centre_[b], pb);
+        phases(face.xc[set], k * s[c], centre_[c], pc);
+        const WeightedCurrents& wt = cur[fi][set];
+        const std::size_t nb = pb.size();
+        Complex sa = 0, sb = 0;
+        for (std::size_t ic = 0; ic < pc.size(); ++ic) {
+          Complex ra = 0, rb = 0;
+          const Complex* ar = &wt.a[ic * nb];
+          const Complex* br = &wt.b[ic * nb];
+          for (std::size_t ib = 0; ib < nb; ++ib) {
+            ra += ar[ib] * pb[ib];
+            rb += br[ib] * pb[ib];
+          }
+          sa += ra * pc[ic];
+          sb += rb * pc[ic];
+        }
+        // Undo the averaging of H across the face: a wave with normal wavenumber k s_a keeps
+        // cos(k s_a h/2) of itself in the mean of two planes h apart, and only that wave adds to
+        // this direction (the face sum is its transverse Fourier transform); uncorrected, a
+        // dipole's pattern ripples with box size and wavelength (docs/measurements.md).
+        sa *= pa / std::cos(0.5 * k * s[a] * face.h_gap);
+        sb *= pa;
+        // n = sign a: J = n x H gives J_b = -sign H_c, J_c = sign H_b; M = -n x E gives
+        // M_c = -sign E_b, M_b = sign E_c.
+        if (set == 0) {
+          N[b] -= face.sign * sa;
+          Lm[c] -= face.sign * sb;
+        } else {
+          N[c] += face.sign * sa;
+          Lm[b] += face.sign * sb;
+        }
+      }
+    }
+    n_vec[d] = N;
+    l_vec[d] = Lm;
+  }
+}
+
 FarFieldResult FarFieldRecorder::result() const {
   FarFieldResult r;
   r.name = spec_.name;
@@ -187,134 +310,27 @@ FarFieldResult FarFieldRecorder::result() const {
   r.collection_axis = spec_.collection_axis;
   r.numerical_aperture = spec_.numerical_aperture;
   const double eta = constants::eta0 / index_;
-  const std::size_t n_req = spec_.theta.size();
-
-  // Weighted currents per face and set: A = w H (the H of J = n x H), B = w E (the E of M = -n x E).
-  struct Weighted {
-    std::vector<Complex> a, b;  // [ic * nb + ib]
-  };
   for (std::size_t q = 0; q < r.omegas.size(); ++q) {
     const double k = index_ * r.omegas[q] / constants::c0;
-    std::vector<std::array<Weighted, 2>> cur(faces_.size());
     double surface = 0;
-    for (std::size_t fi = 0; fi < faces_.size(); ++fi) {
-      const Face& face = faces_[fi];
-      const int b = (face.axis + 1) % 3, c = (face.axis + 2) % 3;
-      for (int set = 0; set < 2; ++set) {
-        const DftBox& e = face.dft[2 * set];
-        const DftBox& h = face.dft[2 * set + 1];
-        const std::size_t nb = face.wb[set].size(), nc = face.wc[set].size();
-        Weighted& wt = cur[fi][set];
-        wt.a.resize(nb * nc);
-        wt.b.resize(nb * nc);
-        for (std::size_t ic = 0; ic < nc; ++ic)
-          for (std::size_t ib = 0; ib < nb; ++ib) {
-            std::array<std::size_t, 3> p{0, 0, 0};
-            p[b] = ib;
-            p[c] = ic;
-            const double w = face.wb[set][ib] * face.wc[set][ic];
-            const Complex ev = e.at(p[0], p[1], p[2], q), hv = h.at(p[0], p[1], p[2], q);
-            wt.a[ic * nb + ib] = w * hv;
-            wt.b[ic * nb + ib] = w * ev;
-            // Poynting flux along the normal: E_b H_c* (set 0) - E_c H_b* (set 1).
-            surface += 0.5 * face.sign * (set == 0 ? 1.0 : -1.0) * w * std::real(ev * std::conj(hv));
-          }
-      }
-    }
+    const std::vector<FaceCurrents> cur = weighted_currents(q, surface);
     r.surface_power.push_back(surface);
-
-    // All directions of this frequency: the requested ones, then the sphere rule, then the cone.
-    const double radius = 0.5 * norm(box_.hi - box_.lo);
-    const int n_theta = static_cast<int>(std::ceil(k * radius)) + extra_theta_nodes, n_phi = 2 * n_theta + 2;
-    const DirectionSet sphere = sphere_directions(n_theta, n_phi);
-    DirectionSet cone;
-    if (spec_.numerical_aperture > 0) {
-      const double s = std::min(1.0, spec_.numerical_aperture / index_);
-      cone = cone_directions((1.0 / norm(spec_.collection_axis)) * spec_.collection_axis, std::asin(s), n_theta, n_phi);
-    }
-    std::vector<Vec3> dirs;
-    for (std::size_t d = 0; d < n_req; ++d) {
-      const double st = std::sin(spec_.theta[d]), ct = std::cos(spec_.theta[d]);
-      dirs.push_back({st * std::cos(spec_.phi[d]), st * std::sin(spec_.phi[d]), ct});
-    }
-    dirs.insert(dirs.end(), sphere.directions.begin(), sphere.directions.end());
-    dirs.insert(dirs.end(), cone.directions.begin(), cone.directions.end());
-
-    std::vector<CVec> n_vec(dirs.size()), l_vec(dirs.size());
-#pragma omp parallel for schedule(dynamic, 4)
-    for (std::size_t d = 0; d < dirs.size(); ++d) {
-      const Vec3 s = dirs[d];
-      CVec N{}, Lm{};
-      std::vector<Complex> pb, pc;
-      for (std::size_t fi = 0; fi < faces_.size(); ++fi) {
-        const Face& face = faces_[fi];
-        const int a = face.axis, b = (a + 1) % 3, c = (a + 2) % 3;
-        const Complex pa = std::polar(1.0, -k * s[a] * (face.at - centre_[a]));
-        for (int set = 0; set < 2; ++set) {
-          phases(face.xb[set], k * s[b], centre_[b], pb);
-          phases(face.xc[set], k * s[c], centre_[c], pc);
-          const Weighted& wt = cur[fi][set];
-          const std::size_t nb = pb.size();
-          Complex sa = 0, sb = 0;
-          for (std::size_t ic = 0; ic < pc.size(); ++ic) {
-            Complex ra = 0, rb = 0;
-            const Complex* ar = &wt.a[ic * nb];
-            const Complex* br = &wt.b[ic * nb];
-            for (std::size_t ib = 0; ib < nb; ++ib) {
-              ra += ar[ib] * pb[ib];
-              rb += br[ib] * pb[ib];
-            }
-            sa += ra * pc[ic];
-            sb += rb * pc[ic];
-          }
-          // Undo the averaging of H across the face: a wave with normal wavenumber k s_a keeps
-          // cos(k s_a h/2) of itself in the mean of two planes h apart, and only that wave adds to
-          // this direction (the face sum is its transverse Fourier transform). Uncorrected, the
-          // J and M parts of the far face stop cancelling, and a dipole's pattern ripples with box
-          // size and wavelength (measured at 18 to 32 cells per wavelength: by 0.3 % to 3.6 % of its
-          // peak; corrected, a smooth 2.9 % to 0.7 %, the grid's own anisotropy).
-          sa *= pa / std::cos(0.5 * k * s[a] * face.h_gap);
-          sb *= pa;
-          // n = sign a: J = n x H gives J_b = -sign H_c, J_c = sign H_b; M = -n x E gives
-          // M_c = -sign E_b, M_b = sign E_c.
-          if (set == 0) {
-            N[b] -= face.sign * sa;
-            Lm[c] -= face.sign * sb;
-          } else {
-            N[c] += face.sign * sa;
-            Lm[b] += face.sign * sb;
-          }
-        }
-      }
-      n_vec[d] = N;
-      l_vec[d] = Lm;
-    }
-
-    // F = eta N_perp - s x L; r exp(-ikr) E = (i k / 4 pi) F.
-    auto field = [&](std::size_t d) {
-      const Vec3 s = dirs[d];
-      const CVec& N = n_vec[d];
-      const CVec& Lm = l_vec[d];
-      const Complex sn = s.x * N[0] + s.y * N[1] + s.z * N[2];
-      CVec F;
-      for (int t = 0; t < 3; ++t) {
-        const int u = (t + 1) % 3, v = (t + 2) % 3;
-        F[t] = eta * (N[t] - s[t] * sn) - (s[u] * Lm[v] - s[v] * Lm[u]);
-      }
-      return F;
-    };
+    const Directions dirs = directions_for(spec_, index_, k, 0.5 * norm(box_.hi - box_.lo));
+    std::vector<CVec> n_vec, l_vec;
+    radiation_vectors(cur, k, dirs.all, n_vec, l_vec);
     const double to_intensity = k * k / (32 * constants::pi * constants::pi * eta);
     auto intensity = [&](std::size_t d) {
-      const CVec F = field(d);
+      const CVec F = far_vector(dirs.all[d], n_vec[d], l_vec[d], eta);
       return to_intensity * (std::norm(F[0]) + std::norm(F[1]) + std::norm(F[2]));
     };
+    const std::size_t n_req = dirs.requested;
     double total = 0;
-    for (std::size_t d = 0; d < sphere.weights.size(); ++d) total += sphere.weights[d] * intensity(n_req + d);
+    for (std::size_t d = 0; d < dirs.sphere.weights.size(); ++d) total += dirs.sphere.weights[d] * intensity(n_req + d);
     r.power.push_back(total);
     if (spec_.numerical_aperture > 0) {
       double in_cone = 0;
-      for (std::size_t d = 0; d < cone.weights.size(); ++d)
-        in_cone += cone.weights[d] * intensity(n_req + sphere.weights.size() + d);
+      for (std::size_t d = 0; d < dirs.cone.weights.size(); ++d)
+        in_cone += dirs.cone.weights[d] * intensity(n_req + dirs.sphere.weights.size() + d);
       r.collected.push_back(in_cone);
     }
     std::vector<Complex> et(n_req), ep(n_req);
@@ -324,7 +340,7 @@ FarFieldResult FarFieldRecorder::result() const {
       const double th = spec_.theta[d], ph = spec_.phi[d];
       const Vec3 t_hat{std::cos(th) * std::cos(ph), std::cos(th) * std::sin(ph), -std::sin(th)};
       const Vec3 p_hat{-std::sin(ph), std::cos(ph), 0};
-      const CVec F = field(d);
+      const CVec F = far_vector(dirs.all[d], n_vec[d], l_vec[d], eta);
       et[d] = ik4pi * (t_hat.x * F[0] + t_hat.y * F[1] + t_hat.z * F[2]);
       ep[d] = ik4pi * (p_hat.x * F[0] + p_hat.y * F[1] + p_hat.z * F[2]);
       in[d] = intensity(d);

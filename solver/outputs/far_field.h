@@ -44,6 +44,17 @@ class FarFieldRecorder {
     std::array<std::vector<double>, 2> xb, xc, wb, wc;  // [set] positions (m) and trapezoid weights
   };
   void check_scene(const Scene& scene, const Grid& g, const MaterialIndex& mi, const BlockLayout& L) const;
+  // Weighted currents of one face and set: a = w H (the H of J = n x H), b = w E (the E of
+  // M = -n x E), [ic * nb + ib].
+  struct WeightedCurrents {
+    std::vector<Complex> a, b;
+  };
+  using FaceCurrents = std::array<WeightedCurrents, 2>;
+  /// The currents of every face at frequency q; `surface` gets the outward flux through the box.
+  std::vector<FaceCurrents> weighted_currents(std::size_t q, double& surface) const;
+  /// The radiation integrals N (of J) and L (of M) in each direction.
+  void radiation_vectors(const std::vector<FaceCurrents>& cur, double k, const std::vector<Vec3>& dirs,
+                         std::vector<std::array<Complex, 3>>& n_vec, std::vector<std::array<Complex, 3>>& l_vec) const;
 
   FarFieldSpec spec_;
   double index_ = 1;

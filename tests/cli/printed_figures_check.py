@@ -7,7 +7,8 @@ run disagree beyond the precision the text states (its last printed digit, half 
 (`chip`, about 6 minutes on two cores) and the particle-on-mirror sweep at the coarse settings
 examples/README.md gives (`mirror`, 10 points, about 10 minutes with two jobs); labelled slow, run
 before each release note.
-Usage: printed_figures_check.py YEEGAP_BINARY SOURCE_DIR cheap|chip|mirror|all"""
+Usage: printed_figures_check.py YEEGAP_BINARY SOURCE_DIR cheap|chip|mirror|all
+With YEEGAP_KEEP=DIR in the environment the particle-on-mirror sweep's points stay in DIR/pom."""
 import json
 import os
 import shlex
@@ -37,7 +38,7 @@ def check_particle_on_mirror(work):
     (command,) = printed("examples/README.md", r"```bash (build/tools/yeegap sweep examples/particle_on_mirror.yaml [^`]*?) "
                          r"examples/particle_on_mirror_plot.py")
     args = shlex.split(command.replace("\\ ", " "))[1:]
-    folder = os.path.join(work, "pom")
+    folder = os.path.join(os.environ.get("YEEGAP_KEEP", work), "pom")
     args[args.index("-o") + 1] = folder
     args = [os.path.join(src, a) if a.startswith("examples/") else a for a in args]
     if "--threads" in args:  # the printed command runs on one core; here two points go at once
@@ -56,12 +57,21 @@ def check_particle_on_mirror(work):
             p = read_point(os.path.join(folder, name))
             points[(p["spacer_nm"], p["model"])] = p
 
-    def peak_nm(spacer, model):
+    def gap_mode(spacer, model):
+        """The gap mode's sample: the reddest local maximum of the scattering spectrum (below 0.5 nm
+        a higher-order mode to the blue outgrows it)."""
         p = points[(spacer, model)]
-        return p["wl"][int(np.argmax(p["sca"]))]
+        order = np.argsort(p["wl"])
+        wl, sca = p["wl"][order], p["sca"][order]
+        peaks = [i for i in range(1, len(sca) - 1) if sca[i] > sca[i - 1] and sca[i] >= sca[i + 1]]
+        i = peaks[-1] if peaks else int(np.argmax(sca))
+        return wl[i], sca[i]
+
+    def peak_nm(spacer, model):
+        return gap_mode(spacer, model)[0]
 
     def peak_sca(spacer, model):
-        return points[(spacer, model)]["sca"].max()
+        return gap_mode(spacer, model)[1]
 
     def field(spacer, model):
         return points[(spacer, model)]["enhancement"].max()

@@ -106,6 +106,46 @@ SweepCost sweep_cost(const std::string& text, const CheckOptions& o, const io::S
   return c;
 }
 
+// `check --json`: the same figures as one object on stdout.
+void print_json(const CheckOptions& o, const solver::Scene& scene, const solver::RunPlan& run_plan,
+                const std::optional<SweepCost>& sweep, double uniform, double cost_seconds) {
+  const solver::ModelSummary& m = run_plan.summary;
+  JsonObject j;
+  if (sweep) {
+    JsonObject s;
+    s.number("points", static_cast<double>(sweep->points))
+        .text("combine", sweep->combine)
+        .number("cell_updates", sweep->cell_updates)
+        .number("estimated_seconds", sweep->cell_updates / assumed_cell_updates_per_second)
+        .number("largest_memory_bytes", static_cast<double>(sweep->memory_bytes))
+        .add("per_point", json_array(sweep->rows));
+    j.add("sweep", s.str());
+  }
+  j.text("scene", o.scene)
+      .text("run", run_plan.description())
+      .add("grid", json_array({fmt::format("{}", m.cells[0]), fmt::format("{}", m.cells[1]), fmt::format("{}", m.cells[2])}))
+      .number("cells", static_cast<double>(m.cell_count))
+      .number("smallest_cell_m", m.smallest_cell)
+      .number("largest_cell_m", m.largest_cell)
+      .add("smallest_cell_per_axis_m", json_array({json_number(m.min_cell[0]), json_number(m.min_cell[1]),
+                                                   json_number(m.min_cell[2])}))
+      .add("largest_cell_per_axis_m", json_array({json_number(m.max_cell[0]), json_number(m.max_cell[1]),
+                                                  json_number(m.max_cell[2])}))
+      .add("domain_size_m", json_array({json_number(scene.domain.size[0]), json_number(scene.domain.size[1]),
+                                        json_number(scene.domain.size[2])}))
+      .number("uniform_cells_at_smallest", uniform)
+      .add("gaps", json_array(gap_rows(m)))
+      .add("mesh_notes", json_array(note_rows(m)))
+      .add("warnings", json_array(warning_rows(m)))
+      .number("memory_bytes", static_cast<double>(m.memory_bytes))
+      .number("time_step_s", m.time_step)
+      .number("courant_limit_s", m.courant_limit)
+      .number("steps", static_cast<double>(m.steps))
+      .add("steps_estimated", m.steps_estimated ? "true" : "false")
+      .number("estimated_seconds", cost_seconds);
+  std::printf("%s\n", j.str().c_str());
+}
+
 int run_check(const CheckOptions& o) {
   const std::string text = io::read_scene_file_text(o.scene);
   const io::SweepPlan plan = io::read_sweep_plan(text, o.scene);
@@ -120,40 +160,7 @@ int run_check(const CheckOptions& o) {
   const double cost_seconds = cell_updates(m) / assumed_cell_updates_per_second;
   const double uniform = uniform_cells_at(scene, m);
   if (o.json) {
-    JsonObject j;
-    if (sweep) {
-      JsonObject s;
-      s.number("points", static_cast<double>(sweep->points))
-          .text("combine", sweep->combine)
-          .number("cell_updates", sweep->cell_updates)
-          .number("estimated_seconds", sweep->cell_updates / assumed_cell_updates_per_second)
-          .number("largest_memory_bytes", static_cast<double>(sweep->memory_bytes))
-          .add("per_point", json_array(sweep->rows));
-      j.add("sweep", s.str());
-    }
-    j.text("scene", o.scene)
-        .text("run", run_plan.description())
-        .add("grid", json_array({fmt::format("{}", m.cells[0]), fmt::format("{}", m.cells[1]), fmt::format("{}", m.cells[2])}))
-        .number("cells", static_cast<double>(m.cell_count))
-        .number("smallest_cell_m", m.smallest_cell)
-        .number("largest_cell_m", m.largest_cell)
-        .add("smallest_cell_per_axis_m", json_array({json_number(m.min_cell[0]), json_number(m.min_cell[1]),
-                                                     json_number(m.min_cell[2])}))
-        .add("largest_cell_per_axis_m", json_array({json_number(m.max_cell[0]), json_number(m.max_cell[1]),
-                                                    json_number(m.max_cell[2])}))
-        .add("domain_size_m", json_array({json_number(scene.domain.size[0]), json_number(scene.domain.size[1]),
-                                          json_number(scene.domain.size[2])}))
-        .number("uniform_cells_at_smallest", uniform)
-        .add("gaps", json_array(gap_rows(m)))
-        .add("mesh_notes", json_array(note_rows(m)))
-        .add("warnings", json_array(warning_rows(m)))
-        .number("memory_bytes", static_cast<double>(m.memory_bytes))
-        .number("time_step_s", m.time_step)
-        .number("courant_limit_s", m.courant_limit)
-        .number("steps", static_cast<double>(m.steps))
-        .add("steps_estimated", m.steps_estimated ? "true" : "false")
-        .number("estimated_seconds", cost_seconds);
-    std::printf("%s\n", j.str().c_str());
+    print_json(o, scene, run_plan, sweep, uniform, cost_seconds);
     return exit_ok;
   }
   std::fprintf(stderr, "%s: valid\n", o.scene.c_str());
