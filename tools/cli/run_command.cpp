@@ -149,7 +149,7 @@ std::string headlines(const solver::RunResults& r, const solver::Scene& scene) {
     }
     outs.add(o.name, json_array(rows));
   }
-  for (const auto& g : r.gaps) {
+  for (const auto& g : r.tunnelling_gaps) {
     const auto body_name = [&](int i) {
       return scene.bodies[i].name.empty() ? fmt::format("body {}", i) : scene.bodies[i].name;
     };
