@@ -1,6 +1,6 @@
 #!/usr/bin/python3
 """Table and figure of the particle-on-mirror sweep (examples/particle_on_mirror.yaml, run with
-`yeegap sweep examples/particle_on_mirror.yaml`): for each spacer width and gap model, the number of
+`yeegap sweep examples/particle_on_mirror.yaml`): for each spacer width and tunnelling model, the number of
 gap cells, the scattering peak, and the gap field enhancement |E|^2/|E_inc|^2 half-way across the
 spacer on the axis; the figure puts the classical and quantum-corrected scattering spectra side by
 side with the enhancement against the spacer width. Points not run yet are left out.

@@ -150,8 +150,9 @@ struct DiffractionOrdersResult {
   std::vector<double> efficiency;          // order power / incident power
 };
 
-/// The gaps the tunnelling block found on the grid.
-struct GapResult {
+/// A gap the tunnelling block found on the grid and treated (one per body pair): its gap-medium
+/// cells, or in a classical run the cells it counted and left as they were.
+struct TunnellingGap {
   std::array<int, 2> pair{};               // body indices
   long cells = 0;                          // E locations in the gap (below the cut-off)
   double smallest_width = 0;               // m: smallest l = d_A + d_B among them (0 if none)
@@ -193,7 +194,7 @@ struct RunResults {
   std::vector<CrossSectionResult> cross_sections;
   std::vector<FarFieldResult> far_fields;
   std::vector<DecayRateResult> decay_rates;
-  std::vector<GapResult> gaps;
+  std::vector<TunnellingGap> tunnelling_gaps;    // the scene's `tunnelling` block: results group `tunnelling`
   std::vector<SensorResult> sensors;
   std::vector<ReflectanceResult> reflectance;    // plane waves in Bloch cells
   std::vector<DiffractionOrdersResult> orders;   // diffraction orders of a plane wave in a Bloch cell

@@ -12,7 +12,7 @@
 #include "base/where.h"
 #include "geometry/shape.h"
 #include "materials/pole_set.h"
-#include "materials/tunnel_gap_model.h"
+#include "materials/tunnelling_model.h"
 
 namespace yeegap::solver {
 
@@ -242,7 +242,7 @@ struct SensorSpec {
 struct TunnellingSpec {
   std::vector<std::array<int, 2>> pairs;  // indices into Scene::bodies
   bool quantum = true;                    // quantum_corrected (true) or classical
-  materials::GapModel model;              // metal, barrier and gap medium, resolved
+  materials::TunnellingModel model;       // metal, barrier and gap medium, resolved
   double cutoff = 0;                      // m; 0 = model.cutoff_width
   Where where;
 };

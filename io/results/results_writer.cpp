@@ -467,7 +467,7 @@ void write_decay_rate(const h5::Group& outputs, const solver::DecayRateResult& x
 }
 
 // The tunnelling gaps found on the grid: one row per body pair.
-void write_gaps(const h5::File& file, const std::vector<solver::GapResult>& gaps) {
+void write_tunnelling_gaps(const h5::File& file, const std::vector<solver::TunnellingGap>& gaps) {
   const h5::Group g = file.create_group("tunnelling");
   std::vector<std::int32_t> pairs, quantum;
   std::vector<std::int64_t> cells;
@@ -498,7 +498,7 @@ void write_layout(const h5::File& file, const solver::RunResults& r, const solve
   write_grid(file, r);
   write_materials(file, r);
   write_sources(file, r, scene);
-  if (!r.gaps.empty()) write_gaps(file, r.gaps);
+  if (!r.tunnelling_gaps.empty()) write_tunnelling_gaps(file, r.tunnelling_gaps);
   const h5::Group outputs = file.create_group("outputs");
   for (const auto& p : r.probes) write_probe(outputs, p, r.summary.time_step);
   for (const auto& m : r.field_maps) write_field_map(outputs, m, incident_squared_at(r, m.omegas));

@@ -1,14 +1,14 @@
 // The `tunnelling` block: which pairs of bodies may conduct across their gap, and how — the
 // quantum-corrected model of Esteban et al., Nat. Commun. 3, 825 (2012) or the classical picture
 // (the gap keeps the background), so one scene runs both ways. The barrier and metal numbers come
-// from the materials/ presets (yeegap gap --metal NAME prints the resulting table).
+// from the materials/ presets (yeegap tunnelling --metal NAME prints the resulting table).
 #include <fmt/format.h>
 
 #include "io/scene/read_values.h"
 #include "io/scene/scene_blocks.h"
 #include "io/suggest.h"
-#include "materials/tunnel_gap_model.h"
-#include "materials/tunnel_presets.h"
+#include "materials/tunnelling_model.h"
+#include "materials/tunnelling_metals.h"
 
 namespace yeegap::io {
 namespace {
@@ -46,18 +46,18 @@ void read_tunnelling(const Node& block, solver::Scene& scene) {
   if (t.pairs.empty()) pairs.fail("needs at least one pair of body names");
   t.quantum = read_word(block.require("model"), {"quantum_corrected", "classical"}) == "quantum_corrected";
   std::vector<std::string> metals;
-  for (const auto& m : materials::tunnel_metals()) metals.push_back(m.name);
+  for (const auto& m : materials::tunnelling_metals()) metals.push_back(m.name);
   const Node metal_node = block.require("metal");
-  const materials::TunnelMetal* metal = materials::find_tunnel_metal(read_text(metal_node));
+  const materials::TunnellingMetal* metal = materials::find_tunnelling_metal(read_text(metal_node));
   if (!metal) metal_node.fail(fmt::format("no tunnelling preset '{}'{}", read_text(metal_node),
                                           suggestion(read_text(metal_node), metals)));
   // A paper's own numbers in place of the preset's (docs/scene.md, tunnelling).
-  materials::TunnelMetalChanges changes;
+  materials::TunnellingMetalChanges changes;
   if (auto w = block.get("work_function")) changes.work_function = read_energy(*w);
   if (auto e = block.get("fermi_energy")) changes.fermi_energy = read_energy(*e);
   if (auto wp = block.get("plasma_frequency")) changes.plasma_frequency = read_omega(*wp);
   if (auto g = block.get("damping")) changes.damping = read_omega(*g);
-  const materials::TunnelMetal given = materials::with_changes(*metal, changes);
+  const materials::TunnellingMetal given = materials::with_changes(*metal, changes);
   materials::BarrierKind barrier = materials::BarrierKind::rectangular;
   if (auto b = block.get("barrier")) {
     const std::string w = read_word(*b, {"rectangular", "image_rounded", "exponential_fit"});
@@ -65,7 +65,7 @@ void read_tunnelling(const Node& block, solver::Scene& scene) {
                                    : (w == "exponential_fit" ? materials::BarrierKind::exponential_fit
                                                              : materials::BarrierKind::rectangular);
   }
-  materials::GapOptions options;
+  materials::TunnellingOptions options;
   if (auto eb = block.get("gap_medium")) options.background = read_positive_number(*eb);
   if (auto j = block.get("join")) {
     if (j->is_scalar() && j->text() == "none") {
@@ -79,7 +79,7 @@ void read_tunnelling(const Node& block, solver::Scene& scene) {
     if (barrier == materials::BarrierKind::exponential_fit)
       j->fail("the exponential_fit barrier has no join (it is the exponential at every width); leave join out");
   }
-  t.model = materials::make_gap_model(given, barrier, options);
+  t.model = materials::make_tunnelling_model(given, barrier, options);
   if (auto cutoff = block.get("cutoff")) t.cutoff = read_positive_length(*cutoff);
   block.done();
   scene.tunnelling.push_back(t);

@@ -73,7 +73,7 @@ void narrowest_gaps(const solver::RunResults& r, const solver::Scene& scene, std
     const bool named = i >= 0 && i < int(scene.bodies.size()) && !scene.bodies[i].name.empty();
     return named ? scene.bodies[i].name : fmt::format("body{}", i);
   };
-  for (const auto& g : r.gaps)
+  for (const auto& g : r.tunnelling_gaps)
     out.push_back({fmt::format("gap.{}-{}.smallest_width_nm", body(g.pair[0]), body(g.pair[1])), "nm",
                    "smallest local gap width l = d_A + d_B among the gap cells (0 if none)", g.smallest_width / units::nm});
 }

@@ -172,7 +172,7 @@ long dft_stride(const Scene& s, const std::vector<double>& outputs, double dt) {
 }  // namespace
 
 Simulation::Simulation(const Scene& scene)
-    : scene_(with_gap_material(scene)),
+    : scene_(with_tunnelling_material(scene)),
       grid_(plan_mesh(scene).grid),
       dt_(choose_time_step(scene_, grid_)),
       fields_(BlockLayout::of(grid_.n)) {
@@ -180,7 +180,7 @@ Simulation::Simulation(const Scene& scene)
   curls_ = plain_curls(grid_, dt_);
   ecoef_ = e_coefficients(scene_, dt_);
   fill_material_index(scene_, grid_, fields_.layout, mindex_);
-  const GapCells gap_cells(scene_, grid_, fields_.layout, mindex_);
+  const TunnellingCells tunnelling_cells(scene_, grid_, fields_.layout, mindex_);
   if (scene_.domain.averaging) {
     subcell_ = std::make_unique<SubcellAverage>(scene_, grid_, fields_.layout, mindex_, ecoef_, dt_);
     if (subcell_->empty()) subcell_.reset();
@@ -189,8 +189,8 @@ Simulation::Simulation(const Scene& scene)
   dispersive_ = std::make_unique<DispersiveCurrents>(
       scene_, fields_.layout,
       subcell_ ? subcell_->without_mixed(mindex_, static_cast<int>(scene_.materials.size())) : mindex_, ecoef_, dt_);
-  gap_cells.set_damping(*dispersive_);
-  gaps_ = gap_cells.report();
+  tunnelling_cells.set_damping(*dispersive_);
+  tunnelling_gaps_ = tunnelling_cells.report();
 
   std::array<bool, 6> absorbing{};
   for (int f = 0; f < 6; ++f) absorbing[f] = scene_.domain.edges[f] == EdgeKind::cpml;
@@ -245,7 +245,7 @@ Simulation::Simulation(const Scene& scene)
 Simulation::~Simulation() = default;
 
 ModelSummary Simulation::plan(const Scene& original) {
-  const Scene scene = with_gap_material(original);
+  const Scene scene = with_tunnelling_material(original);
   const MeshPlan mesh = plan_mesh(scene);
   const Grid& g = mesh.grid;
   const double dt = choose_time_step(scene, g);
@@ -319,14 +319,14 @@ ModelSummary Simulation::plan(const Scene& original) {
 }
 
 void Simulation::check_placements(const Scene& original) {
-  const Scene scene = with_gap_material(original);
+  const Scene scene = with_tunnelling_material(original);
   const Grid g = plan_mesh(original).grid;
   const double dt = choose_time_step(scene, g);
   check_scene(scene, g);
   const BlockLayout L = BlockLayout::of(g.n);
   MaterialIndex mi;
   fill_material_index(scene, g, L, mi);
-  const GapCells gap_cells(scene, g, L, mi);
+  const TunnellingCells tunnelling_cells(scene, g, L, mi);
   const CurlCoefficients curls = plain_curls(g, dt);
   const ECoefficients ec = e_coefficients(scene, dt);
   // Each constructor throws what the run would; the parts are dropped at once.
@@ -568,7 +568,7 @@ RunResults Simulation::results(const Simulation* imaginary) const {
   r.source_omegas = all_omegas_;
   r.source_spectra = source_dft_;
   r.incident_spectra = incident_dft_;
-  r.gaps = gaps_;
+  r.tunnelling_gaps = tunnelling_gaps_;
   for (const auto& p : probes_) r.probes.push_back(p.result());
   std::array<double, 3> phases{};
   for (int a = 0; a < 3; ++a) phases[a] = imaginary ? bloch_phase(grid_, scene_.domain, a) : 0.0;

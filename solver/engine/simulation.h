@@ -16,7 +16,7 @@
 #include "solver/media/dispersive.h"
 #include "solver/outputs/far_field.h"
 #include "solver/engine/fields.h"
-#include "solver/media/gap_cells.h"
+#include "solver/media/tunnelling_cells.h"
 #include "solver/engine/grid.h"
 #include "solver/outputs/recorders.h"
 #include "solver/results.h"
@@ -137,7 +137,7 @@ class Simulation : public Checkpointable {
   std::unique_ptr<Cpml> cpml_;
   std::unique_ptr<DispersiveCurrents> dispersive_;
   std::unique_ptr<SubcellAverage> subcell_;       // null with averaging off or no mixed locations
-  std::vector<GapResult> gaps_;
+  std::vector<TunnellingGap> tunnelling_gaps_;
   std::vector<DipoleSource> dipoles_;
   std::vector<PlaneWaveSource> plane_waves_;
   std::vector<ProbeRecorder> probes_;

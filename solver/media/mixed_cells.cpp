@@ -55,7 +55,7 @@ geometry::Aabb averaging_box(const Grid& g, Component c, int i, int j, int k) {
 BoxCrossing find_box_crossing(const Scene& s, const std::vector<geometry::Aabb>& bounds, const geometry::Aabb& box,
                               const Vec3& p) {
   const int wall = static_cast<int>(s.materials.size());
-  // The tunnelling-gap medium is the last material when it exists (gap_cells.h).
+  // The tunnelling-gap medium is the last material when it exists (tunnelling_cells.h).
   const int gap = (!s.tunnelling.empty() && s.tunnelling[0].quantum) ? wall - 1 : -1;
   auto averageable = [&](int m) { return m != gap && m < wall && !s.materials[m].perfect_conductor; };
   const double half_diagonal = 0.5 * norm(box.hi - box.lo);

@@ -59,7 +59,7 @@ void AngleScan::take_static_parts(const RunResults& r) {
   static_.grid_x = r.grid_x, static_.grid_y = r.grid_y, static_.grid_z = r.grid_z;
   static_.material_names = r.material_names;
   static_.material_map = r.material_map;
-  static_.gaps = r.gaps;
+  static_.tunnelling_gaps = r.tunnelling_gaps;
   ReflectanceResult header = r.reflectance.at(0);
   header.angle_scan = true;
   header.omegas.clear(), header.angles.clear(), header.k_parallel.clear();

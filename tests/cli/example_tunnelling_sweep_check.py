@@ -6,7 +6,7 @@
   dimer plasmon red-shifts without limit as the gap closes in a classical description);
 - quantum-corrected: once the gap conducts, the gap mode fades instead (Esteban, Borisov,
   Nordlander and Aizpurua, Nat. Commun. 3, 825 (2012)): at 0.15 and 0.1 nm (gap medium
-  eps_g = 0.86+1.85i and -4.3+10.3i at 1.8 eV, `yeegap gap --metal Au`) its extinction peak in the
+  eps_g = 0.86+1.85i and -4.3+10.3i at 1.8 eV, `yeegap tunnelling --metal Au`) its extinction peak in the
   gap-mode window is below 0.7 of the classical one (measured 0.49 and 0.43); at 0.2 nm
   (eps_g = 1.00+0.26i) the mode is still there, within 5 nm of the classical one, and weaker.
 The thresholds 0.7 and 5 nm are ours (demo numbers, measured ratios in the comment above).

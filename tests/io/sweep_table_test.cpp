@@ -69,10 +69,10 @@ TEST(SweepFigures, EachOutputGivesItsNamedPeaksAndTheGapItsWidth) {
   d.omegas = {2e15, 3e15};
   d.total = {10, 40};
   r.decay_rates.push_back(d);
-  solver::GapResult g;
+  solver::TunnellingGap g;
   g.pair = {0, 1};
   g.smallest_width = 0.4e-9;
-  r.gaps.push_back(g);
+  r.tunnelling_gaps.push_back(g);
   solver::Scene scene;
   scene.bodies.resize(2);
   scene.bodies[0].name = "left";

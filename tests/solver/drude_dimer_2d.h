@@ -13,8 +13,8 @@
 #include "base/constants.h"
 #include "base/units.h"
 #include "geometry/shapes.h"
-#include "materials/tunnel_gap_model.h"
-#include "materials/tunnel_presets.h"
+#include "materials/tunnelling_model.h"
+#include "materials/tunnelling_metals.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
@@ -25,13 +25,13 @@ namespace yeegap::solver::testing {
 /// medium is made of (the same omega_p and eps_inf = 1), so metal and gap are one description;
 /// the Au and Na presets would add an interband-free Drude of a different fit or a longer ring-down
 /// (Na's gamma_p is 4.5x smaller), at no gain for the check.
-inline const materials::TunnelMetal& dimer_metal() { return *materials::find_tunnel_metal("Au-jellium"); }
+inline const materials::TunnellingMetal& dimer_metal() { return *materials::find_tunnelling_metal("Au-jellium"); }
 
-/// The gap model: the published exponential fit gamma_g = gamma_p exp(l/l_c), l_c = 0.4 A (widely
+/// The tunnelling model: the published exponential fit gamma_g = gamma_p exp(l/l_c), l_c = 0.4 A (widely
 /// quoted for gold in QCM work; from memory, physics.md 1.3), whose conductance decays by the
 /// tenfold per Angstrom of a 5 eV barrier (physics.md 1.3 table).
-inline materials::GapModel dimer_gap_model() {
-  return materials::make_gap_model(dimer_metal(), materials::BarrierKind::exponential_fit);
+inline materials::TunnellingModel dimer_tunnelling_model() {
+  return materials::make_tunnelling_model(dimer_metal(), materials::BarrierKind::exponential_fit);
 }
 
 struct DimerSettings {
@@ -65,7 +65,7 @@ inline Scene drude_cylinder_dimer(const DimerSettings& o) {
   s.domain.refine.push_back({{{0, -2.5 * nm, -mid / 2}, {1 * nm, 2.5 * nm, mid / 2}}, {o.axis_cell, o.axis_cell, mid}});
   s.domain.gap_cells = 4;
 
-  const materials::TunnelMetal& metal = dimer_metal();
+  const materials::TunnellingMetal& metal = dimer_metal();
   MaterialSpec jellium;
   jellium.name = "jellium_gold";
   jellium.poles.drude.push_back({metal.plasma_frequency, metal.damping});
@@ -78,7 +78,7 @@ inline Scene drude_cylinder_dimer(const DimerSettings& o) {
   TunnellingSpec t;
   t.pairs = {{0, 1}};
   t.quantum = o.quantum;
-  t.model = dimer_gap_model();
+  t.model = dimer_tunnelling_model();
   s.tunnelling.push_back(t);
 
   PlaneWaveSpec w;
@@ -102,7 +102,7 @@ struct DimerSpectrum {
   std::vector<double> energy_eV, extinction, absorption;  // m (per unit length)
   long steps = 0;
   double time_step = 0;
-  GapResult gap;
+  TunnellingGap tunnelling_gap;
 };
 
 inline DimerSpectrum run_dimer(const DimerSettings& o) {
@@ -116,7 +116,7 @@ inline DimerSpectrum run_dimer(const DimerSettings& o) {
   }
   d.steps = r.summary.steps;
   d.time_step = r.summary.time_step;
-  if (!r.gaps.empty()) d.gap = r.gaps[0];
+  if (!r.tunnelling_gaps.empty()) d.tunnelling_gap = r.tunnelling_gaps[0];
   return d;
 }
 
@@ -230,7 +230,7 @@ struct GapThresholds {
 };
 
 inline GapThresholds gap_thresholds(double energy_eV) {
-  const materials::GapModel model = dimer_gap_model();
+  const materials::TunnellingModel model = dimer_tunnelling_model();
   const double w = units::eV_to_omega(energy_eV);
   const double wp = model.metal.plasma_frequency, gp = model.metal.damping;
   auto widest = [&](auto holds) {  // bisection: holds(l) is true below the threshold, false above
@@ -253,14 +253,14 @@ inline GapThresholds gap_thresholds(double energy_eV) {
 
 /// The least fraction of its classical height the bonding peak keeps at gap `l` (see GapThresholds).
 inline double height_bound(double l) {
-  const materials::GapModel model = dimer_gap_model();
+  const materials::TunnellingModel model = dimer_tunnelling_model();
   const double wp = model.metal.plasma_frequency, gp = model.metal.damping;
   return gp / (gp + wp * wp / materials::gap_damping(model, l));
 }
 
 inline void print_spectrum(const char* label, const DimerSpectrum& d) {
   std::printf("%s: %ld steps of %.3g as; gap cells %ld, narrowest %.4f nm\n", label, d.steps, d.time_step * 1e18,
-              d.gap.cells, d.gap.smallest_width * 1e9);
+              d.tunnelling_gap.cells, d.tunnelling_gap.smallest_width * 1e9);
   for (std::size_t q = 0; q < d.energy_eV.size(); ++q)
     std::printf("  %5.3f eV  %8.1f nm  C_ext %8.3f nm  C_abs %8.3f nm\n", d.energy_eV[q], 1239.842 / d.energy_eV[q],
                 d.extinction[q] * 1e9, d.absorption[q] * 1e9);

@@ -22,8 +22,11 @@ void add_run_command(CLI::App& app, int& exit_code, const std::string& command_l
 void add_check_command(CLI::App& app, int& exit_code);
 void add_sweep_command(CLI::App& app, int& exit_code, const std::string& command_line);
 void add_view_command(CLI::App& app, int& exit_code);
-void add_gap_command(CLI::App& app, int& exit_code);
+void add_tunnelling_command(CLI::App& app, int& exit_code);
 void add_materials_command(CLI::App& app, int& exit_code);
+/// A verb's old name: recognised, and refused with exit_user_error and the new name
+/// ("yeegap: the verb 'gap' is now 'tunnelling' (same options): yeegap tunnelling ...").
+void add_renamed_verb(CLI::App& app, int& exit_code, const std::string& old_verb, const std::string& new_verb);
 
 /// Runs `body`, turning user errors into a message and exit_user_error, other failures into
 /// exit_failure; prints to stderr.

@@ -24,8 +24,9 @@ int main(int argc, char** argv) {
   yeegap::cli::add_check_command(app, exit_code);
   yeegap::cli::add_sweep_command(app, exit_code, command_line);
   yeegap::cli::add_view_command(app, exit_code);
-  yeegap::cli::add_gap_command(app, exit_code);
+  yeegap::cli::add_tunnelling_command(app, exit_code);
   yeegap::cli::add_materials_command(app, exit_code);
+  yeegap::cli::add_renamed_verb(app, exit_code, "gap", "tunnelling");
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {

@@ -117,11 +117,11 @@ void orders(const solver::RunResults& r, const solver::Scene&, SummarySink& out)
   }
 }
 
-void gaps(const solver::RunResults& r, const solver::Scene& scene, SummarySink& out) {
+void tunnelling_gaps(const solver::RunResults& r, const solver::Scene& scene, SummarySink& out) {
   const auto body_name = [&](int i) {
     return scene.bodies[i].name.empty() ? fmt::format("body {}", i) : scene.bodies[i].name;
   };
-  for (const auto& g : r.gaps)
+  for (const auto& g : r.tunnelling_gaps)
     out.line(fmt::format("  gap {} - {}: {} cells below {:.3g} nm, narrowest {:.3g} nm ({})", body_name(g.pair[0]),
                          body_name(g.pair[1]), g.cells, g.cutoff * 1e9, g.smallest_width * 1e9,
                          g.quantum ? "quantum-corrected" : "classical"));
@@ -247,7 +247,7 @@ void sensors(const solver::RunResults& r, const solver::Scene&, SummarySink& out
 const std::vector<SummaryEntry>& summary_catalog() {
   static const std::vector<SummaryEntry> catalog = {
       {"flux", fluxes},           {"plane_wave", reflectance},       {"orders", orders},
-      {"tunnelling", gaps},       {"cross_sections", cross_sections}, {"far_field", far_fields},
+      {"tunnelling", tunnelling_gaps},       {"cross_sections", cross_sections}, {"far_field", far_fields},
       {"decay_rate", decay_rates}, {"field_map", field_maps},          {"probe", probes},
       {"sensor", sensors},
   };

@@ -6,10 +6,10 @@
 #include <cmath>
 
 #include "base/constants.h"
-#include "materials/tunnel_barrier.h"
-#include "materials/tunnel_conductance.h"
-#include "materials/tunnel_gap_model.h"
-#include "materials/tunnel_simmons.h"
+#include "materials/tunnelling_barrier.h"
+#include "materials/tunnelling_conductance.h"
+#include "materials/tunnelling_model.h"
+#include "materials/tunnelling_simmons.h"
 
 namespace yeegap::materials {
 namespace {

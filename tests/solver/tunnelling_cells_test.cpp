@@ -8,8 +8,8 @@
 #include <cmath>
 
 #include "geometry/shapes.h"
-#include "materials/tunnel_gap_model.h"
-#include "materials/tunnel_presets.h"
+#include "materials/tunnelling_model.h"
+#include "materials/tunnelling_metals.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
 
@@ -24,7 +24,7 @@ Scene dimer(bool quantum, double gap_width = gap) {
   Scene s = testing::vacuum_box({80, 40, 40}, d, testing::all_edges(EdgeKind::metal));
   MaterialSpec metal;
   metal.name = "metal";
-  const materials::TunnelMetal au = *materials::find_tunnel_metal("Au");
+  const materials::TunnellingMetal au = *materials::find_tunnelling_metal("Au");
   metal.poles.drude.push_back({au.plasma_frequency, au.damping});
   s.materials.push_back(metal);
   const double cx = radius + gap_width / 2;
@@ -33,18 +33,18 @@ Scene dimer(bool quantum, double gap_width = gap) {
   TunnellingSpec t;
   t.pairs = {{0, 1}};
   t.quantum = quantum;
-  t.model = materials::make_gap_model(au, materials::BarrierKind::exponential_fit);
+  t.model = materials::make_tunnelling_model(au, materials::BarrierKind::exponential_fit);
   s.tunnelling.push_back(t);
   s.stop.after = 1e-18;
   return s;
 }
 
-TEST(GapCells, DimerGapCellsCarryTheLocalWidthAndTheModelDamping) {
+TEST(TunnellingCells, DimerGapCellsCarryTheLocalWidthAndTheModelDamping) {
   const Scene s = dimer(true);
   Simulation sim(s);
   const RunResults r = sim.results();
-  ASSERT_EQ(r.gaps.size(), 1u);
-  const GapResult& g = r.gaps[0];
+  ASSERT_EQ(r.tunnelling_gaps.size(), 1u);
+  const TunnellingGap& g = r.tunnelling_gaps[0];
   EXPECT_TRUE(g.quantum);
   EXPECT_GT(g.cells, 0);
   // The narrowest E location sits near the axis; its width cannot be below the true gap and is
@@ -69,27 +69,27 @@ TEST(GapCells, DimerGapCellsCarryTheLocalWidthAndTheModelDamping) {
   }
 }
 
-TEST(GapCells, ClassicalRunFindsTheSameGapButLeavesItEmpty) {
+TEST(TunnellingCells, ClassicalRunFindsTheSameGapButLeavesItEmpty) {
   const Scene quantum = dimer(true), classical = dimer(false);
   const RunResults q = Simulation(quantum).results();
   Simulation sim(classical);
   const RunResults c = sim.results();
-  ASSERT_EQ(c.gaps.size(), 1u);
-  EXPECT_FALSE(c.gaps[0].quantum);
-  EXPECT_EQ(c.gaps[0].cells, q.gaps[0].cells);
-  EXPECT_DOUBLE_EQ(c.gaps[0].smallest_width, q.gaps[0].smallest_width);
+  ASSERT_EQ(c.tunnelling_gaps.size(), 1u);
+  EXPECT_FALSE(c.tunnelling_gaps[0].quantum);
+  EXPECT_EQ(c.tunnelling_gaps[0].cells, q.tunnelling_gaps[0].cells);
+  EXPECT_DOUBLE_EQ(c.tunnelling_gaps[0].smallest_width, q.tunnelling_gaps[0].smallest_width);
   EXPECT_EQ(c.material_names.size(), 2u) << "no gap material in a classical run";
 }
 
-TEST(GapCells, QuantumCorrectedGapWiderThanTheCutoffBuildsWithNoGapCells) {
+TEST(TunnellingCells, QuantumCorrectedGapWiderThanTheCutoffBuildsWithNoGapCells) {
   // A sweep of gap widths crosses the cut-off: beyond it the quantum-corrected run has no gap
   // cells at all and must build and run like the classical one.
   const Scene s = dimer(true, 0.8e-9);
   ASSERT_GT(0.8e-9, s.tunnelling[0].model.cutoff_width);
   Simulation sim(s);
   const RunResults r = sim.run();
-  ASSERT_EQ(r.gaps.size(), 1u);
-  EXPECT_EQ(r.gaps[0].cells, 0);
+  ASSERT_EQ(r.tunnelling_gaps.size(), 1u);
+  EXPECT_EQ(r.tunnelling_gaps[0].cells, 0);
   EXPECT_TRUE(sim.dispersive().cells(2).empty());
 }
 

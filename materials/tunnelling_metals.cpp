@@ -1,8 +1,8 @@
-// The tunnelling-gap metal presets (see tunnel_presets.h). Work functions: CRC Handbook of Chemistry
+// The tunnelling metal presets (see tunnelling_metals.h). Work functions: CRC Handbook of Chemistry
 // and Physics, "Electron work function of the elements" (Michaelson, J. Appl. Phys. 48, 4729 (1977)),
 // polycrystalline values. Fermi energies: Ashcroft & Mermin, Solid State Physics (1976), Table 2.1.
 // Both are recalled, not re-read (physics.md 1.8 marks them [M]).
-#include "materials/tunnel_presets.h"
+#include "materials/tunnelling_metals.h"
 
 #include <cctype>
 #include <cmath>
@@ -18,9 +18,9 @@ namespace {
 
 constexpr double angstrom = 1e-10;
 
-TunnelMetal make(const char* name, const char* summary, double work_function_eV, double fermi_eV,
+TunnellingMetal make(const char* name, const char* summary, double work_function_eV, double fermi_eV,
                  double omega_p_eV, double gamma_p_eV, const char* sources) {
-  TunnelMetal m;
+  TunnellingMetal m;
   m.name = name;
   m.summary = summary;
   m.work_function = work_function_eV * constants::eV;
@@ -32,10 +32,10 @@ TunnelMetal make(const char* name, const char* summary, double work_function_eV,
   return m;
 }
 
-std::vector<TunnelMetal> build() {
-  std::vector<TunnelMetal> all;
+std::vector<TunnellingMetal> build() {
+  std::vector<TunnellingMetal> all;
   // Gold, Drude set of Esteban et al., Faraday Discuss. 178, 151 (2015): the QCM's practical-gold fit.
-  TunnelMetal au = make("Au", "gold: W 5.1 eV, E_F 5.53 eV, Drude 9.065/0.0708 eV (Esteban 2015)", 5.1, 5.53,
+  TunnellingMetal au = make("Au", "gold: W 5.1 eV, E_F 5.53 eV, Drude 9.065/0.0708 eV (Esteban 2015)", 5.1, 5.53,
                         9.065, 0.0708,
                         "W 5.1 eV polycrystalline (CRC Handbook, Michaelson 1977) [from memory]; E_F 5.53 eV "
                         "(Ashcroft & Mermin Table 2.1) [from memory]; hbar omega_p 9.065 eV, hbar gamma_p "
@@ -44,7 +44,7 @@ std::vector<TunnelMetal> build() {
   au.fit_decay_length = 0.4 * angstrom;
   all.push_back(au);
   // Jellium-like gold of the first QCM paper: eps_inf = 1, valid below the interband edge (~2 eV).
-  TunnelMetal au_jellium = make("Au-jellium", "jellium gold: W 5.1 eV, E_F 5.53 eV, Drude 7.9/0.09 eV (Esteban 2012)",
+  TunnellingMetal au_jellium = make("Au-jellium", "jellium gold: W 5.1 eV, E_F 5.53 eV, Drude 7.9/0.09 eV (Esteban 2012)",
                                 5.1, 5.53, 7.9, 0.09,
                                 "W, E_F as for Au [from memory]; hbar omega_p 7.9 eV, hbar gamma_p 0.09 eV "
                                 "(Esteban et al., Nat. Commun. 3, 825 (2012), secondary summary); l_c 0.4 A "
@@ -59,7 +59,7 @@ std::vector<TunnelMetal> build() {
                      "(Ashcroft & Mermin Table 2.1) [from memory]; Drude term of Rakic et al., Appl. Opt. 37, "
                      "5271 (1998); l_c = 1/(2 kappa_F) = 0.47 A, a WKB estimate (physics.md 1.3)"));
   // Sodium as a free-electron (jellium) metal: omega_p from the density that E_F implies.
-  TunnelMetal na = make("Na", "sodium-like jellium: W 2.75 eV, E_F 3.24 eV, free-electron omega_p", 2.75, 3.24, 0,
+  TunnellingMetal na = make("Na", "sodium-like jellium: W 2.75 eV, E_F 3.24 eV, free-electron omega_p", 2.75, 3.24, 0,
                         0,
                         "W 2.75 eV (CRC Handbook, Michaelson 1977) [from memory]; E_F 3.24 eV (Ashcroft & Mermin "
                         "Table 2.1) [from memory]; omega_p of the free-electron gas with that E_F (6.04 eV); "
@@ -80,7 +80,7 @@ bool same_ignoring_case(std::string_view a, std::string_view b) {
 
 }  // namespace
 
-TunnelMetal with_changes(TunnelMetal m, const TunnelMetalChanges& c) {
+TunnellingMetal with_changes(TunnellingMetal m, const TunnellingMetalChanges& c) {
   std::string changed;
   auto note = [&](const char* what, double eV) { changed += fmt::format("{}{} {:.6g} eV", changed.empty() ? "" : ", ", what, eV); };
   if (c.work_function) m.work_function = *c.work_function, note("W", *c.work_function / constants::eV);
@@ -93,22 +93,22 @@ TunnelMetal with_changes(TunnelMetal m, const TunnelMetalChanges& c) {
   return m;
 }
 
-const std::vector<TunnelMetal>& tunnel_metals() {
-  static const std::vector<TunnelMetal> all = build();
+const std::vector<TunnellingMetal>& tunnelling_metals() {
+  static const std::vector<TunnellingMetal> all = build();
   return all;
 }
 
-const TunnelMetal* find_tunnel_metal(std::string_view name) {
-  for (const TunnelMetal& m : tunnel_metals())
+const TunnellingMetal* find_tunnelling_metal(std::string_view name) {
+  for (const TunnellingMetal& m : tunnelling_metals())
     if (m.name == name) return &m;
-  for (const TunnelMetal& m : tunnel_metals())
+  for (const TunnellingMetal& m : tunnelling_metals())
     if (same_ignoring_case(m.name, name)) return &m;
   return nullptr;
 }
 
-std::vector<std::string> tunnel_metal_names() {
+std::vector<std::string> tunnelling_metal_names() {
   std::vector<std::string> names;
-  for (const TunnelMetal& m : tunnel_metals()) names.push_back(m.name);
+  for (const TunnellingMetal& m : tunnelling_metals()) names.push_back(m.name);
   return names;
 }
 

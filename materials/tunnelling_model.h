@@ -7,7 +7,7 @@
 #include <complex>
 
 #include "materials/pole_set.h"
-#include "materials/tunnel_presets.h"
+#include "materials/tunnelling_metals.h"
 
 namespace yeegap::materials {
 
@@ -21,7 +21,7 @@ enum class BarrierKind {
 /// "rectangular", "image_rounded", "exponential_fit".
 const char* barrier_kind_name(BarrierKind kind);
 
-struct GapOptions {
+struct TunnellingOptions {
   double background = 1.0;             // eps_b of the medium filling the gap (1: vacuum)
   double barrier_permittivity = 1.0;   // K in Simmons' image force (image_rounded only)
   // Short-gap join (published QCM anchoring, physics.md 1.3): below the width l' where T(E_F)
@@ -36,21 +36,22 @@ struct GapOptions {
   double max_width = 5e-9;             // m: widths searched for the join and the cut-off
 };
 
-/// A ready-to-use gap model: the inputs, plus the join and cut-off widths found from them by
-/// make_gap_model. Plain data, so the solver can hold one per metal pair.
-struct GapModel {
-  TunnelMetal metal;
+/// A ready-to-use tunnelling model: the inputs, plus the join and cut-off widths found from them by
+/// make_tunnelling_model. Plain data, so the solver can hold one per metal pair.
+struct TunnellingModel {
+  TunnellingMetal metal;
   BarrierKind barrier = BarrierKind::rectangular;
-  GapOptions options;
+  TunnellingOptions options;
   double join_width = 0;         // m: l' (0 for exponential_fit and without a join)
   double join_decay_length = 0;  // m: l_c used below l' (metal.fit_decay_length for exponential_fit; 0 without a join)
   double cutoff_width = 0;       // m: gamma_g(cutoff_width) = cutoff_damping_ratio * gamma_p (max_width if never)
 };
 
-GapModel make_gap_model(const TunnelMetal& metal, BarrierKind barrier, const GapOptions& options = {});
+TunnellingModel make_tunnelling_model(const TunnellingMetal& metal, BarrierKind barrier,
+                                      const TunnellingOptions& options = {});
 
-/// One row of the gap table (SI).
-struct GapPoint {
+/// One row of the tunnelling table (`yeegap tunnelling`), SI.
+struct TunnellingPoint {
   double gap = 0;                   // m: l
   double transmission_fermi = 0;    // T(E_F, l) of the barrier; NaN for exponential_fit
   double conductance_per_area = 0;  // S/m^2: the barrier's G_A (exponential_fit: sigma0/l)
@@ -59,25 +60,25 @@ struct GapPoint {
   double damping = 0;               // rad/s: gamma_g
 };
 
-GapPoint evaluate_gap(const GapModel& model, double gap);
+TunnellingPoint evaluate_tunnelling(const TunnellingModel& model, double gap);
 
 /// T(E_F, l) through the model's barrier (rectangular or image_rounded).
-double barrier_transmission_fermi(const GapModel& model, double gap);
+double barrier_transmission_fermi(const TunnellingModel& model, double gap);
 /// G_A(l) of the model's barrier (rectangular or image_rounded), S/m^2.
-double barrier_conductance_per_area(const GapModel& model, double gap);
+double barrier_conductance_per_area(const TunnellingModel& model, double gap);
 
 /// gamma_g(l), rad/s: gamma_p at l = 0, growing without bound with l (infinity once G_A underflows).
-double gap_damping(const GapModel& model, double gap);
+double gap_damping(const TunnellingModel& model, double gap);
 
 /// gamma = eps0 omega_p^2/sigma0: the damping of a Drude medium (eps_inf term aside) whose DC
 /// conductivity is sigma0 (physics.md 1.2).
 double damping_from_conductivity(double plasma_frequency, double conductivity);
 
 /// eps_g(l, omega) = eps_b - omega_p^2/(omega (omega + i gamma_g(l))), exp(-i omega t).
-std::complex<double> gap_permittivity(const GapModel& model, double gap, double omega);
+std::complex<double> gap_permittivity(const TunnellingModel& model, double gap, double omega);
 
 /// The same medium as a PoleSet for the solver: eps_inf = eps_b and one Drude pole (omega_p, gamma_g);
 /// no pole where gamma_g is infinite (the gap is then plain background).
-PoleSet gap_pole_set(const GapModel& model, double gap);
+PoleSet gap_pole_set(const TunnellingModel& model, double gap);
 
 }  // namespace yeegap::materials

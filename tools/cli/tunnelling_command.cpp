@@ -1,4 +1,4 @@
-// `yeegap gap`: the tunnelling-gap model on its own (materials/tunnel_gap_model.h), a table of gap
+// `yeegap tunnelling`: the tunnelling model on its own (materials/tunnelling_model.h), a table of gap
 // width -> barrier transmission at E_F, conductance per area, sigma0, gap damping and the gap
 // permittivity at one photon energy. The table is the product, so it goes to stdout; notes to stderr.
 #include <cmath>
@@ -17,13 +17,13 @@
 #include "io/suggest.h"
 #include "io/units.h"
 #include "json.h"
-#include "materials/tunnel_gap_model.h"
+#include "materials/tunnelling_model.h"
 
 namespace yeegap::cli {
 
 namespace {
 
-struct GapOptionsText {
+struct TunnellingOptionsText {
   std::string metal = "Au";
   std::string from = "0.1nm";
   std::string to = "1.2nm";
@@ -77,8 +77,9 @@ double parse_energy(const std::string& option, const std::string& text) {
   return nu->value * (nu->unit == "eV" ? 1.0 : 1e-3) * constants::eV;
 }
 
-materials::TunnelMetal given_metal(const materials::TunnelMetal& preset, const GapOptionsText& o) {
-  materials::TunnelMetalChanges c;
+materials::TunnellingMetal given_metal(const materials::TunnellingMetal& preset,
+                                       const TunnellingOptionsText& o) {
+  materials::TunnellingMetalChanges c;
   if (!o.work_function.empty()) c.work_function = parse_energy("--work-function", o.work_function);
   if (!o.fermi_energy.empty()) c.fermi_energy = parse_energy("--fermi-energy", o.fermi_energy);
   if (!o.plasma_frequency.empty()) c.plasma_frequency = parse_spectral("--plasma-frequency", o.plasma_frequency);
@@ -86,8 +87,8 @@ materials::TunnelMetal given_metal(const materials::TunnelMetal& preset, const G
   return materials::with_changes(preset, c);
 }
 
-materials::GapOptions gap_options(const GapOptionsText& o, materials::BarrierKind kind) {
-  materials::GapOptions options;
+materials::TunnellingOptions tunnelling_options(const TunnellingOptionsText& o, materials::BarrierKind kind) {
+  materials::TunnellingOptions options;
   if (o.join.empty()) return options;
   if (kind == materials::BarrierKind::exponential_fit)
     option_error("--join", "the exponential_fit barrier has no join (it is the exponential at every width)");
@@ -114,12 +115,13 @@ materials::BarrierKind parse_barrier(const std::string& word) {
                                         word, io::suggestion(word, {"rectangular", "image_rounded", "exponential_fit"})));
 }
 
-const materials::TunnelMetal& parse_metal(const std::string& name) {
-  if (const materials::TunnelMetal* m = materials::find_tunnel_metal(name)) return *m;
-  option_error("--metal", fmt::format("unknown metal '{}'{}", name, io::suggestion(name, materials::tunnel_metal_names())));
+const materials::TunnellingMetal& parse_metal(const std::string& name) {
+  if (const materials::TunnellingMetal* m = materials::find_tunnelling_metal(name)) return *m;
+  option_error("--metal",
+               fmt::format("unknown metal '{}'{}", name, io::suggestion(name, materials::tunnelling_metal_names())));
 }
 
-std::vector<double> gap_widths(const GapOptionsText& o) {
+std::vector<double> gap_widths(const TunnellingOptionsText& o) {
   const double from = parse_length("--from", o.from), to = parse_length("--to", o.to);
   const double step = parse_length("--step", o.step);
   if (!(from >= 0)) option_error("--from", fmt::format("a gap width cannot be negative, got '{}'", o.from));
@@ -137,12 +139,13 @@ std::vector<double> gap_widths(const GapOptionsText& o) {
 
 std::string cell(double v) { return std::isfinite(v) ? fmt::format("{:<12.4e}", v) : fmt::format("{:<12}", "-"); }
 
-int run_gap(const GapOptionsText& o) {
-  const materials::TunnelMetal metal = given_metal(parse_metal(o.metal), o);
+int run_tunnelling(const TunnellingOptionsText& o) {
+  const materials::TunnellingMetal metal = given_metal(parse_metal(o.metal), o);
   const materials::BarrierKind kind = parse_barrier(o.barrier);
   const std::vector<double> widths = gap_widths(o);
   const double omega = parse_spectral("--at", o.at);
-  const materials::GapModel model = materials::make_gap_model(metal, kind, gap_options(o, kind));
+  const materials::TunnellingModel model =
+      materials::make_tunnelling_model(metal, kind, tunnelling_options(o, kind));
 
   const double photon_eV = units::omega_to_eV(omega);
   std::fprintf(stderr, "%s: %s\n", metal.name.c_str(), metal.summary.c_str());
@@ -170,7 +173,7 @@ int run_gap(const GapOptionsText& o) {
     std::printf("%-9s %-12s %-12s %-12s %-12s %-12s %-12s\n", "gap_nm", "T(E_F)", "G/A_S/m2", "sigma0_S/m",
                 "gamma_g_eV", "eps_re", "eps_im");
   for (double l : widths) {
-    const materials::GapPoint p = materials::evaluate_gap(model, l);
+    const materials::TunnellingPoint p = materials::evaluate_tunnelling(model, l);
     const std::complex<double> eps = materials::gap_permittivity(model, l, omega);
     const double gamma_eV = units::omega_to_eV(p.damping);
     if (o.json) {
@@ -199,13 +202,13 @@ int run_gap(const GapOptionsText& o) {
 
 }  // namespace
 
-void add_gap_command(CLI::App& app, int& exit_code) {
-  auto opts = std::make_shared<GapOptionsText>();
+void add_tunnelling_command(CLI::App& app, int& exit_code) {
+  auto opts = std::make_shared<TunnellingOptionsText>();
   CLI::App* cmd = app.add_subcommand(
-      "gap", "tunnelling gap model: gap width -> transmission, conductance, damping, gap permittivity");
+      "tunnelling", "tunnelling model: gap width -> transmission, conductance, damping, gap permittivity");
   cmd->footer(
-      "Example:\n  yeegap gap --metal Au --from 0.1nm --to 1.2nm --step 0.05nm --at 1.8eV --barrier image --json\n"
-      "  yeegap gap --metal Au --fermi-energy 5.53eV --work-function 5.31eV --plasma-frequency 9eV --join none\n"
+      "Example:\n  yeegap tunnelling --metal Au --from 0.1nm --to 1.2nm --step 0.05nm --at 1.8eV --barrier image --json\n"
+      "  yeegap tunnelling --metal Au --fermi-energy 5.53eV --work-function 5.31eV --plasma-frequency 9eV --join none\n"
       "Metals: Au, Au-jellium, Ag, Na. Barriers: rectangular (exact), image (Simmons image force), fit "
       "(gamma_p exp(l/l_c)).");
   cmd->add_option("--metal", opts->metal, "metal preset")->capture_default_str();
@@ -223,7 +226,7 @@ void add_gap_command(CLI::App& app, int& exit_code) {
                   "Drude plasma frequency omega_p of metal and gap medium in place of the preset's (9eV)");
   cmd->add_option("--damping", opts->damping, "bulk Drude damping gamma_p in place of the preset's (0.07eV)");
   cmd->add_flag("--json", opts->json, "print a JSON array of rows on stdout");
-  cmd->callback([opts, &exit_code] { exit_code = guarded([&] { return run_gap(*opts); }); });
+  cmd->callback([opts, &exit_code] { exit_code = guarded([&] { return run_tunnelling(*opts); }); });
 }
 
 }  // namespace yeegap::cli

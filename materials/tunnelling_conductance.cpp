@@ -1,6 +1,6 @@
-// Conductance per unit area as an integral over the barrier transmission (see tunnel_conductance.h).
+// Conductance per unit area as an integral over the barrier transmission (see tunnelling_conductance.h).
 // The quadrature doubles its panels until it agrees with itself; it never trusts a single estimate.
-#include "materials/tunnel_conductance.h"
+#include "materials/tunnelling_conductance.h"
 
 #include <cmath>
 

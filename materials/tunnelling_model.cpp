@@ -1,8 +1,8 @@
-// Gap damping and permittivity (see tunnel_gap_model.h). The short-gap join follows the published
+// Gap damping and permittivity (see tunnelling_model.h). The short-gap join follows the published
 // QCM anchoring (physics.md 1.3): gamma_p at l = 0, the barrier result from l' on, an exponential in
 // between. A sum of resistivities would not do: l G_A -> 0 as l -> 0 (the contact conductance per
 // area stays finite), so the barrier damping alone diverges at contact instead of reaching gamma_p.
-#include "materials/tunnel_gap_model.h"
+#include "materials/tunnelling_model.h"
 
 #include <algorithm>
 #include <cmath>
@@ -13,8 +13,8 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
-#include "materials/tunnel_barrier.h"
-#include "materials/tunnel_conductance.h"
+#include "materials/tunnelling_barrier.h"
+#include "materials/tunnelling_conductance.h"
 
 namespace yeegap::materials {
 
@@ -51,10 +51,10 @@ double find_width(const std::function<double(double)>& f, double target, double 
   return 0.5 * (a + b);
 }
 
-double barrier_height(const TunnelMetal& m) { return m.fermi_energy + m.work_function; }
+double barrier_height(const TunnellingMetal& m) { return m.fermi_energy + m.work_function; }
 
 // gamma_g of the barrier alone (no join): infinite at l = 0 and wherever G_A underflows.
-double barrier_damping(const GapModel& model, double gap) {
+double barrier_damping(const TunnellingModel& model, double gap) {
   return damping_from_conductivity(model.metal.plasma_frequency, gap * barrier_conductance_per_area(model, gap));
 }
 
@@ -74,8 +74,8 @@ double damping_from_conductivity(double plasma_frequency, double conductivity) {
   return constants::eps0 * plasma_frequency * plasma_frequency / conductivity;
 }
 
-double barrier_transmission_fermi(const GapModel& model, double gap) {
-  const TunnelMetal& m = model.metal;
+double barrier_transmission_fermi(const TunnellingModel& model, double gap) {
+  const TunnellingMetal& m = model.metal;
   switch (model.barrier) {
     case BarrierKind::rectangular: return rectangular_transmission(m.fermi_energy, barrier_height(m), gap);
     case BarrierKind::image_rounded:
@@ -87,8 +87,8 @@ double barrier_transmission_fermi(const GapModel& model, double gap) {
   return std::numeric_limits<double>::quiet_NaN();
 }
 
-double barrier_conductance_per_area(const GapModel& model, double gap) {
-  const TunnelMetal& m = model.metal;
+double barrier_conductance_per_area(const TunnellingModel& model, double gap) {
+  const TunnellingMetal& m = model.metal;
   switch (model.barrier) {
     case BarrierKind::rectangular: {
       const double v0 = barrier_height(m);
@@ -104,13 +104,14 @@ double barrier_conductance_per_area(const GapModel& model, double gap) {
   return std::numeric_limits<double>::quiet_NaN();
 }
 
-GapModel make_gap_model(const TunnelMetal& metal, BarrierKind barrier, const GapOptions& options) {
+TunnellingModel make_tunnelling_model(const TunnellingMetal& metal, BarrierKind barrier,
+                                      const TunnellingOptions& options) {
   YG_CHECK(metal.work_function > 0 && metal.fermi_energy > 0 && metal.plasma_frequency > 0 && metal.damping > 0,
            fmt::format("metal '{}' needs positive W, E_F, omega_p and gamma_p", metal.name));
   YG_CHECK(options.join_transmission >= 0 && options.join_transmission < 1 && options.cutoff_damping_ratio > 1,
            fmt::format("join transmission {} must lie in [0, 1) and the cut-off ratio {} exceed 1",
                        options.join_transmission, options.cutoff_damping_ratio));
-  GapModel model;
+  TunnellingModel model;
   model.metal = metal;
   model.barrier = barrier;
   model.options = options;
@@ -165,15 +166,15 @@ GapModel make_gap_model(const TunnelMetal& metal, BarrierKind barrier, const Gap
   return model;
 }
 
-double gap_damping(const GapModel& model, double gap) {
+double gap_damping(const TunnellingModel& model, double gap) {
   const double l = std::max(gap, 0.0);
   if (model.barrier == BarrierKind::exponential_fit || l < model.join_width)
     return model.metal.damping * std::exp(l / model.join_decay_length);
   return barrier_damping(model, l);
 }
 
-GapPoint evaluate_gap(const GapModel& model, double gap) {
-  GapPoint p;
+TunnellingPoint evaluate_tunnelling(const TunnellingModel& model, double gap) {
+  TunnellingPoint p;
   p.gap = gap;
   const double wp2 = model.metal.plasma_frequency * model.metal.plasma_frequency;
   if (model.barrier == BarrierKind::exponential_fit) {
@@ -193,14 +194,14 @@ GapPoint evaluate_gap(const GapModel& model, double gap) {
   return p;
 }
 
-std::complex<double> gap_permittivity(const GapModel& model, double gap, double omega) {
+std::complex<double> gap_permittivity(const TunnellingModel& model, double gap, double omega) {
   const double gamma = gap_damping(model, gap);
   const double wp = model.metal.plasma_frequency;
   if (!std::isfinite(gamma)) return {model.options.background, 0.0};
   return model.options.background - wp * wp / (omega * std::complex<double>(omega, gamma));
 }
 
-PoleSet gap_pole_set(const GapModel& model, double gap) {
+PoleSet gap_pole_set(const TunnellingModel& model, double gap) {
   PoleSet p;
   p.eps_inf = model.options.background;
   const double gamma = gap_damping(model, gap);

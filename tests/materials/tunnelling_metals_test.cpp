@@ -1,11 +1,11 @@
-// Metal presets of the tunnelling-gap model: the numbers and where they come from (physics.md 1.1-1.8).
+// Metal presets of the tunnelling model: the numbers and where they come from (physics.md 1.1-1.8).
 #include <gtest/gtest.h>
 
 #include <cmath>
 
 #include "base/constants.h"
 #include "base/units.h"
-#include "materials/tunnel_presets.h"
+#include "materials/tunnelling_metals.h"
 
 namespace yeegap::materials {
 namespace {
@@ -13,7 +13,7 @@ namespace {
 constexpr double eV = constants::eV;
 constexpr double angstrom = 1e-10;
 
-TEST(TunnelPresets, CarryTheTabulatedMaterialNumbers) {
+TEST(TunnellingMetals, CarryTheTabulatedMaterialNumbers) {
   // physics.md 1.8 (from memory there): W from the CRC Handbook (Michaelson 1977), E_F from
   // Ashcroft & Mermin (1976) Table 2.1. Drude sets: Esteban et al. 2015 (Au), 2012 (Au-jellium),
   // Rakic et al. 1998 Drude term (Ag: 9.01 sqrt(0.845) eV, 0.048 eV).
@@ -24,7 +24,7 @@ TEST(TunnelPresets, CarryTheTabulatedMaterialNumbers) {
       {"Ag", 4.26, 5.49, 9.01 * std::sqrt(0.845), 0.048},
   };
   for (const Expect& x : table) {
-    const TunnelMetal* m = find_tunnel_metal(x.name);
+    const TunnellingMetal* m = find_tunnelling_metal(x.name);
     ASSERT_NE(m, nullptr) << x.name;
     EXPECT_NEAR(m->work_function / eV, x.w, 1e-12) << x.name;
     EXPECT_NEAR(m->fermi_energy / eV, x.e_f, 1e-12) << x.name;
@@ -34,7 +34,7 @@ TEST(TunnelPresets, CarryTheTabulatedMaterialNumbers) {
   }
 }
 
-TEST(TunnelPresets, FreeElectronPlasmaEnergyFollowsTheFermiEnergy) {
+TEST(TunnellingMetals, FreeElectronPlasmaEnergyFollowsTheFermiEnergy) {
   // Two columns of Ashcroft & Mermin (1976) Table 2.1 (physics.md 1.8, from memory) describe the
   // same electron density: E_F (n = k_F^3/(3 pi^2)) and r_s (n = 3/(4 pi (r_s a0)^3)). The plasma
   // energies from both must agree within 0.5 %, what three printed digits of each allow (~0.3 %).
@@ -51,27 +51,27 @@ TEST(TunnelPresets, FreeElectronPlasmaEnergyFollowsTheFermiEnergy) {
   // The Na preset uses exactly the free-electron value (6.04 eV; physics.md 1.8 gives 6.05 from r_s,
   // the same within rounding), and hbar/tau with tau = 3.2e-14 s (Ashcroft & Mermin Table 1.3,
   // 273 K, from memory): 0.0206 eV.
-  const TunnelMetal* na = find_tunnel_metal("Na");
+  const TunnellingMetal* na = find_tunnelling_metal("Na");
   ASSERT_NE(na, nullptr);
   EXPECT_DOUBLE_EQ(na->plasma_frequency, free_electron_plasma_frequency(3.24 * eV));
   EXPECT_NEAR(units::omega_to_eV(na->damping), 0.0206, 5e-5);
 }
 
-TEST(TunnelPresets, WkbDecayLengthsMatchThePhysicsNotes) {
+TEST(TunnellingMetals, WkbDecayLengthsMatchThePhysicsNotes) {
   // physics.md 1.3 table [V-calc]: 1/(2 kappa_F) = 0.59 A (Na, 2.75 eV), 0.47 A (Ag, 4.26 eV),
   // 0.43 A (Au, 5.1 eV), to the printed two decimals.
   EXPECT_NEAR(wkb_decay_length(2.75 * eV) / angstrom, 0.59, 0.005);
   EXPECT_NEAR(wkb_decay_length(4.26 * eV) / angstrom, 0.47, 0.005);
   EXPECT_NEAR(wkb_decay_length(5.1 * eV) / angstrom, 0.43, 0.005);
-  EXPECT_DOUBLE_EQ(find_tunnel_metal("Ag")->fit_decay_length, wkb_decay_length(4.26 * eV));
+  EXPECT_DOUBLE_EQ(find_tunnelling_metal("Ag")->fit_decay_length, wkb_decay_length(4.26 * eV));
   // Au keeps the published l_c = 0.4 A (from memory, physics.md 1.3), not the estimate.
-  EXPECT_DOUBLE_EQ(find_tunnel_metal("Au")->fit_decay_length, 0.4 * angstrom);
+  EXPECT_DOUBLE_EQ(find_tunnelling_metal("Au")->fit_decay_length, 0.4 * angstrom);
 }
 
-TEST(TunnelPresets, AreFoundByNameIgnoringCase) {
-  EXPECT_EQ(find_tunnel_metal("au-JELLIUM")->name, "Au-jellium");
-  EXPECT_EQ(find_tunnel_metal("gold"), nullptr);
-  EXPECT_EQ(tunnel_metal_names().size(), tunnel_metals().size());
+TEST(TunnellingMetals, AreFoundByNameIgnoringCase) {
+  EXPECT_EQ(find_tunnelling_metal("au-JELLIUM")->name, "Au-jellium");
+  EXPECT_EQ(find_tunnelling_metal("gold"), nullptr);
+  EXPECT_EQ(tunnelling_metal_names().size(), tunnelling_metals().size());
 }
 
 }  // namespace

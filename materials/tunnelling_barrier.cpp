@@ -1,7 +1,7 @@
-// Barrier transmission (see tunnel_barrier.h). The profile method is the transfer matrix of the
+// Barrier transmission (see tunnelling_barrier.h). The profile method is the transfer matrix of the
 // Schroedinger equation written for the ratio psi'/psi instead of the pair (psi, psi'): the pair
 // grows like exp(q a) and loses T below the rounding of the reflected wave, the ratio stays O(q).
-#include "materials/tunnel_barrier.h"
+#include "materials/tunnelling_barrier.h"
 
 #include <algorithm>
 #include <cmath>

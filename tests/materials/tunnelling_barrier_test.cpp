@@ -8,8 +8,8 @@
 #include <vector>
 
 #include "base/constants.h"
-#include "materials/tunnel_barrier.h"
-#include "materials/tunnel_conductance.h"
+#include "materials/tunnelling_barrier.h"
+#include "materials/tunnelling_conductance.h"
 
 namespace yeegap::materials {
 namespace {

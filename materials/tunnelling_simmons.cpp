@@ -1,6 +1,6 @@
-// Simmons 1963 low-bias formulas (see tunnel_simmons.h); the low-voltage limit of his eq. for J(V)
+// Simmons 1963 low-bias formulas (see tunnelling_simmons.h); the low-voltage limit of his eq. for J(V)
 // is derived in physics.md 1.7 (dJ/dV at V = 0 with A sqrt(phi_bar) >> 1).
-#include "materials/tunnel_simmons.h"
+#include "materials/tunnelling_simmons.h"
 
 #include <cmath>
 #include <limits>

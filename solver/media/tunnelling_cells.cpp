@@ -1,7 +1,7 @@
-// Gap cells (see gap_cells.h). gamma_g(l) comes from the materials/ gap model, tabulated once on a
-// fine grid of widths and interpolated in log(gamma), since gamma_g grows about tenfold per
-// Angstrom (physics.md 1.3) and a barrier integral per cell would cost seconds.
-#include "solver/media/gap_cells.h"
+// Tunnelling cells (see tunnelling_cells.h). gamma_g(l) comes from the materials/ tunnelling model,
+// tabulated once on a fine grid of widths and interpolated in log(gamma), since gamma_g grows about
+// tenfold per Angstrom (physics.md 1.3) and a barrier integral per cell would cost seconds.
+#include "solver/media/tunnelling_cells.h"
 
 #include <algorithm>
 #include <cmath>
@@ -21,21 +21,22 @@ constexpr double table_step = 1e-12;
 double cutoff_of(const TunnellingSpec& t) { return t.cutoff > 0 ? t.cutoff : t.model.cutoff_width; }
 }  // namespace
 
-Scene with_gap_material(const Scene& scene) {
+Scene with_tunnelling_material(const Scene& scene) {
   if (scene.tunnelling.empty() || !scene.tunnelling[0].quantum) return scene;
   Scene s = scene;
   const TunnellingSpec& t = s.tunnelling[0];
   MaterialSpec gap;
   gap.name = "tunnelling_gap";
   gap.poles.eps_inf = t.model.options.background;
-  // The damping here is a placeholder; every gap cell gets its own (GapCells::set_damping).
+  // The damping here is a placeholder; every gap cell gets its own (TunnellingCells::set_damping).
   gap.poles.drude.push_back({t.model.metal.plasma_frequency, t.model.metal.damping});
   gap.where = t.where;
   s.materials.push_back(gap);
   return s;
 }
 
-GapCells::GapCells(const Scene& scene, const Grid& g, const BlockLayout& L, MaterialIndex& mi) : layout_(L) {
+TunnellingCells::TunnellingCells(const Scene& scene, const Grid& g, const BlockLayout& L, MaterialIndex& mi)
+    : layout_(L) {
   if (scene.tunnelling.empty()) return;
   const TunnellingSpec& t = scene.tunnelling[0];
   const double cutoff = cutoff_of(t);
@@ -43,7 +44,7 @@ GapCells::GapCells(const Scene& scene, const Grid& g, const BlockLayout& L, Mate
   stride_ = static_cast<std::ptrdiff_t>(L.total);
   const auto background = static_cast<std::uint8_t>(scene.domain.background);
   for (const auto& pair : t.pairs) {
-    GapResult rep;
+    TunnellingGap rep;
     rep.pair = pair;
     rep.cutoff = cutoff;
     rep.quantum = t.quantum;
@@ -93,7 +94,7 @@ GapCells::GapCells(const Scene& scene, const Grid& g, const BlockLayout& L, Mate
   }
 }
 
-void GapCells::set_damping(DispersiveCurrents& d) const {
+void TunnellingCells::set_damping(DispersiveCurrents& d) const {
   // A gap wider than the cut-off everywhere has no gap cells: the run is classical there, as the
   // model says (a sweep of widths crosses the cut-off), and the gap material has no pool to set.
   if (material_ < 0 || width_.empty()) return;

@@ -17,16 +17,16 @@ namespace yeegap::solver {
 
 /// The scene the solver runs: with quantum-corrected tunnelling, the gap material appended to the
 /// materials (so the time step, stability check and coefficients include it).
-Scene with_gap_material(const Scene& scene);
+Scene with_tunnelling_material(const Scene& scene);
 
-class GapCells {
+class TunnellingCells {
  public:
   /// Marks gap cells in `mi` (locations of the background material inside a gap); `scene` must
-  /// come from with_gap_material.
-  GapCells(const Scene& scene, const Grid& g, const BlockLayout& L, MaterialIndex& mi);
+  /// come from with_tunnelling_material.
+  TunnellingCells(const Scene& scene, const Grid& g, const BlockLayout& L, MaterialIndex& mi);
   /// Gives each marked cell its damping gamma_g(l); call once the dispersive currents exist.
   void set_damping(DispersiveCurrents& d) const;
-  const std::vector<GapResult>& report() const { return report_; }
+  const std::vector<TunnellingGap>& report() const { return report_; }
 
  private:
   BlockLayout layout_;
@@ -34,7 +34,7 @@ class GapCells {
   std::unordered_map<std::ptrdiff_t, double> width_;  // key: component * layout total + offset -> l
   std::ptrdiff_t stride_ = 0;
   std::vector<double> table_l_, table_log_gamma_;   // gamma_g(l) tabulated: the barrier integral is slow
-  std::vector<GapResult> report_;
+  std::vector<TunnellingGap> report_;
 };
 
 }  // namespace yeegap::solver

@@ -9,8 +9,8 @@
 #include "base/constants.h"
 #include "base/units.h"
 #include "materials/pole_set.h"
-#include "materials/tunnel_barrier.h"
-#include "materials/tunnel_gap_model.h"
+#include "materials/tunnelling_barrier.h"
+#include "materials/tunnelling_model.h"
 
 namespace yeegap::materials {
 namespace {
@@ -20,7 +20,7 @@ constexpr double angstrom = 1e-10;
 
 double relative(double a, double b) { return std::abs(a - b) / std::abs(b); }
 
-const TunnelMetal& gold() { return *find_tunnel_metal("Au"); }
+const TunnellingMetal& gold() { return *find_tunnelling_metal("Au"); }
 
 const BarrierKind all_kinds[] = {BarrierKind::rectangular, BarrierKind::image_rounded, BarrierKind::exponential_fit};
 
@@ -36,23 +36,23 @@ TEST(GapDamping, ReproducesThePhysicsNotesCheck) {
 // rectangular barrier at every width: the gamma_g column of the table in physics.md 1.6 [V-calc]
 // (E_F = 5.53 eV, W = 5.1 eV, hbar omega_p = 9 eV; exact transmission, Griffiths/Merzbacher; G_A
 // from the Tsu-Esaki integral, physics.md 1.5), to its printed three digits (0.5 %).
-TEST(GapModel, WithoutTheJoinAndWithGivenNumbersReproducesTheBarrierTable) {
-  TunnelMetalChanges c;
+TEST(TunnellingModel, WithoutTheJoinAndWithGivenNumbersReproducesTheBarrierTable) {
+  TunnellingMetalChanges c;
   c.fermi_energy = 5.53 * constants::eV;
   c.work_function = 5.1 * constants::eV;
   c.plasma_frequency = units::eV_to_omega(9.0);
-  const TunnelMetal metal = with_changes(gold(), c);
+  const TunnellingMetal metal = with_changes(gold(), c);
   EXPECT_NE(metal.summary.find("E_F 5.53 eV"), std::string::npos) << metal.summary;
   EXPECT_NE(metal.summary.find("hbar omega_p 9 eV"), std::string::npos) << metal.summary;
-  GapOptions none;
+  TunnellingOptions none;
   none.join_transmission = 0;
-  const GapModel model = make_gap_model(metal, BarrierKind::rectangular, none);
+  const TunnellingModel model = make_tunnelling_model(metal, BarrierKind::rectangular, none);
   EXPECT_EQ(model.join_width, 0.0);
   const double widths[] = {1, 2, 3, 5}, table[] = {1.13e17, 7.22e17, 6.37e18, 6.03e20};
   for (int q = 0; q < 4; ++q) EXPECT_LT(relative(gap_damping(model, widths[q] * angstrom), table[q]), 5e-3) << widths[q];
   // With the default join the 1 A value is tied to gamma_p instead (below l' where T(E_F) = 0.01),
   // so the switch changes the answer there and nowhere beyond l'.
-  const GapModel joined = make_gap_model(metal, BarrierKind::rectangular);
+  const TunnellingModel joined = make_tunnelling_model(metal, BarrierKind::rectangular);
   EXPECT_GT(joined.join_width, 1 * angstrom);
   EXPECT_GT(relative(gap_damping(joined, 1 * angstrom), table[0]), 0.1);
   EXPECT_DOUBLE_EQ(gap_damping(joined, 5 * angstrom), gap_damping(model, 5 * angstrom));
@@ -66,18 +66,18 @@ TEST(GapModel, WithoutTheJoinAndWithGivenNumbersReproducesTheBarrierTable) {
 TEST(ExponentialFit, GivesEighteenHundredAtThreeAngstrom) {
   // physics.md 1.3 [V-calc]: gamma_g(3 A)/gamma_p = exp(3/0.4) = 1808.0 within 1e-3, for
   // l_c = 0.4 A (the Au value widely quoted in QCM work, from memory).
-  const GapModel m = make_gap_model(gold(), BarrierKind::exponential_fit);
+  const TunnellingModel m = make_tunnelling_model(gold(), BarrierKind::exponential_fit);
   ASSERT_DOUBLE_EQ(m.metal.fit_decay_length, 0.4 * angstrom);
   EXPECT_LT(relative(gap_damping(m, 3 * angstrom) / gold().damping, 1808.0), 1e-3);
 }
 
-TEST(GapModel, BecomesTheBulkDrudeMetalAtContact) {
+TEST(TunnellingModel, BecomesTheBulkDrudeMetalAtContact) {
   // Esteban et al. 2012 (physics.md 1.1): gamma_g -> gamma_p as l -> 0, so eps_g -> the metal's
   // Drude permittivity 1 - omega_p^2/(omega (omega + i gamma_p)) (eps_b = 1). Every metal, every barrier.
   const double omega = units::eV_to_omega(1.8);
-  for (const TunnelMetal& metal : tunnel_metals()) {
+  for (const TunnellingMetal& metal : tunnelling_metals()) {
     for (BarrierKind kind : all_kinds) {
-      const GapModel m = make_gap_model(metal, kind);
+      const TunnellingModel m = make_tunnelling_model(metal, kind);
       const double wp = metal.plasma_frequency;
       const cplx bulk = 1.0 - wp * wp / (omega * cplx(omega, metal.damping));
       EXPECT_DOUBLE_EQ(gap_damping(m, 0.0), metal.damping) << metal.name << " " << barrier_kind_name(kind);
@@ -87,15 +87,15 @@ TEST(GapModel, BecomesTheBulkDrudeMetalAtContact) {
   }
 }
 
-TEST(GapModel, BecomesTheBackgroundForWideGaps) {
+TEST(TunnellingModel, BecomesTheBackgroundForWideGaps) {
   // physics.md 1.1/1.4: gamma_g -> infinity, eps_g -> eps_b. At 2 nm every model is far beyond its
   // cut-off; tested with vacuum and a water-like eps_b = 1.77 (Faraday Discuss. 2015 form).
   const double omega = units::eV_to_omega(1.8);
   for (double background : {1.0, 1.77}) {
-    GapOptions opts;
+    TunnellingOptions opts;
     opts.background = background;
     for (BarrierKind kind : all_kinds) {
-      const GapModel m = make_gap_model(gold(), kind, opts);
+      const TunnellingModel m = make_tunnelling_model(gold(), kind, opts);
       EXPECT_LT(std::abs(gap_permittivity(m, 20 * angstrom, omega) - background), 1e-6) << barrier_kind_name(kind);
       // ... but not at 2 A, where the tunnelling term still matters (the limit is not trivial).
       EXPECT_GT(std::abs(gap_permittivity(m, 2 * angstrom, omega) - background), 1e-2) << barrier_kind_name(kind);
@@ -103,10 +103,10 @@ TEST(GapModel, BecomesTheBackgroundForWideGaps) {
   }
 }
 
-TEST(GapModel, DampingGrowsMonotonicallyAndContinuously) {
+TEST(TunnellingModel, DampingGrowsMonotonicallyAndContinuously) {
   // gamma_g must rise from gamma_p without a step, including across the join at l'.
   for (BarrierKind kind : all_kinds) {
-    const GapModel m = make_gap_model(gold(), kind);
+    const TunnellingModel m = make_tunnelling_model(gold(), kind);
     double previous = 0;
     for (int i = 0; i <= 150; ++i) {
       const double g = gap_damping(m, i * 0.1 * angstrom);
@@ -119,11 +119,11 @@ TEST(GapModel, DampingGrowsMonotonicallyAndContinuously) {
   }
 }
 
-TEST(GapModel, JoinsWhereTheTransmissionAtFermiFallsToOnePercent) {
+TEST(TunnellingModel, JoinsWhereTheTransmissionAtFermiFallsToOnePercent) {
   // The published anchoring (physics.md 1.3, secondary summary of Esteban et al. 2012): the exponential
   // meets the quantum conductance where T(E_F) has dropped to about 1e-2.
   for (BarrierKind kind : {BarrierKind::rectangular, BarrierKind::image_rounded}) {
-    const GapModel m = make_gap_model(gold(), kind);
+    const TunnellingModel m = make_tunnelling_model(gold(), kind);
     EXPECT_LT(relative(barrier_transmission_fermi(m, m.join_width), 1e-2), 1e-6) << barrier_kind_name(kind);
     // From l' on the damping is the barrier's own: eps0 omega_p^2/(l G_A(l)) (physics.md 1.2).
     for (double l : {m.join_width * 1.01, m.join_width + 3 * angstrom}) {
@@ -133,14 +133,14 @@ TEST(GapModel, JoinsWhereTheTransmissionAtFermiFallsToOnePercent) {
   }
   // The rectangular Au barrier: T(E_F) = 3.829e-2 at 2 A and 3.852e-3 at 3 A (physics.md 1.6 table),
   // so l' lies between them.
-  const GapModel rect = make_gap_model(gold(), BarrierKind::rectangular);
+  const TunnellingModel rect = make_tunnelling_model(gold(), BarrierKind::rectangular);
   EXPECT_GT(rect.join_width, 2 * angstrom);
   EXPECT_LT(rect.join_width, 3 * angstrom);
 }
 
-TEST(GapModel, CutoffIsWhereDampingReachesTheChosenMultipleOfBulk) {
+TEST(TunnellingModel, CutoffIsWhereDampingReachesTheChosenMultipleOfBulk) {
   for (BarrierKind kind : all_kinds) {
-    const GapModel m = make_gap_model(gold(), kind);
+    const TunnellingModel m = make_tunnelling_model(gold(), kind);
     EXPECT_LT(relative(gap_damping(m, m.cutoff_width) / gold().damping, m.options.cutoff_damping_ratio), 1e-4)
         << barrier_kind_name(kind);
     // There the tunnelling term is small at 1 eV: omega_p^2/(omega gamma_g) < 2e-3 (the documented choice).
@@ -149,11 +149,11 @@ TEST(GapModel, CutoffIsWhereDampingReachesTheChosenMultipleOfBulk) {
   }
 }
 
-TEST(GapModel, PoleSetGivesTheSamePermittivity) {
+TEST(TunnellingModel, PoleSetGivesTheSamePermittivity) {
   // The solver sees the gap as a PoleSet; it must be the same medium.
-  GapOptions opts;
+  TunnellingOptions opts;
   opts.background = 1.77;
-  const GapModel m = make_gap_model(gold(), BarrierKind::rectangular, opts);
+  const TunnellingModel m = make_tunnelling_model(gold(), BarrierKind::rectangular, opts);
   for (double l_A : {0.5, 2.0, 3.0, 4.0}) {
     for (double e : {0.5, 1.8, 3.0}) {
       const double omega = units::eV_to_omega(e);
@@ -165,10 +165,10 @@ TEST(GapModel, PoleSetGivesTheSamePermittivity) {
   }
 }
 
-TEST(GapModel, ImageForceWidensTheTunnellingRange) {
+TEST(TunnellingModel, ImageForceWidensTheTunnellingRange) {
   // The image force lowers the barrier (Simmons 1963), so tunnelling matters to wider gaps.
-  const GapModel rect = make_gap_model(gold(), BarrierKind::rectangular);
-  const GapModel image = make_gap_model(gold(), BarrierKind::image_rounded);
+  const TunnellingModel rect = make_tunnelling_model(gold(), BarrierKind::rectangular);
+  const TunnellingModel image = make_tunnelling_model(gold(), BarrierKind::image_rounded);
   EXPECT_GT(image.join_width, rect.join_width);
   EXPECT_GT(image.cutoff_width, rect.cutoff_width);
 }

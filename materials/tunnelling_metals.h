@@ -1,4 +1,4 @@
-// Metals for the tunnelling-gap model: work function and Fermi energy (they set the barrier), and
+// Metals for the tunnelling model: work function and Fermi energy (they set the barrier), and
 // the Drude plasma frequency and damping the gap medium shares with the metal (Esteban et al.,
 // Nat. Commun. 3, 825 (2012)). Each preset names where every number comes from (physics.md 1.1-1.8).
 #pragma once
@@ -10,7 +10,7 @@
 
 namespace yeegap::materials {
 
-struct TunnelMetal {
+struct TunnellingMetal {
   std::string name;             // the word the command line uses: Au, Au-jellium, Ag, Na
   std::string summary;          // one line for listings
   double work_function = 0;     // J: barrier height above E_F for a vacuum gap
@@ -22,7 +22,7 @@ struct TunnelMetal {
 };
 
 /// Values a user gives in place of a preset's, to reproduce a paper's parameters (SI; unset keeps the preset's).
-struct TunnelMetalChanges {
+struct TunnellingMetalChanges {
   std::optional<double> work_function;     // J
   std::optional<double> fermi_energy;      // J
   std::optional<double> plasma_frequency;  // rad/s
@@ -31,16 +31,16 @@ struct TunnelMetalChanges {
 
 /// The preset with the given values replaced; its summary says which ones, so every table printed
 /// from it names the numbers it was made with.
-TunnelMetal with_changes(TunnelMetal metal, const TunnelMetalChanges& changes);
+TunnellingMetal with_changes(TunnellingMetal metal, const TunnellingMetalChanges& changes);
 
 /// Every preset, in a fixed order. Built once; never changes.
-const std::vector<TunnelMetal>& tunnel_metals();
+const std::vector<TunnellingMetal>& tunnelling_metals();
 
 /// The preset called `name` (exact match first, then ignoring case), or nullptr.
-const TunnelMetal* find_tunnel_metal(std::string_view name);
+const TunnellingMetal* find_tunnelling_metal(std::string_view name);
 
 /// All preset names, in order (for "did you mean ...?" and listings).
-std::vector<std::string> tunnel_metal_names();
+std::vector<std::string> tunnelling_metal_names();
 
 /// omega_p of a free-electron gas whose Fermi energy is `fermi_energy` (J):
 /// n = (2 m E_F)^{3/2}/(3 pi^2 hbar^3), omega_p = sqrt(n e^2/(eps0 m)) (Ashcroft & Mermin 1976, ch. 1-2).
