@@ -1,5 +1,5 @@
 // The typed, validated description of one run, in SI units: what io/ reads from a scene file and
-// what the solver builds its model from. Plain aggregates only (design.md: plain data crosses
+// what the solver builds its model from. Plain aggregates only (DEVELOPERS.md: plain data crosses
 // folders), so a test builds one in a few lines without any file.
 #pragma once
 

@@ -1,7 +1,7 @@
 // The state of a run as named raw arrays viewed in place, for checkpoints: everything a later step
 // reads that an earlier step wrote (fields with their halos, pole currents, CPML psi terms, the
 // incident lines of plane waves, every running DFT and probe series, the source spectra) plus a few
-// counters. io/ writes and reads these views; the solver never sees a file format (design.md).
+// counters. io/ writes and reads these views; the solver never sees a file format (DEVELOPERS.md).
 #pragma once
 
 #include <complex>

@@ -1,4 +1,4 @@
-// Tunnelling-gap cells on the grid (design.md, "The gap model in one paragraph"): the gap medium is
+// Tunnelling-gap cells on the grid (docs/gaps.md): the gap medium is
 // one extra dispersive material (eps_b plus a Drude pole with the metal's plasma frequency) whose
 // damping is set cell by cell from the local gap width l = d_A + d_B, so a gap of varying width
 // (two spheres, a particle on a film) gets the right conductivity everywhere.

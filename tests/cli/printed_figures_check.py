@@ -58,12 +58,14 @@ def check_particle_on_mirror(work):
             points[(p["spacer_nm"], p["model"])] = p
 
     def gap_mode(spacer, model):
-        """The gap mode's sample: the reddest local maximum of the scattering spectrum (below 0.5 nm
-        a higher-order mode to the blue outgrows it)."""
+        """The gap mode's sample: the reddest local maximum of the scattering spectrum that reaches half
+        its largest value (below 0.5 nm a mode to the blue outgrows the gap mode; weak bumps near the
+        band's red end, a fifth of the peak or less, are not it)."""
         p = points[(spacer, model)]
         order = np.argsort(p["wl"])
         wl, sca = p["wl"][order], p["sca"][order]
-        peaks = [i for i in range(1, len(sca) - 1) if sca[i] > sca[i - 1] and sca[i] >= sca[i + 1]]
+        peaks = [i for i in range(1, len(sca) - 1)
+                 if sca[i] > sca[i - 1] and sca[i] >= sca[i + 1] and sca[i] >= 0.5 * sca.max()]
         i = peaks[-1] if peaks else int(np.argmax(sca))
         return wl[i], sca[i]
 

@@ -1,5 +1,5 @@
 // Storage of the polarization currents (solver/media/dispersive.h): only the E locations of dispersive
-// materials hold state, so memory follows the metal volume, not the domain (design.md).
+// materials hold state, so memory follows the metal volume, not the domain (DEVELOPERS.md).
 #include <gtest/gtest.h>
 
 #include "base/constants.h"

@@ -1,4 +1,4 @@
-// Results do not depend on the thread count (design.md): every cell is written by one thread and
+// Results do not depend on the thread count (DEVELOPERS.md): every cell is written by one thread and
 // reductions run in a fixed order, so 1 and 2 threads must agree bit for bit.
 #include <gtest/gtest.h>
 #include <omp.h>
