@@ -46,73 +46,68 @@ std::string sensor_note(const Scene& s) {
           : std::string());
 }
 
-class PlainRun final : public Run {
+// A Run around one run object of kind K: the checkpoint calls go to it as they are.
+template <class K>
+class RunAround : public Run {
  public:
-  explicit PlainRun(const Scene& s) : sim_(s) {}
-  RunKind kind() const override { return RunKind::plain; }
-  ModelSummary summary() const override { return sim_.summary(); }
-  RunResults run(const ProgressHook& progress, const StopHook& between_steps) override {
-    return sim_.run(progress, between_steps);
-  }
-  const Grid& grid() const override { return sim_.grid(); }
-  double dt() const override { return sim_.dt(); }
-  StateCounters state_counters() const override { return sim_.state_counters(); }
-  void restore_counters(const StateCounters& c) override { sim_.restore_counters(c); }
-  StateArrays state_arrays() override { return sim_.state_arrays(); }
+  explicit RunAround(const Scene& s) : inner_(s) {}
+  const Grid& grid() const override { return inner_.grid(); }
+  double dt() const override { return inner_.dt(); }
+  StateCounters state_counters() const override { return inner_.state_counters(); }
+  void restore_counters(const StateCounters& c) override { inner_.restore_counters(c); }
+  StateArrays state_arrays() override { return inner_.state_arrays(); }
 
- private:
-  Simulation sim_;
+ protected:
+  K inner_;
 };
 
-class BlochCellRun final : public Run {
+class PlainRun final : public RunAround<Simulation> {
  public:
-  BlochCellRun(const Scene& s, ModelSummary planned) : run_(s), planned_(std::move(planned)) {}
+  using RunAround::RunAround;
+  RunKind kind() const override { return RunKind::plain; }
+  ModelSummary summary() const override { return inner_.summary(); }
+  RunResults run(const ProgressHook& progress, const StopHook& between_steps) override {
+    return inner_.run(progress, between_steps);
+  }
+};
+
+class BlochCellRun final : public RunAround<BlochRun> {
+ public:
+  BlochCellRun(const Scene& s, ModelSummary planned) : RunAround(s), planned_(std::move(planned)) {}
   RunKind kind() const override { return RunKind::bloch; }
   ModelSummary summary() const override { return planned_; }
   RunResults run(const ProgressHook& progress, const StopHook& between_steps) override {
-    return run_.run(progress, between_steps);
+    return inner_.run(progress, between_steps);
   }
-  const Grid& grid() const override { return run_.grid(); }
-  double dt() const override { return run_.dt(); }
-  StateCounters state_counters() const override { return run_.state_counters(); }
-  void restore_counters(const StateCounters& c) override { run_.restore_counters(c); }
-  StateArrays state_arrays() override { return run_.state_arrays(); }
 
  private:
-  BlochRun run_;
   ModelSummary planned_;
 };
 
-class AngleScanRun final : public Run {
+class AngleScanRun final : public RunAround<AngleScan> {
  public:
-  AngleScanRun(const Scene& s, ModelSummary planned) : scene_(s), scan_(s), planned_(std::move(planned)) {}
+  AngleScanRun(const Scene& s, ModelSummary planned) : RunAround(s), scene_(s), planned_(std::move(planned)) {}
   RunKind kind() const override { return RunKind::angle_scan; }
   ModelSummary summary() const override { return planned_; }
   RunResults run(const ProgressHook& progress, const StopHook& between_steps) override {
-    return scan_.run(scan_progress(progress, 0), between_steps);
+    return inner_.run(scan_progress(progress, 0), between_steps);
   }
   bool run_repeats(RunResults& results, const ProgressHook& progress, const StopHook& between_steps) override;
   std::string position(long counter) const override {
-    return fmt::format("{} of {} angles finished", counter, scan_.angle_count());
+    return fmt::format("{} of {} angles finished", counter, inner_.angle_count());
   }
-  const Grid& grid() const override { return scan_.grid(); }
-  double dt() const override { return scan_.dt(); }
-  StateCounters state_counters() const override { return scan_.state_counters(); }
-  void restore_counters(const StateCounters& c) override { scan_.restore_counters(c); }
-  StateArrays state_arrays() override { return scan_.state_arrays(); }
 
  private:
   // Progress of the sensor's repeats continues the count of the first scan: scans x angles in all.
   ProgressHook scan_progress(const ProgressHook& progress, int scan_index) const;
 
   Scene scene_;
-  AngleScan scan_;
   ModelSummary planned_;
 };
 
 Run::ProgressHook AngleScanRun::scan_progress(const ProgressHook& progress, int scan_index) const {
   if (!progress || scene_.sensors.empty()) return progress;
-  const long n = static_cast<long>(scan_.angle_count());
+  const long n = static_cast<long>(inner_.angle_count());
   const long scans = scan_count(scene_);
   return [progress, n, scans, scan_index](const Progress& p) {
     Progress q = p;

@@ -11,22 +11,8 @@ yeegap=$1
 python=$2
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
-fails=0
-pass=0
-fail() { echo "FAIL $*"; fails=$((fails + 1)); }
-ok() { pass=$((pass + 1)); }
+source "$(dirname "$0")/cli_expect.sh"  # fails, pass, fail, ok, expect
 
-# expect NAME WANT_EXIT PATTERN -- command...: exit code and a pattern in stdout+stderr.
-expect() {
-  local name=$1 want=$2 pattern=$3
-  shift 4
-  local out code
-  out=$("$@" 2>&1)
-  code=$?
-  if [ "$code" -ne "$want" ] || ! grep -qE -- "$pattern" <<<"$out"; then
-    fail "$name: exit $code (want $want), output:"; echo "$out" | head -8
-  else ok; fi
-}
 
 # py NAME CODE: runs python code (with h5py, numpy) in $work; passes when it exits 0.
 py() {

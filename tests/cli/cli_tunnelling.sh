@@ -7,10 +7,7 @@ set -u
 yeegap=$1
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
-fails=0
-pass=0
-fail() { echo "FAIL $*"; fails=$((fails + 1)); }
-ok() { pass=$((pass + 1)); }
+source "$(dirname "$0")/cli_expect.sh"  # fails, pass, fail, ok, expect
 
 keys="gap_nm transmission_fermi conductance_per_area_S_m2 sigma0_S_m gamma_g_eV eps_re eps_im"
 
@@ -52,17 +49,6 @@ elif grep -q '^gap_nm' "$work/table.txt" && [ "$(wc -l <"$work/table.txt")" -eq 
      grep -q 'cut-off' "$work/notes.txt" && ! grep -q 'cut-off' "$work/table.txt"; then ok
 else fail "table: header/rows not on stdout or notes not on stderr"; cat "$work/table.txt"; fi
 
-# expect NAME WANT_EXIT PATTERN -- command...: exit code and a pattern in stdout+stderr.
-expect() {
-  local name=$1 want=$2 pattern=$3
-  shift 4
-  local out code
-  out=$("$@" 2>&1)
-  code=$?
-  if [ "$code" -ne "$want" ] || ! grep -qE -- "$pattern" <<<"$out"; then
-    fail "$name: exit $code (want $want), output:"; echo "$out" | head -5
-  else ok; fi
-}
 expect unknown_metal 2 "unknown metal 'Au-jelly'.*did you mean 'Au-jellium'" -- "$yeegap" tunnelling --metal Au-jelly
 expect unknown_barrier 2 "did you mean 'image_rounded'" -- "$yeegap" tunnelling --barrier image_round
 check_json scene_barrier_word 9 -- "$yeegap" tunnelling --metal Ag --barrier exponential_fit --from 0.2nm --to 1nm --step 0.1nm --at 700nm --json
