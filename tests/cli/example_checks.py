@@ -55,3 +55,36 @@ def agrees(checks, text, value, what, where, unit=None):
     step = unit if unit is not None else 10 ** -digits
     ok = abs(float(text) - value) <= 0.5 * step + 1e-12
     checks(ok, f"{where}: {what} printed {text}, run gives {value:.{digits + 2}f}")
+
+
+_NUMBER = re.compile(r"[+-]?[0-9]+(\.[0-9]+)?([eE][+-]?[0-9]+)?")
+
+
+def _last_digit_unit(text):
+    mantissa, _, exponent = text.lower().partition("e")
+    decimals = len(mantissa.split(".")[1]) if "." in mantissa else 0
+    return 10.0 ** ((int(exponent) if exponent else 0) - decimals)
+
+
+def quoted_figure(checks, src, page, name, text):
+    """A figure a page quotes as `<!-- measured: NAME by FILE -->TEXT<!-- /measured -->` against the
+    run's TEXT: the words must match and each number lie within one unit of its last printed digit
+    (tests/support/table_agreement.h does the same for the C++ tests). With YEEGAP_WRITE_MEASURED
+    set the run's text is written into the page instead."""
+    path = os.path.join(src, page)
+    with open(path, encoding="utf-8") as f:
+        content = f.read()
+    m = re.search(r"<!-- measured: " + re.escape(name) + r" [^>]*-->(.*?)<!-- /measured -->", content)
+    if not m:
+        checks(False, f"{page} quotes no figure '{name}'")
+        return
+    if os.environ.get("YEEGAP_WRITE_MEASURED", "0") not in ("", "0"):
+        with open(path, "w", encoding="utf-8") as f:
+            f.write(content[:m.start(1)] + text + content[m.end(1):])
+        print(f"wrote figure '{name}' into {page}")
+        return
+    quoted = m.group(1)
+    same_words = _NUMBER.sub("#", quoted) == _NUMBER.sub("#", text)
+    pairs = list(zip([x.group(0) for x in _NUMBER.finditer(quoted)], [x.group(0) for x in _NUMBER.finditer(text)]))
+    close = all(abs(float(a) - float(b)) <= 1.000001 * _last_digit_unit(a) for a, b in pairs)
+    checks(same_words and close, f"{page}, figure '{name}': quoted '{quoted}', run gives '{text}'")

@@ -13,6 +13,8 @@ import tempfile
 import h5py
 import numpy as np
 
+from example_checks import Checks, quoted_figure
+
 yeegap, src = sys.argv[1], sys.argv[2]
 with tempfile.TemporaryDirectory() as work:
     out = os.path.join(work, "coarse.h5")
@@ -28,6 +30,9 @@ with tempfile.TemporaryDirectory() as work:
     worst = np.max(np.abs(radiated / emitted - 1))
     print(f"lossless sphere: max |radiated/emitted - 1| = {worst:.2e}")
     assert worst < 0.01, worst
+    check = Checks()
+    check(True, f"radiated/emitted within 1 % ({worst:.1e})")
+    quoted_figure(check, src, "README.md", "lossless_sphere_boxes", f"{worst:.1e}".replace("e-0", "e-"))
     assert summary["stop_reason"] == "energy_below", summary["stop_reason"]
     with h5py.File(out, "r") as f:
         assert f.attrs["format"] == b"yeegap-results", f.attrs["format"]
@@ -36,4 +41,4 @@ with tempfile.TemporaryDirectory() as work:
         assert f["grid/x"].shape == (51,), f["grid/x"].shape
         for ds in f["outputs/emitted"].values():
             assert "units" in ds.attrs, ds.name
-print("1 passed, 0 failed")
+check.finish()

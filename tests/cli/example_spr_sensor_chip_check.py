@@ -16,7 +16,7 @@ import tempfile
 import h5py
 import numpy as np
 
-from example_checks import Checks, run_example
+from example_checks import Checks, quoted_figure, run_example
 
 yeegap, src = sys.argv[1], sys.argv[2]
 WAVELENGTH = 632.8e-9
@@ -77,15 +77,20 @@ with tempfile.TemporaryDirectory() as work:
         g = f["outputs/chip"]
         check(g.attrs["kind"] == b"sensor" and g.attrs["binding"] == b"bound_layer", "sensor group with its binding")
         theta = g["angle_deg"][()]
+        worst_both = 0
         for name, layers in (("reflectance", after), ("reflectance_before_binding", before)):
             r = g[name][()]
             tmm = np.array([tmm_r(t, layers, N_BUFFER ** 2) for t in theta])
             worst = np.max(np.abs(r - tmm))
             print(f"     {name}: max |R - R_TMM| {worst:.4f} over {theta[0]:.0f}-{theta[-1]:.0f} deg")
             check(worst < 0.01, f"{name} within 0.01 of the transfer matrix")
+            worst_both = max(worst_both, worst)
         shift, tmm_shift = g.attrs["binding_shift_deg"], tmm_minimum(after) - tmm_minimum(before)
         print(f"     binding shift {shift:.4f} deg, transfer matrix {tmm_shift:.4f} deg")
         check(abs(shift / tmm_shift - 1) < 0.05, "binding shift within 5 % of the transfer matrix")
+        quoted_figure(check, src, "README.md", "flagship_chip_scan",
+                      f"R within {worst_both:.4f} over {theta[0]:.0f}–{theta[-1]:.0f}°; shift {shift:.3f}° vs "
+                      f"{tmm_shift:.3f}° ({100 * (shift / tmm_shift - 1):+.1f} %; 1° sampling)")
         check(abs(g.attrs["binding_equivalent_index"] - np.radians(shift) / g.attrs["sensitivity"]) < 1e-12,
               "equivalent index = shift / sensitivity")
     pngs = [p for p in os.listdir(work) if p.endswith(".png") and "chip" in p]

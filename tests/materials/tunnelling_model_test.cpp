@@ -11,6 +11,7 @@
 #include "materials/pole_set.h"
 #include "materials/tunnelling_barrier.h"
 #include "materials/tunnelling_model.h"
+#include "measured_table.h"
 
 namespace yeegap::materials {
 namespace {
@@ -69,6 +70,22 @@ TEST(ExponentialFit, GivesEighteenHundredAtThreeAngstrom) {
   const TunnellingModel m = make_tunnelling_model(gold(), BarrierKind::exponential_fit);
   ASSERT_DOUBLE_EQ(m.metal.fit_decay_length, 0.4 * angstrom);
   EXPECT_LT(relative(gap_damping(m, 3 * angstrom) / gold().damping, 1808.0), 1e-3);
+}
+
+// docs/gaps.md's table of the gap medium at the bonding energies, generated: the exponential fit for
+// jellium gold (l_c from the metal's preset), gamma_g and eps_g at 2.5 eV. The limits and the fit's
+// value at 3 A are asserted above.
+TEST(ExponentialFit, TheGapPagesMediumTableIsTheModels) {
+  const TunnellingModel m = make_tunnelling_model(*find_tunnelling_metal("Au-jellium"), BarrierKind::exponential_fit);
+  const double omega = units::eV_to_omega(2.5);
+  test_support::MeasuredTable table("docs/gaps.md", "gap_medium_jellium", {"l (nm)", "γ_g (eV)", "ε_g at 2.5 eV"});
+  for (double l_nm : {0.10, 0.15, 0.20, 0.25, 0.30, 0.50}) {
+    const double gamma_eV = gap_damping(m, l_nm * 1e-9) / units::eV_to_omega(1.0);
+    const cplx eps = gap_permittivity(m, l_nm * 1e-9, omega);
+    table.add_row({test_support::fixed(l_nm, 2), test_support::significant(gamma_eV, 3),
+                   test_support::fixed(eps.real(), 2) + " + " + test_support::significant(eps.imag(), 3) + "i"});
+  }
+  table.check_against_page();
 }
 
 TEST(TunnellingModel, BecomesTheBulkDrudeMetalAtContact) {

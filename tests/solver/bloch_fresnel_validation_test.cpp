@@ -11,6 +11,7 @@
 #include "materials/transfer_matrix.h"
 #include "solver/runs/bloch_run.h"
 #include "test_scenes.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -80,6 +81,7 @@ ReflectanceResult interface_run(double angle, bool p) {
 }
 
 TEST(BlochPlaneWave, AirGlassInterfaceGivesFresnelReflectanceForSAndP) {
+  double worst = 0;
   for (bool p : {false, true})
     for (double angle_deg : {0.0, 30.0, 70.0}) {
       const ReflectanceResult t = interface_run(angle_deg * deg, p);
@@ -95,7 +97,10 @@ TEST(BlochPlaneWave, AirGlassInterfaceGivesFresnelReflectanceForSAndP) {
       EXPECT_NEAR(t.reflectance[0], tmm.R, 1e-3);
       EXPECT_NEAR(t.transmittance[0], tmm.T, 1e-3);
       EXPECT_NEAR(t.absorptance[0], 0.0, 1e-3);  // lossless: R + T = 1
+      worst = std::max(worst, std::abs(t.reflectance[0] - fresnel_R(1.0, 1.5, theta, p)));
     }
+  test_support::check_figure_against_page("README.md", "fresnel_interface",
+                                          "within " + test_support::scientific(worst, 1));
 }
 
 TEST(BlochPlaneWave, PPolarizedReflectionVanishesAtBrewsterAngle) {
@@ -103,6 +108,8 @@ TEST(BlochPlaneWave, PPolarizedReflectionVanishesAtBrewsterAngle) {
   // for air to n = 1.5. At 45 deg R_p = 0.0085 (Fresnel), so the bound below discriminates.
   const double brewster = std::atan(1.5);
   const ReflectanceResult at = interface_run(brewster, true);
+  test_support::check_figure_against_page("README.md", "fresnel_brewster",
+                                          test_support::scientific(at.reflectance[0], 1));
   EXPECT_LT(at.reflectance[0], 1e-4);
   const ReflectanceResult below = interface_run(45 * deg, true);
   EXPECT_NEAR(below.reflectance[0], fresnel_R(1.0, 1.5, 45 * deg, true), 1e-3);
@@ -140,6 +147,7 @@ TEST(BlochPlaneWave, SlabAtFixedInPlaneWavevectorMatchesEachFrequencyAtItsOwnAng
   // within 1e-3 (physics.md 3.7 check; Born & Wolf 1999, sec. 1.6).
   Scene s = stack_scene(2 * nm, 900 * nm, 30);
   s.bodies.push_back({geometry::make_slab(2, -150 * nm, 150 * nm), 1, {}, "slab"});
+  double worst = 0;
   std::vector<double> lambdas;
   for (double l = 520; l <= 680; l += 20) lambdas.push_back(l * nm);
   for (bool p : {false, true}) {
@@ -157,9 +165,12 @@ TEST(BlochPlaneWave, SlabAtFixedInPlaneWavevectorMatchesEachFrequencyAtItsOwnAng
       EXPECT_NEAR(t.reflectance[q], tmm.R, 1e-3) << (p ? "p " : "s ") << lambdas[q] / nm << " nm";
       EXPECT_NEAR(t.transmittance[q], tmm.T, 1e-3);
       spread = std::max(spread, std::abs(tmm.R - t.reflectance.front()));
+      worst = std::max({worst, std::abs(t.reflectance[q] - tmm.R), std::abs(t.transmittance[q] - tmm.T)});
     }
     EXPECT_GT(spread, 0.01);  // the reflectance does vary across the band: the check discriminates
   }
+  test_support::check_figure_against_page("README.md", "fresnel_slab_fixed_k",
+                                          "within " + test_support::scientific(worst, 1));
 }
 
 }  // namespace

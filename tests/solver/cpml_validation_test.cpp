@@ -11,6 +11,7 @@
 #include "base/constants.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -69,6 +70,7 @@ TEST(Cpml, NormalIncidenceReflectionBelowMinus60dB) {
   const double r = worst_reflection_dB(test, ref, courant_dt(1));
   RecordProperty("worst_reflection_dB", std::to_string(r));
   std::printf("normal incidence: worst reflection over 300-900 nm (30-90 cells/wavelength): %.1f dB\n", r);
+  test_support::check_figure_against_page("README.md", "cpml_normal", test_support::fixed(r, 0) + " dB");
   EXPECT_LT(r, -60.0);
 }
 
@@ -86,6 +88,9 @@ TEST(Cpml, FortyFiveDegreeReflectionBelowMinus60dBForBothPolarizations) {
   const double tm = oblique_reflection_dB({0, 0, 1}, Component::Ez);
   const double te = oblique_reflection_dB({1, 0, 0}, Component::Ex);
   std::printf("45 degrees: worst reflection Ez polarization %.1f dB, in-plane polarization %.1f dB\n", tm, te);
+  test_support::check_figure_against_page(
+      "README.md", "cpml_45_degrees",
+      test_support::fixed(tm, 0) + " dB (Ez) and " + test_support::fixed(te, 0) + " dB (in-plane)");
   EXPECT_LT(tm, -60.0);
   EXPECT_LT(te, -60.0);
 }

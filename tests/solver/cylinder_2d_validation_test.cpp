@@ -12,6 +12,7 @@
 #include "materials/mie_cylinder.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -62,12 +63,14 @@ double rms_error(materials::CylinderPolarization pol, Vec3 e_dir) {
 TEST(Cylinder2D, ElectricFieldAlongTheAxisScattersAsTheSeriesSolution) {
   const double rms = rms_error(materials::CylinderPolarization::tm, {0, 0, 1});
   std::printf("TM RMS %.2f %%\n", 100 * rms);
+  test_support::check_figure_against_page("README.md", "cylinder_2d_along", test_support::fixed(100 * rms, 2) + " %");
   EXPECT_LT(rms, 0.03);
 }
 
 TEST(Cylinder2D, ElectricFieldAcrossTheAxisScattersAsTheSeriesSolution) {
   const double rms = rms_error(materials::CylinderPolarization::te, {0, 1, 0});
   std::printf("TE RMS %.2f %%\n", 100 * rms);
+  test_support::check_figure_against_page("README.md", "cylinder_2d_across", test_support::fixed(100 * rms, 2) + " %");
   EXPECT_LT(rms, 0.03);
 }
 

@@ -9,22 +9,15 @@
 #include <vector>
 
 #include "dielectric_cylinder_run.h"
+#include "fitted_order.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
 
 using materials::CylinderPolarization;
 using testing::dielectric_cylinder_rms_error;
-
-double fitted_order(const std::vector<double>& x, const std::vector<double>& e) {
-  double sx = 0, sy = 0, sxx = 0, sxy = 0;
-  const double n = static_cast<double>(e.size());
-  for (std::size_t i = 0; i < e.size(); ++i) {
-    const double lx = std::log(x[i]), ly = std::log(e[i]);
-    sx += lx, sy += ly, sxx += lx * lx, sxy += lx * ly;
-  }
-  return -(n * sxy - sx * sy) / (n * sxx - sx * sx);
-}
+using test_support::fitted_order;
 
 TEST(CylinderAveragingConvergence, FullTensorConvergesAtSecondOrderAcrossTheAxis) {
   const std::vector<double> res{5, 7.07, 10, 14.14, 20};
@@ -34,17 +27,26 @@ TEST(CylinderAveragingConvergence, FullTensorConvergesAtSecondOrderAcrossTheAxis
     diagonal.push_back(dielectric_cylinder_rms_error(CylinderPolarization::te, n, true, 0.5, false));
     full.push_back(dielectric_cylinder_rms_error(CylinderPolarization::te, n, true));
   }
-  std::printf("\n R/cell | staircase %% | diagonal %% | full %%\n");
-  for (std::size_t i = 0; i < res.size(); ++i)
-    std::printf(" %6.2f | %8.3f | %8.3f | %8.3f\n", res[i], 100 * stair[i], 100 * diagonal[i], 100 * full[i]);
-  const std::vector<double> head(res.begin(), res.begin() + 4), full_head(full.begin(), full.begin() + 4);
-  std::printf("fitted order: diagonal %.2f (all), full %.2f (5-14.14)\n", fitted_order(res, diagonal),
-              fitted_order(head, full_head));
+  const std::vector<double> head(res.begin(), res.begin() + 4);
+  auto order_over_head = [&](const std::vector<double>& e) {
+    return fitted_order(head, std::vector<double>(e.begin(), e.begin() + 4));
+  };
+  test_support::MeasuredTable table("docs/measurements.md", "cylinder_across_axis",
+                               {"cells per radius", "5", "7.07", "10", "14.14", "20", "fitted order, 5 to 14.14"});
+  using Series = std::pair<std::string, const std::vector<double>*>;
+  for (const auto& [name, series] :
+       std::vector<Series>{{"staircase", &stair}, {"diagonal only", &diagonal}, {"whole tensor", &full}}) {
+    std::vector<std::string> row{name};
+    for (double e : *series) row.push_back(test_support::significant(100 * e, 3) + " %");
+    row.push_back(test_support::fixed(order_over_head(*series), 2));
+    table.add_row(row);
+  }
+  table.check_against_page();
   for (std::size_t i = 0; i < res.size(); ++i) {
     EXPECT_LT(full[i], stair[i]) << res[i];
     EXPECT_LT(full[i], diagonal[i]) << res[i];
   }
-  EXPECT_GT(fitted_order(head, full_head), 2.0);
+  EXPECT_GT(order_over_head(full), 2.0);
 }
 
 }  // namespace

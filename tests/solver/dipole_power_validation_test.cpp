@@ -11,6 +11,7 @@
 #include "base/constants.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -36,6 +37,7 @@ TEST(DipolePower, FluxThroughClosedBoxMatchesLarmorWithin2Percent) {
   Simulation sim(s);
   const RunResults r = sim.run();
   ASSERT_EQ(r.summary.stop_reason, "energy_below");
+  std::string figure;
   for (std::size_t q = 0; q < box.omegas.size(); ++q) {
     const double k = box.omegas[q] / c0;
     // Source spectra are listed over the union of all output frequencies, in ascending order.
@@ -45,8 +47,11 @@ TEST(DipolePower, FluxThroughClosedBoxMatchesLarmorWithin2Percent) {
     const double larmor = constants::eta0 * k * k * il * il / (12 * pi);
     const double ratio = r.fluxes[0].power[q] / larmor;
     std::printf("lambda = %.0f nm (%.0f cells): P_flux / P_Larmor = %.5f\n", 2 * pi / k * 1e9, 2 * pi / k / d, ratio);
+    figure += (q ? ", " : "") + test_support::fixed(100 * (ratio - 1), 2, true) + " % (" +
+              test_support::fixed(2 * pi / k / d, 0) + (q ? ")" : " cells/λ)");
     EXPECT_NEAR(ratio, 1.0, 0.02);
   }
+  test_support::check_figure_against_page("README.md", "dipole_power_larmor", figure);
 }
 
 }  // namespace

@@ -9,6 +9,7 @@
 #include <fmt/format.h>
 
 #include "drude_dimer_2d.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -35,19 +36,33 @@ TEST(DrudeDimerGapSeries, ClassicalRedshiftsQuantumCorrectedSaturatesAndOpensACh
     testing::print_spectrum(fmt::format("quantum-corrected, gap {:.2f} nm", gap / nm).c_str(), quantum.back());
   }
 
-  std::printf("\n gap_nm  quasi-static_n1_eV  classical_eV  classical_C_ext_nm  qcm_eV  qcm_C_ext_nm  "
-              "qcm_largest_within_0.15eV/classical  ctp_eV  ctp_C_ext_nm\n");
+  using test_support::fixed;
+  test_support::MeasuredTable table(
+      "docs/gaps.md", "dimer_gap_series",
+      {"gap (nm)", "quasi-static n=1 (eV)", "classical peak (eV)", "classical C_ext (nm)", "QCM peak (eV)",
+       "QCM C_ext (nm)", "QCM within ±0.15 eV / classical", "charge-transfer peak (eV)", "its C_ext (nm)"});
+  auto peak_cells = [&](const Peak& p) -> std::vector<std::string> {
+    if (p.height <= 0) return {"—", "—"};
+    return {fixed(p.energy_eV, 3), fixed(p.height / nm, 2)};
+  };
   std::vector<Peak> bonding(gaps.size()), bonding_q(gaps.size()), transfer(gaps.size());
   for (std::size_t g = 0; g < gaps.size(); ++g) {
     const double estimate = testing::bonding_mode_eV(R, gaps[g], 1);
     bonding[g] = testing::strongest_peak_near(classical[g], estimate, 0.15 * estimate);
     bonding_q[g] = testing::peak_near(quantum[g], bonding[g].energy_eV, 0.15);
     transfer[g] = testing::charge_transfer_peak(quantum[g], classical[g], bonding[g]);
-    std::printf("%6.2f  %8.3f  %8.3f  %8.2f  %8.3f  %8.2f  %6.3f  %8.3f  %8.2f\n", gaps[g] / nm, estimate,
-                bonding[g].energy_eV, bonding[g].height / nm, bonding_q[g].energy_eV, bonding_q[g].height / nm,
-                testing::largest_extinction_near(quantum[g], bonding[g].energy_eV, 0.15) / bonding[g].height, transfer[g].energy_eV,
-                transfer[g].height / nm);
+    std::vector<std::string> row{fixed(gaps[g] / nm, 2), fixed(estimate, 3)};
+    for (const Peak* p : {&bonding[g], &bonding_q[g]})
+      for (auto& cell : peak_cells(*p)) row.push_back(cell);
+    const double near_peak = testing::largest_extinction_near(quantum[g], bonding[g].energy_eV, 0.15);
+    row.push_back(fixed(near_peak / bonding[g].height, 3));
+    for (auto& cell : peak_cells(transfer[g])) row.push_back(cell);
+    table.add_row(row);
   }
+  table.check_against_page();
+  test_support::check_figure_against_page("README.md", "dimer_classical_range",
+                                          fixed(bonding.front().energy_eV, 3) + " → " +
+                                              fixed(bonding.back().energy_eV, 3) + " eV");
 
   // Each gap against the thresholds at its own classical bonding energy.
   std::vector<testing::GapThresholds> th;

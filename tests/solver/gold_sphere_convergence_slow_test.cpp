@@ -1,12 +1,14 @@
 // Convergence of the gold-sphere plasmon peak with the cell size (gold_sphere_run.h): staircased,
 // diagonal average only and whole tensor, against Mie theory (Bohren & Huffman 1983). Asserted:
 // averaged at 10 cells per radius beats the staircase at 20; the whole tensor beats the diagonal at
-// every size, peak extinction within 1 % of Mie. Measured series: docs/measurements.md.
+// every size, peak extinction within 1 % of Mie. Its table of the series is
+// docs/measurements.md's.
 #include <gtest/gtest.h>
 
 #include <cmath>
 
 #include "gold_sphere_run.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -21,11 +23,20 @@ TEST(GoldSphereConvergence, FullTensorAtTenCellsPerRadiusBeatsTheStaircaseAtTwen
     diagonal.push_back(testing::gold_sphere_peak(n, Averaging::diagonal));
     full.push_back(testing::gold_sphere_peak(n, Averaging::full));
   }
-  std::printf("\n R/cell | peak error %%, extinction/Mie:  staircase | diagonal only | full tensor\n");
-  for (std::size_t i = 0; i < resolutions.size(); ++i)
-    std::printf(" %6.1f | %+8.3f %.4f | %+8.3f %.4f | %+8.3f %.4f\n", resolutions[i], 100 * plain[i].wavelength_error(),
-                plain[i].extinction_ratio(), 100 * diagonal[i].wavelength_error(), diagonal[i].extinction_ratio(),
-                100 * full[i].wavelength_error(), full[i].extinction_ratio());
+  test_support::MeasuredTable table("docs/measurements.md", "gold_sphere_peak",
+                                    {"cells per radius", "5", "7.5", "10", "15", "20"});
+  for (const auto& [name, series] :
+       std::vector<std::pair<std::string, const std::vector<testing::SpherePeak>*>>{
+           {"staircase", &plain}, {"diagonal only", &diagonal}, {"whole tensor", &full}}) {
+    std::vector<std::string> peak{name + ": peak"}, height{name + ": height"};
+    for (const auto& p : *series) {
+      peak.push_back(test_support::fixed(100 * p.wavelength_error(), 3, true) + " %");
+      height.push_back(test_support::fixed(p.extinction_ratio(), 3));
+    }
+    table.add_row(peak);
+    table.add_row(height);
+  }
+  table.check_against_page();
   const double averaged_at_10 = std::abs(full[2].wavelength_error()), staircase_at_20 = std::abs(plain[4].wavelength_error());
   std::printf("issue check, averaged error at R/cell 10 (%.3f %%) below staircase at 20 (%.3f %%)\n",
               100 * averaged_at_10, 100 * staircase_at_20);

@@ -12,6 +12,7 @@
 #include "materials/mie_sphere.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -74,6 +75,10 @@ TEST(GoldSphere, PlasmonPeakWavelengthMatchesMieWithin1p5Percent) {
   const auto [mie_peak_l, mie_peak] = parabolic_peak(lambdas, mie);
   std::printf("peak: FDTD %.2f nm, %.4e m^2; Mie %.2f nm, %.4e m^2; extinction ratio %.3f (%ld steps)\n",
               fdtd_peak_l * 1e9, fdtd_peak, mie_peak_l * 1e9, mie_peak, fdtd_peak / mie_peak, r.summary.steps);
+  test_support::check_figure_against_page("README.md", "gold_sphere_staircased",
+                                          test_support::fixed(fdtd_peak_l * 1e9, 1) + " nm vs " +
+                                              test_support::fixed(mie_peak_l * 1e9, 1) + " nm; peak height " +
+                                              test_support::fixed(fdtd_peak / mie_peak, 3) + " of Mie");
   EXPECT_NEAR(fdtd_peak_l / mie_peak_l, 1.0, 0.015);
   // The peak is a real plasmon resonance of the right strength, not a numerical artefact.
   EXPECT_GT(fdtd_peak / mie_peak, 0.8);

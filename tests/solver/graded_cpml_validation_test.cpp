@@ -13,6 +13,7 @@
 #include "solver/engine/mesh_plan.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -88,6 +89,7 @@ TEST(GradedCpml, ZoneBetweenSourceAndProbeReflectsBelowMinus50dB) {
   expect_same_interior(test, ref, 12);
   const double r = worst_reflection_dB(test, ref);
   std::printf("graded, zone inside: worst reflection over 300-900 nm: %.1f dB (%zu cells)\n", r, test.z.size() - 1);
+  test_support::check_figure_against_page("README.md", "graded_cpml_zone_inside", test_support::fixed(r, 1) + " dB");
   EXPECT_LT(r, -50.0);
 }
 
@@ -109,6 +111,8 @@ TEST(GradedCpml, ZoneReachingTheAbsorberThinsItsCellsAndStillAbsorbs) {
   expect_same_interior(test, ref, 12);
   const double r = worst_reflection_dB(test, ref);
   std::printf("graded, zone into the absorber (cells %.3g nm): worst reflection %.1f dB\n", top_cell * 1e9, r);
+  test_support::check_figure_against_page("README.md", "graded_cpml_zone_into_absorber",
+                                          test_support::fixed(r, 1) + " dB");
   EXPECT_LT(r, -50.0);
 }
 

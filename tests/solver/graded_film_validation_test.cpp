@@ -11,6 +11,7 @@
 #include "materials/transfer_matrix.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -81,6 +82,9 @@ TEST(GradedFilm, GoldFilmReflectanceOnAGradedMeshWithinHalfAPercentOfTheUniformF
     worst = std::max(worst, std::abs(rg / ru - 1));
   }
   std::printf("worst |R_graded / R_uniform - 1| = %.2e\n", worst);
+  test_support::check_figure_against_page("README.md", "graded_film_vs_uniform",
+                                        test_support::scientific(worst, 1) + " (" + std::to_string(graded.cells) +
+                                            " cells instead of " + std::to_string(uniform.cells) + ")");
 }
 
 TEST(GradedFilm, AveragingGivesTheFilmItsThicknessWhenItsFacesAreNodes) {
@@ -104,6 +108,10 @@ TEST(GradedFilm, AveragingGivesTheFilmItsThicknessWhenItsFacesAreNodes) {
     worst_off = std::max(worst_off, std::abs(r_off - rm));
   }
   std::printf("worst |R - R_matrix|: averaged %.2e, staircased %.2e\n", worst_on, worst_off);
+  test_support::check_figure_against_page("README.md", "graded_film_averaged",
+                                          "R within " + test_support::scientific(worst_on, 1) +
+                                              " of the transfer matrix (" + test_support::scientific(worst_off, 1) +
+                                              " staircased)");
   EXPECT_LT(worst_on, 0.005);
   EXPECT_GT(worst_off, worst_on);  // the staircase's half-cell thickness error shows
 }

@@ -14,6 +14,7 @@
 #include "materials/transfer_matrix.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -80,7 +81,7 @@ FilmRun run(const materials::PoleSet* gold) {
   return out;
 }
 
-void check_film(const char* library_name) {
+void check_film(const char* library_name, const std::string& figure) {
   const materials::LibraryEntry* entry = materials::find_material(library_name);
   ASSERT_NE(entry, nullptr);
   const FilmRun empty = run(nullptr);
@@ -106,14 +107,19 @@ void check_film(const char* library_name) {
   }
   std::printf("%s: worst |R - R_matrix| = %.2e, |T - T_matrix| = %.2e, |R + T + A - 1| = %.2e\n", library_name,
               worst_r, worst_t, worst_sum);
+  test_support::check_figure_against_page(
+      "README.md", figure,
+      "R within " + test_support::scientific(worst_r, 1) + ", T within " + test_support::scientific(worst_t, 1) +
+          "; R+T+A = 1 within " + test_support::scientific(worst_sum, 1));
 }
 
 TEST(MetalFilm, RakicGoldFilmMatchesTransferMatrixFrom450To900nm) {
-  check_film("Au");  // Rakic et al., Appl. Opt. 37, 5271 (1998)
+  check_film("Au", "metal_film_rakic");  // Rakic et al., Appl. Opt. 37, 5271 (1998)
 }
 
 TEST(MetalFilm, CriticalPointGoldFilmMatchesTransferMatrixFrom450To900nm) {
-  check_film("Au_critical_points");  // Etchegoin, Le Ru, Meyer, J. Chem. Phys. 125, 164705 (2006)
+  // Etchegoin, Le Ru, Meyer, J. Chem. Phys. 125, 164705 (2006).
+  check_film("Au_critical_points", "metal_film_critical_points");
 }
 
 }  // namespace

@@ -12,6 +12,7 @@
 #include "materials/mie_sphere.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -58,6 +59,8 @@ TEST(MieSphere, DielectricSphereScatteringWithin3PercentRms) {
   }
   const double rms = std::sqrt(sum2 / x.omegas.size());
   std::printf("RMS relative error %.2f %% (%ld steps)\n", 100 * rms, r.summary.steps);
+  test_support::check_figure_against_page("README.md", "mie_sphere_rms",
+                                          test_support::fixed(100 * rms, 2) + " % (10 cells/radius)");
   EXPECT_LT(rms, 0.03);
 }
 

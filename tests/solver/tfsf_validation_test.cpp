@@ -9,6 +9,7 @@
 #include "base/constants.h"
 #include "solver/engine/simulation.h"
 #include "test_scenes.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -60,6 +61,7 @@ Leak empty_box(int axis, int sign, Vec3 pol, Component probe_comp, double index 
 TEST(Tfsf, EmptyBoxLeaksLessThanMinus50dBAlongMinusZ) {
   const Leak l = empty_box(2, -1, {1, 0, 0}, Component::Ex);
   std::printf("plane wave along -z, E along x: scattered region %.1f dB, inside peak %.4f V/m\n", l.outside_dB, l.inside_peak);
+  test_support::check_figure_against_page("README.md", "tfsf_leak_minus_z", test_support::fixed(l.outside_dB, 0) + " dB");
   EXPECT_LT(l.outside_dB, -50.0);
   // The incident pulse A s(t) peaks near A = 1 V/m (s is a Gaussian-modulated sine, |s| < 1).
   EXPECT_GT(l.inside_peak, 0.9);
@@ -69,6 +71,7 @@ TEST(Tfsf, EmptyBoxLeaksLessThanMinus50dBAlongMinusZ) {
 TEST(Tfsf, EmptyBoxLeaksLessThanMinus50dBAlongPlusXWithObliquePolarization) {
   const Leak l = empty_box(0, +1, {0, 0.6, 0.8}, Component::Ez);
   std::printf("plane wave along +x, E along (0, 0.6, 0.8): scattered region %.1f dB\n", l.outside_dB);
+  test_support::check_figure_against_page("README.md", "tfsf_leak_oblique", test_support::fixed(l.outside_dB, 0) + " dB");
   EXPECT_LT(l.outside_dB, -50.0);
   EXPECT_GT(l.inside_peak, 0.8 * 0.9);
 }
@@ -79,6 +82,7 @@ TEST(Tfsf, EmptyBoxInAConstantIndexBackgroundLeaksLessThanMinus50dB) {
   const Leak l = empty_box(2, +1, {0, 1, 0}, Component::Ey, 1.333);
   std::printf("plane wave along +z in n = 1.333: scattered region %.1f dB, inside peak %.4f V/m\n", l.outside_dB,
               l.inside_peak);
+  test_support::check_figure_against_page("README.md", "tfsf_leak_water", test_support::fixed(l.outside_dB, 0) + " dB");
   EXPECT_LT(l.outside_dB, -50.0);
   EXPECT_GT(l.inside_peak, 0.9);
   EXPECT_LT(l.inside_peak, 1.0 + 1e-3);
