@@ -74,6 +74,17 @@ TEST(DrudeDimerGapSeries, ClassicalRedshiftsQuantumCorrectedSaturatesAndOpensACh
                 gaps[g] / nm, th[g].weakening / nm, testing::height_bound(gaps[g]), th[g].lossy / nm,
                 th[g].conducting / nm);
   }
+  auto span = [&](double testing::GapThresholds::*member) {
+    double low = 1e300, high = 0;
+    for (const auto& t : th) low = std::min(low, t.*member / nm), high = std::max(high, t.*member / nm);
+    return fixed(low, 3) == fixed(high, 3) ? fixed(low, 3) : fixed(low, 3) + "–" + fixed(high, 3);
+  };
+  test_support::check_figure_against_page(
+      "docs/gaps.md", "dimer_thresholds",
+      "weakening " + span(&testing::GapThresholds::weakening) + " nm; lossy " + span(&testing::GapThresholds::lossy) +
+          " nm; conducting " + span(&testing::GapThresholds::conducting) + " nm. Height bound γ_p/(γ_p + ω_p²/γ_g): " +
+          fixed(testing::height_bound(0.5 * nm), 3) + " at 0.5 nm, " + fixed(testing::height_bound(0.3 * nm), 3) +
+          " at 0.3 nm");
   // The series reaches every regime.
   ASSERT_GT(gaps.front(), th.front().weakening);
   ASSERT_LT(gaps.back(), th.back().conducting);

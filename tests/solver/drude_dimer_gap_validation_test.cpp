@@ -7,6 +7,7 @@
 #include <future>
 
 #include "drude_dimer_2d.h"
+#include "measured_table.h"
 
 namespace yeegap::solver {
 namespace {
@@ -89,6 +90,16 @@ TEST(DrudeDimerGap, ConductingGapReplacesTheBondingPeakByAChargeTransferPeak) {
   const Peak t_wide = testing::charge_transfer_peak(q_wide, c_wide, b_wide);
   std::printf("charge-transfer peak at 0.15 nm: %.3f eV, %.2f nm (%.3f of the classical bonding peak)\n",
               t_narrow.energy_eV, t_narrow.height / nm, t_narrow.height / b_narrow.height);
+  using test_support::fixed;
+  test_support::check_figure_against_page(
+      "docs/gaps.md", "dimer_cheap_check",
+      "classical bonding peak " + fixed(b_wide.energy_eV, 3) + " eV at 0.5 nm (quasi-static " + fixed(e_wide, 3) +
+          ") and " + fixed(b_narrow.energy_eV, 3) + " eV at 0.15 nm (" + fixed(e_narrow, 3) +
+          "); quantum-corrected at 0.5 nm " + fixed(q_b_wide.height / b_wide.height, 3) +
+          " of the classical height (bound " + fixed(testing::height_bound(wide), 3) + "); at 0.15 nm at most " +
+          fixed(ratio, 3) + " of it within 0.15 eV of the classical peak; charge-transfer peak at " +
+          fixed(t_narrow.energy_eV, 3) + " eV, " + fixed(t_narrow.height / nm, 2) + " nm (" +
+          fixed(t_narrow.height / b_narrow.height, 3) + " of the classical bonding peak)");
   EXPECT_GT(t_narrow.height, 0) << "no charge-transfer peak at 0.15 nm";
   EXPECT_EQ(t_wide.height, 0) << "a charge-transfer peak at 0.5 nm, " << t_wide.energy_eV << " eV";
 }
