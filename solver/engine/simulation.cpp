@@ -18,6 +18,10 @@
 #include "solver/engine/placement_notes.h"
 #include "solver/engine/growth_watch.h"
 #include "solver/engine/time_loop.h"
+#include "solver/outputs/cross_sections.h"
+#include "solver/outputs/decay_rate.h"
+#include "solver/outputs/far_field.h"
+#include "solver/outputs/recorders.h"
 
 namespace yeegap::solver {
 
@@ -29,12 +33,7 @@ namespace {
 struct Parts {
   std::vector<DipoleSource> dipoles;
   std::vector<PlaneWaveSource> plane_waves;
-  std::vector<ProbeRecorder> probes;
-  std::vector<FieldMapRecorder> maps;
-  std::vector<FluxRecorder> fluxes;
-  std::vector<CrossSectionRecorder> cross;
-  std::vector<FarFieldRecorder> far;
-  std::vector<DecayRateRecorder> decay;
+  std::vector<std::unique_ptr<Recorder>> recorders;
 };
 
 Parts build_parts(const Scene& s, const Grid& g, const BlockLayout& L, const CurlCoefficients& curls,
@@ -42,12 +41,14 @@ Parts build_parts(const Scene& s, const Grid& g, const BlockLayout& L, const Cur
   Parts p;
   for (const auto& d : s.dipoles) p.dipoles.emplace_back(d, g, L, s.domain.edges);
   for (const auto& w : s.plane_waves) p.plane_waves.emplace_back(w, s, g, L, curls, ec, mi, dt);
-  for (const auto& x : s.probes) p.probes.emplace_back(x, g, L);
-  for (const auto& m : s.field_maps) p.maps.emplace_back(m, g, L);
-  for (const auto& f : s.fluxes) p.fluxes.emplace_back(f, g, L);
-  for (const auto& c : s.cross_sections) p.cross.emplace_back(c, s, g, L);
-  for (const auto& f : s.far_fields) p.far.emplace_back(f, s, g, L, mi);
-  for (const auto& d : s.decay_rates) p.decay.emplace_back(d, s, g, L, mi);
+  // Decay rates last: their results read the fluxes and far fields.
+  auto& r = p.recorders;
+  for (const auto& x : s.probes) r.push_back(std::make_unique<ProbeRecorder>(x, g, L));
+  for (const auto& m : s.field_maps) r.push_back(std::make_unique<FieldMapRecorder>(m, g, L));
+  for (const auto& f : s.fluxes) r.push_back(std::make_unique<FluxRecorder>(f, g, L));
+  for (const auto& c : s.cross_sections) r.push_back(std::make_unique<CrossSectionRecorder>(c, s, g, L));
+  for (const auto& f : s.far_fields) r.push_back(std::make_unique<FarFieldRecorder>(f, s, g, L, mi));
+  for (const auto& d : s.decay_rates) r.push_back(std::make_unique<DecayRateRecorder>(d, s, g, L, mi));
   return p;
 }
 
@@ -224,22 +225,24 @@ Simulation::Simulation(const Scene& scene)
   Parts parts = build_parts(scene_, grid_, fields_.layout, curls_, ecoef_, mindex_, dt_);
   dipoles_ = std::move(parts.dipoles);
   plane_waves_ = std::move(parts.plane_waves);
-  probes_ = std::move(parts.probes);
-  maps_ = std::move(parts.maps);
-  fluxes_ = std::move(parts.fluxes);
-  cross_ = std::move(parts.cross);
-  far_ = std::move(parts.far);
-  decay_ = std::move(parts.decay);
+  recorders_ = std::move(parts.recorders);
+  plan_spectra();
+}
+
+void Simulation::plan_spectra() {
   std::set<double> omegas;
-  for (const auto& m : scene_.field_maps) omegas.insert(m.omegas.begin(), m.omegas.end());
-  for (const auto& f : scene_.fluxes) omegas.insert(f.omegas.begin(), f.omegas.end());
-  for (const auto& c : scene_.cross_sections) omegas.insert(c.omegas.begin(), c.omegas.end());
-  for (const auto& f : far_) omegas.insert(f.result_omegas().begin(), f.result_omegas().end());
-  for (const auto& d : decay_) omegas.insert(d.result_omegas().begin(), d.result_omegas().end());
+  for_each_recorder([&](const Recorder& r) { omegas.insert(r.result_omegas().begin(), r.result_omegas().end()); });
   all_omegas_.assign(omegas.begin(), omegas.end());
   dft_stride_ = dft_stride(scene_, all_omegas_, dt_);
   source_dft_.assign(dipoles_.size(), std::vector<Complex>(all_omegas_.size()));
   incident_dft_.assign(plane_waves_.size(), std::vector<Complex>(all_omegas_.size()));
+}
+
+Recorder& Simulation::add_recorder(std::unique_ptr<Recorder> r) {
+  YG_CHECK(n_ == 0, "outputs are added before the first step");
+  run_recorders_.push_back(std::move(r));
+  plan_spectra();
+  return *run_recorders_.back();
 }
 
 Simulation::~Simulation() = default;
@@ -348,11 +351,7 @@ ModelSummary Simulation::summary() const {
   bytes += dispersive_->memory_bytes();
   if (subcell_) bytes += subcell_->memory_bytes();
   m.mixed_cells = subcell_ ? static_cast<long long>(subcell_->size()) : 0;
-  for (const auto& r : maps_) bytes += r.memory_bytes();
-  for (const auto& r : fluxes_) bytes += r.memory_bytes();
-  for (const auto& r : cross_) bytes += r.memory_bytes();
-  for (const auto& r : far_) bytes += r.memory_bytes();
-  for (const auto& r : decay_) bytes += r.memory_bytes();
+  for_each_recorder([&](const Recorder& r) { bytes += r.memory_bytes(); });
   m.memory_bytes = bytes;
   return m;
 }
@@ -418,13 +417,8 @@ void Simulation::step_h() {
       const double il = dipoles_[d].current_moment(t_h);
       for (std::size_t q = 0; q < phase.size(); ++q) source_dft_[d][q] += il * phase[q];
     }
-    for (auto& m : maps_) m.record(fields_, false, dft_phases(m.result_omegas(), t_h, dft_dt));
-    for (auto& f : fluxes_) f.record(fields_, false, dft_phases(f.result_omegas(), t_h, dft_dt));
-    for (auto& c : cross_) c.record(fields_, false, dft_phases(c.result_omegas(), t_h, dft_dt));
-    for (auto& f : far_) f.record(fields_, false, dft_phases(f.result_omegas(), t_h, dft_dt));
-    for (auto& d : decay_) d.record(fields_, false, dft_phases(d.result_omegas(), t_h, dft_dt));
   }
-  for (auto& p : probes_) p.record(fields_, false, t_h);
+  for_each_recorder([&](Recorder& r) { r.sample(fields_, false, {t_h, dft_now, dft_dt}); });
 }
 
 void Simulation::step_e() {
@@ -450,13 +444,8 @@ void Simulation::step_e() {
         for (std::size_t q = 0; q < phase.size(); ++q) incident_dft_[w][q] += e * phase[q];
       }
     }
-    for (auto& m : maps_) m.record(fields_, true, dft_phases(m.result_omegas(), t_e, dft_dt));
-    for (auto& f : fluxes_) f.record(fields_, true, dft_phases(f.result_omegas(), t_e, dft_dt));
-    for (auto& c : cross_) c.record(fields_, true, dft_phases(c.result_omegas(), t_e, dft_dt));
-    for (auto& f : far_) f.record(fields_, true, dft_phases(f.result_omegas(), t_e, dft_dt));
-    for (auto& d : decay_) d.record(fields_, true, dft_phases(d.result_omegas(), t_e, dft_dt));
   }
-  for (auto& p : probes_) p.record(fields_, true, t_e);
+  for_each_recorder([&](Recorder& r) { r.sample(fields_, true, {t_e, dft_now, dft_dt}); });
   ++n_;
 }
 
@@ -569,22 +558,10 @@ RunResults Simulation::results(const Simulation* imaginary) const {
   r.source_spectra = source_dft_;
   r.incident_spectra = incident_dft_;
   r.tunnelling_gaps = tunnelling_gaps_;
-  for (const auto& p : probes_) r.probes.push_back(p.result());
-  std::array<double, 3> phases{};
-  for (int a = 0; a < 3; ++a) phases[a] = imaginary ? bloch_phase(grid_, scene_.domain, a) : 0.0;
-  for (std::size_t i = 0; i < maps_.size(); ++i)
-    r.field_maps.push_back(maps_[i].result(imaginary ? &imaginary->maps_[i] : nullptr, phases));
-  for (std::size_t i = 0; i < fluxes_.size(); ++i) r.fluxes.push_back(fluxes_[i].result(imaginary ? &imaginary->fluxes_[i] : nullptr));
-  for (const auto& c : cross_) {
-    std::vector<Complex> incident;
-    for (double w : c.result_omegas()) {
-      const auto at = std::lower_bound(all_omegas_.begin(), all_omegas_.end(), w);
-      incident.push_back(incident_dft_[c.plane_wave()][at - all_omegas_.begin()]);
-    }
-    r.cross_sections.push_back(c.result(incident));
-  }
-  for (const auto& f : far_) r.far_fields.push_back(f.result());
-  for (const auto& d : decay_) r.decay_rates.push_back(d.result(r));  // after the far fields and fluxes it reads
+  ResultInputs in{all_omegas_, incident_dft_, {}};
+  for (int a = 0; a < 3; ++a) in.bloch_phases[a] = imaginary ? bloch_phase(grid_, scene_.domain, a) : 0.0;
+  for (std::size_t i = 0; i < recorders_.size(); ++i)
+    recorders_[i]->add_result(r, in, imaginary ? imaginary->recorders_.at(i).get() : nullptr);
   return r;
 }
 

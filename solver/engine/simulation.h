@@ -10,15 +10,12 @@
 #include <vector>
 
 #include "solver/engine/cpml.h"
-#include "solver/outputs/cross_sections.h"
-#include "solver/outputs/decay_rate.h"
 #include "solver/sources/dipole_source.h"
 #include "solver/media/dispersive.h"
-#include "solver/outputs/far_field.h"
 #include "solver/engine/fields.h"
 #include "solver/media/tunnelling_cells.h"
 #include "solver/engine/grid.h"
-#include "solver/outputs/recorders.h"
+#include "solver/outputs/recorder.h"
 #include "solver/results.h"
 #include "solver/scene.h"
 #include "solver/engine/simulation_state.h"
@@ -84,6 +81,9 @@ class Simulation : public Checkpointable {
   void step_e();
   /// Adds work done after each half step's sources (see stage.h); the run shares ownership.
   void add_stage(std::shared_ptr<Stage> s) { stages_.push_back(std::move(s)); }
+  /// Adds an output that the caller reads itself (a Bloch run's own planes): sampled, counted and
+  /// checkpointed like the scene's outputs, but left out of results(). Before the first step.
+  Recorder& add_recorder(std::unique_ptr<Recorder> r);
   /// Runs until the stop rule holds; `progress` is called about twice a second. `between_steps`,
   /// if given, is called after every step that the stop rule lets pass (a checkpoint may be taken
   /// there); returning true ends the run at once with stop reason "interrupted", leaving the
@@ -125,6 +125,16 @@ class Simulation : public Checkpointable {
 
  private:
   void fill_periodic_halos(bool electric);
+  /// The source spectra's frequencies (every output's), their DFT stride and accumulators.
+  void plan_spectra();
+  template <class F> void for_each_recorder(F&& f) {
+    for (auto& r : recorders_) f(*r);
+    for (auto& r : run_recorders_) f(*r);
+  }
+  template <class F> void for_each_recorder(F&& f) const {
+    for (const auto& r : recorders_) f(*r);
+    for (const auto& r : run_recorders_) f(*r);
+  }
   double sources_end_time() const;
 
   Scene scene_;
@@ -140,12 +150,8 @@ class Simulation : public Checkpointable {
   std::vector<TunnellingGap> tunnelling_gaps_;
   std::vector<DipoleSource> dipoles_;
   std::vector<PlaneWaveSource> plane_waves_;
-  std::vector<ProbeRecorder> probes_;
-  std::vector<FieldMapRecorder> maps_;
-  std::vector<FluxRecorder> fluxes_;
-  std::vector<CrossSectionRecorder> cross_;
-  std::vector<FarFieldRecorder> far_;
-  std::vector<DecayRateRecorder> decay_;
+  std::vector<std::unique_ptr<Recorder>> recorders_;      // the scene's outputs, in the order results are made
+  std::vector<std::unique_ptr<Recorder>> run_recorders_;  // outputs of the run itself (add_recorder)
   std::vector<std::shared_ptr<Stage>> stages_;
   std::vector<double> all_omegas_;                 // union of output frequencies, for source spectra
   std::vector<std::vector<Complex>> source_dft_;   // per dipole

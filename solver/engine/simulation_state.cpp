@@ -4,6 +4,8 @@
 // output bit for bit, so it would notice).
 #include "solver/engine/simulation_state.h"
 
+#include <map>
+
 #include <fmt/format.h>
 
 #include "base/errors.h"
@@ -42,8 +44,7 @@ void Simulation::restore_counters(const StateCounters& c) {
   last_energy_ = c.last_energy;
   wall_seconds_ = c.wall_seconds;
   stop_reason_.clear();
-  // A probe records one sample per component and one time per step.
-  for (auto& p : probes_) p.resize(static_cast<std::size_t>(n_));
+  for_each_recorder([&](Recorder& r) { r.prepare_resume(n_); });
 }
 
 StateArrays Simulation::state_arrays() {
@@ -58,12 +59,8 @@ StateArrays Simulation::state_arrays() {
   for (std::size_t i = 0; i < source_dft_.size(); ++i) s.add_vector(fmt::format("spectra/dipole{}", i), source_dft_[i]);
   for (std::size_t i = 0; i < incident_dft_.size(); ++i)
     s.add_vector(fmt::format("spectra/plane_wave{}", i), incident_dft_[i]);
-  for (std::size_t i = 0; i < probes_.size(); ++i) probes_[i].add_state(s, fmt::format("probe{}", i));
-  for (std::size_t i = 0; i < maps_.size(); ++i) maps_[i].add_state(s, fmt::format("field_map{}", i));
-  for (std::size_t i = 0; i < fluxes_.size(); ++i) fluxes_[i].add_state(s, fmt::format("flux{}", i));
-  for (std::size_t i = 0; i < cross_.size(); ++i) cross_[i].add_state(s, fmt::format("cross_sections{}", i));
-  for (std::size_t i = 0; i < far_.size(); ++i) far_[i].add_state(s, fmt::format("far_field{}", i));
-  for (std::size_t i = 0; i < decay_.size(); ++i) decay_[i].add_state(s, fmt::format("decay_rate{}", i));
+  std::map<std::string, int> of_kind;  // "flux" -> how many fluxes are saved already
+  for_each_recorder([&](Recorder& r) { r.add_state(s, fmt::format("{}{}", r.state_kind(), of_kind[r.state_kind()]++)); });
   return s;
 }
 

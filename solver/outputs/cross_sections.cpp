@@ -1,6 +1,8 @@
 // Cross-section recorder (see cross_sections.h).
 #include "solver/outputs/cross_sections.h"
 
+#include <algorithm>
+
 #include <cmath>
 
 #include <fmt/format.h>
@@ -55,6 +57,15 @@ CrossSectionRecorder::CrossSectionRecorder(const CrossSectionSpec& spec, const S
 void CrossSectionRecorder::record(const Fields& f, bool electric, const std::vector<Complex>& phase) {
   inner_->record(f, electric, phase);
   outer_->record(f, electric, phase);
+}
+
+void CrossSectionRecorder::add_result(RunResults& r, const ResultInputs& in, const Recorder*) const {
+  std::vector<Complex> incident;
+  for (double w : spec_.omegas) {
+    const auto at = std::lower_bound(in.all_omegas.begin(), in.all_omegas.end(), w);
+    incident.push_back(in.incident_dft.at(spec_.plane_wave)[at - in.all_omegas.begin()]);
+  }
+  r.cross_sections.push_back(result(incident));
 }
 
 CrossSectionResult CrossSectionRecorder::result(const std::vector<Complex>& incident) const {

@@ -10,19 +10,26 @@
 
 namespace yeegap::solver {
 
-class CrossSectionRecorder {
+class CrossSectionRecorder : public Recorder {
  public:
   CrossSectionRecorder(const CrossSectionSpec& spec, const Scene& scene, const Grid& g, const BlockLayout& L);
   void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
   /// `incident` is the DFT of the incident E at this recorder's frequencies.
   CrossSectionResult result(const std::vector<Complex>& incident) const;
-  const std::vector<double>& result_omegas() const { return spec_.omegas; }
   int plane_wave() const { return spec_.plane_wave; }
-  std::size_t memory_bytes() const { return inner_->memory_bytes() + outer_->memory_bytes(); }
-  void add_state(StateArrays& s, const std::string& prefix) {
+
+  void sample(const Fields& f, bool electric, const SampleTime& when) override {
+    if (when.dft_now) record(f, electric, dft_phases(spec_.omegas, when.t, when.dft_dt));
+  }
+  const std::vector<double>& result_omegas() const override { return spec_.omegas; }
+  std::size_t memory_bytes() const override { return inner_->memory_bytes() + outer_->memory_bytes(); }
+  const char* state_kind() const override { return "cross_sections"; }
+  void add_state(StateArrays& s, const std::string& prefix) override {
     inner_->add_state(s, prefix + "/inner");
     outer_->add_state(s, prefix + "/outer");
   }
+  /// The incident spectrum of its plane wave, picked out of the run's at these frequencies.
+  void add_result(RunResults& r, const ResultInputs& in, const Recorder* twin) const override;
 
  private:
   CrossSectionSpec spec_;

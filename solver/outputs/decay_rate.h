@@ -13,7 +13,7 @@
 
 namespace yeegap::solver {
 
-class DecayRateRecorder {
+class DecayRateRecorder : public Recorder {
  public:
   /// Refuses (RunError) a 2D domain, a missing dipole or `radiated` output, frequencies that output
   /// does not record, and a box that leaves the domain's free cells or holds more than one medium
@@ -23,10 +23,19 @@ class DecayRateRecorder {
   void record(const Fields& f, bool electric, const std::vector<Complex>& phase) { box_->record(f, electric, phase); }
   /// Needs `r` to hold the source spectra and the far fields and fluxes already.
   DecayRateResult result(const RunResults& r) const;
-  std::size_t memory_bytes() const { return box_->memory_bytes(); }
-  void add_state(StateArrays& s, const std::string& prefix) { box_->add_state(s, prefix + "/box"); }
+
+  void sample(const Fields& f, bool electric, const SampleTime& when) override {
+    if (when.dft_now) record(f, electric, dft_phases(omegas_, when.t, when.dft_dt));
+  }
   /// The frequencies: the scene's, or those of the `radiated` output when the scene lists none.
-  const std::vector<double>& result_omegas() const { return omegas_; }
+  const std::vector<double>& result_omegas() const override { return omegas_; }
+  std::size_t memory_bytes() const override { return box_->memory_bytes(); }
+  const char* state_kind() const override { return "decay_rate"; }
+  void add_state(StateArrays& s, const std::string& prefix) override { box_->add_state(s, prefix + "/box"); }
+  /// Listed after the far fields and fluxes it reads, so they are in `r` already.
+  void add_result(RunResults& r, const ResultInputs&, const Recorder*) const override {
+    r.decay_rates.push_back(result(r));
+  }
 
  private:
   DecayRateSpec spec_;

@@ -8,13 +8,14 @@
 #include <vector>
 
 #include "solver/outputs/dft_box.h"
+#include "solver/outputs/recorder.h"
 #include "solver/engine/grid.h"
 #include "solver/results.h"
 #include "solver/engine/yee_kernels.h"
 
 namespace yeegap::solver {
 
-class FarFieldRecorder {
+class FarFieldRecorder : public Recorder {
  public:
   /// Refuses (RunError) what the transform cannot handle: an invariant axis (2D), a face of the
   /// domain that is not an absorber, a dispersive, lossy or conducting background, a box that
@@ -25,10 +26,18 @@ class FarFieldRecorder {
   void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
   /// The transform itself; costs (surface points) x (directions) per frequency, so call it once.
   FarFieldResult result() const;
-  std::size_t memory_bytes() const;
-  const std::vector<double>& result_omegas() const { return spec_.omegas; }
   const std::string& name() const { return spec_.name; }
-  void add_state(StateArrays& s, const std::string& prefix);
+
+  void sample(const Fields& f, bool electric, const SampleTime& when) override {
+    if (when.dft_now) record(f, electric, dft_phases(spec_.omegas, when.t, when.dft_dt));
+  }
+  const std::vector<double>& result_omegas() const override { return spec_.omegas; }
+  std::size_t memory_bytes() const override;
+  const char* state_kind() const override { return "far_field"; }
+  void add_state(StateArrays& s, const std::string& prefix) override;
+  void add_result(RunResults& r, const ResultInputs&, const Recorder*) const override {
+    r.far_fields.push_back(result());
+  }
 
  private:
   // Points of one face come in two sets, each holding an E and an H component at the same place

@@ -8,31 +8,39 @@
 #include <vector>
 
 #include "solver/outputs/dft_box.h"
+#include "solver/outputs/recorder.h"
 #include "solver/engine/grid.h"
 #include "solver/results.h"
 
 namespace yeegap::solver {
 
-class StateArrays;  // simulation_state.h
-
 /// Node index range [first, last] covered by [lo, hi] on axis a (the whole axis if invariant).
 std::array<int, 2> node_range(const Grid& g, int a, double lo, double hi);
 
-class ProbeRecorder {
+class ProbeRecorder : public Recorder {
  public:
   ProbeRecorder(const ProbeSpec& spec, const Grid& g, const BlockLayout& L);
   void record(const Fields& f, bool electric, double t);
   ProbeResult result() const { return result_; }
   /// Sizes the series for `samples` steps (before a checkpoint is read into them).
   void resize(std::size_t samples);
-  void add_state(StateArrays& s, const std::string& prefix);
+
+  void sample(const Fields& f, bool electric, const SampleTime& when) override { record(f, electric, when.t); }
+  const std::vector<double>& result_omegas() const override { return no_omegas_; }
+  /// Nothing when built: the series grow as the run goes.
+  std::size_t memory_bytes() const override { return 0; }
+  const char* state_kind() const override { return "probe"; }
+  void add_state(StateArrays& s, const std::string& prefix) override;
+  void prepare_resume(long steps) override { resize(static_cast<std::size_t>(steps)); }
+  void add_result(RunResults& r, const ResultInputs&, const Recorder*) const override { r.probes.push_back(result_); }
 
  private:
   std::vector<std::ptrdiff_t> offsets_;
   ProbeResult result_;
+  std::vector<double> no_omegas_;
 };
 
-class FieldMapRecorder {
+class FieldMapRecorder : public Recorder {
  public:
   FieldMapRecorder(const FieldMapSpec& spec, const Grid& g, const BlockLayout& L);
   void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
@@ -41,9 +49,17 @@ class FieldMapRecorder {
   /// the half-cell below node 0 that interpolation reads) is the stored value times
   /// exp(i m bloch_phase[a]), m the periods it was wrapped by (bloch_halos.h).
   FieldMapResult result(const FieldMapRecorder* imaginary = nullptr, const std::array<double, 3>& bloch_phase = {}) const;
-  std::size_t memory_bytes() const;
-  const std::vector<double>& result_omegas() const { return spec_.omegas; }
-  void add_state(StateArrays& s, const std::string& prefix);
+
+  void sample(const Fields& f, bool electric, const SampleTime& when) override {
+    if (when.dft_now) record(f, electric, dft_phases(spec_.omegas, when.t, when.dft_dt));
+  }
+  const std::vector<double>& result_omegas() const override { return spec_.omegas; }
+  std::size_t memory_bytes() const override;
+  const char* state_kind() const override { return "field_map"; }
+  void add_state(StateArrays& s, const std::string& prefix) override;
+  void add_result(RunResults& r, const ResultInputs& in, const Recorder* twin) const override {
+    r.field_maps.push_back(result(static_cast<const FieldMapRecorder*>(twin), in.bloch_phases));
+  }
 
  private:
   FieldMapSpec spec_;
@@ -54,16 +70,24 @@ class FieldMapRecorder {
   std::vector<double> x_, y_, z_;
 };
 
-class FluxRecorder {
+class FluxRecorder : public Recorder {
  public:
   FluxRecorder(const FluxSpec& spec, const Grid& g, const BlockLayout& L);
   void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
   /// With `imaginary` (the same surface in the imaginary part of a Bloch run) the power is that of
   /// the complex field E = E_re + i E_im, H likewise.
   FluxResult result(const FluxRecorder* imaginary = nullptr) const;
-  std::size_t memory_bytes() const;
-  const std::vector<double>& result_omegas() const { return spec_.omegas; }
-  void add_state(StateArrays& s, const std::string& prefix);
+
+  void sample(const Fields& f, bool electric, const SampleTime& when) override {
+    if (when.dft_now) record(f, electric, dft_phases(spec_.omegas, when.t, when.dft_dt));
+  }
+  const std::vector<double>& result_omegas() const override { return spec_.omegas; }
+  std::size_t memory_bytes() const override;
+  const char* state_kind() const override { return "flux"; }
+  void add_state(StateArrays& s, const std::string& prefix) override;
+  void add_result(RunResults& r, const ResultInputs&, const Recorder* twin) const override {
+    r.fluxes.push_back(result(static_cast<const FluxRecorder*>(twin)));
+  }
 
  private:
   struct Face {

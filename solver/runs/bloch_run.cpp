@@ -220,6 +220,26 @@ FieldMapSpec order_map(const char* name, const Grid& g, const BlochWavePlan& p, 
   return m;
 }
 
+// The run's own outputs on the reflected and transmitted planes: the power through each, and the
+// tangential fields the diffraction orders are computed from. Parts of the run, not of the scene.
+struct WaveOutputs {
+  std::vector<FluxSpec> planes;          // reflected, transmitted
+  std::vector<FieldMapSpec> order_maps;  // reflected, and transmitted where that medium is lossless
+};
+
+WaveOutputs wave_outputs(const Scene& s, const Grid& g, const BlochWavePlan& p) {
+  const BlochWaveSpec& w = s.bloch_waves.front();
+  WaveOutputs o;
+  o.planes = {plane_at("reflected", g, p.axis, p.reflected, w.omegas),
+              plane_at("transmitted", g, p.axis, p.transmitted, w.omegas)};
+  if (!s.orders.empty()) {
+    o.order_maps.push_back(order_map(orders_reflected_map, g, p, p.reflected, w.omegas));
+    if (orders_transmitted_index(s, g, p) > 0)
+      o.order_maps.push_back(order_map(orders_transmitted_map, g, p, p.transmitted, w.omegas));
+  }
+  return o;
+}
+
 }  // namespace
 
 Scene BlochRun::prepare(const Scene& original) {
@@ -237,14 +257,8 @@ Scene BlochRun::prepare(const Scene& original) {
     if (s.domain.cpml.alpha_max == 0)  // the CFS shift Simulation derives from its own sources
       s.domain.cpml.alpha_max = 0.1 * (w.waveform.omega_min > 0 ? w.waveform.omega_min : w.waveform.omega_max) *
                                     constants::eps0;
-    s.fluxes.push_back(plane_at("reflected", g, p.axis, p.reflected, w.omegas));
-    s.fluxes.push_back(plane_at("transmitted", g, p.axis, p.transmitted, w.omegas));
     if (s.orders.size() > 1) throw RunError(fmt::format("{}: at most one orders output", s.orders[1].where.location()));
-    if (!s.orders.empty()) {  // after the user's maps, as the fluxes
-      s.field_maps.push_back(order_map(orders_reflected_map, g, p, p.reflected, w.omegas));
-      if (orders_transmitted_index(s, g, p) > 0)
-        s.field_maps.push_back(order_map(orders_transmitted_map, g, p, p.transmitted, w.omegas));
-    }
+    if (!s.orders.empty()) orders_transmitted_index(s, g, p);  // refuses planes the structure reaches
   } else if (!s.orders.empty()) {
     throw RunError(fmt::format("{}: diffraction orders need a plane_wave", s.orders.front().where.location()));
   }
@@ -277,14 +291,20 @@ BlochRun::BlochRun(const Scene& scene) : scene_(prepare(scene)) {
   const BlochWaveSpec& w = scene_.bloch_waves.front();
   const Grid& g = re_->grid();
   plan_ = plan_bloch_wave(w, scene_, g);
-  user_fluxes_ = scene_.fluxes.size() - 2;
-  user_maps_ = scene_.field_maps.size();
-  if (!scene_.orders.empty()) {
-    orders_index_ = orders_transmitted_index(scene_, g, plan_);
-    user_maps_ -= orders_index_ > 0 ? 2 : 1;
+  if (!scene_.orders.empty()) orders_index_ = orders_transmitted_index(scene_, g, plan_);
+  const WaveOutputs own = wave_outputs(scene_, g, plan_);
+  plane_specs_ = own.planes;
+  for (int part = 0; part < (complex ? 2 : 1); ++part) {
+    Simulation& m = part == 0 ? *re_ : *im_;
+    for (const FluxSpec& f : own.planes)
+      planes_[part].push_back(&static_cast<FluxRecorder&>(
+          m.add_recorder(std::make_unique<FluxRecorder>(f, m.grid(), m.fields().layout))));
+    for (const FieldMapSpec& o : own.order_maps)
+      order_maps_[part].push_back(&static_cast<FieldMapRecorder&>(
+          m.add_recorder(std::make_unique<FieldMapRecorder>(o, m.grid(), m.fields().layout))));
   }
   std::set<double> omegas(w.omegas.begin(), w.omegas.end());
-  for (std::size_t i = 0; i < user_fluxes_; ++i) omegas.insert(scene_.fluxes[i].omegas.begin(), scene_.fluxes[i].omegas.end());
+  for (const FluxSpec& f : scene_.fluxes) omegas.insert(f.omegas.begin(), f.omegas.end());
   const Scene inc = incident_scene(scene_, g, plan_, {omegas.begin(), omegas.end()}, re_->dt());
   inc_re_ = std::make_unique<Simulation>(inc);
   if (complex) inc_im_ = std::make_unique<Simulation>(inc);
@@ -369,16 +389,16 @@ RunResults BlochRun::results() const {
     YG_CHECK(it != inc.omegas.end(), "the incident problem records every output frequency");
     return plan_.sign * inc.power[it - inc.omegas.begin()] / inc_area;
   };
-  for (std::size_t i = 0; i < user_fluxes_; ++i) {
+  for (std::size_t i = 0; i < r.fluxes.size(); ++i) {
     FluxResult& f = r.fluxes[i];
     if (f.closed || f.normal_axis != plan_.axis) continue;
     const double area = plane_area(g, scene_.fluxes[i], plan_.axis);
     for (std::size_t q = 0; q < f.omegas.size(); ++q)
       f.fraction.push_back(plan_.sign * f.power[q] / (intensity(f.omegas[q]) * area));
   }
-  const FluxResult& refl = r.fluxes[user_fluxes_];
-  const FluxResult& trans = r.fluxes[user_fluxes_ + 1];
-  const double area = plane_area(g, scene_.fluxes[user_fluxes_], plan_.axis);
+  const FluxResult refl = planes_[0][0]->result(im_ ? planes_[1][0] : nullptr);
+  const FluxResult trans = planes_[0][1]->result(im_ ? planes_[1][1] : nullptr);
+  const double area = plane_area(g, plane_specs_[0], plan_.axis);
   ReflectanceResult out;
   out.name = "plane_wave";
   out.p_polarized = w.p_polarized;
@@ -395,14 +415,12 @@ RunResults BlochRun::results() const {
     out.transmittance.push_back(T);
     out.absorptance.push_back(1 - R - T);
   }
-  if (!scene_.orders.empty()) r.orders.push_back(orders(r, intensity));
+  if (!scene_.orders.empty()) r.orders.push_back(orders(intensity));
   r.reflectance.push_back(std::move(out));
-  r.fluxes.resize(user_fluxes_);
-  r.field_maps.resize(user_maps_);
   return r;
 }
 
-DiffractionOrdersResult BlochRun::orders(const RunResults& r, const std::function<double(double)>& intensity) const {
+DiffractionOrdersResult BlochRun::orders(const std::function<double(double)>& intensity) const {
   const Grid& g = re_->grid();
   const BlochWaveSpec& w = scene_.bloch_waves.front();
   OrderLattice lattice;
@@ -422,7 +440,12 @@ DiffractionOrdersResult BlochRun::orders(const RunResults& r, const std::functio
   out.transmitted_index = orders_index_;
   const double k = norm(plan_.k_parallel);
   // Reflected orders travel against the incident wave, transmitted ones with it.
-  const FieldMapResult* maps[2] = {&r.field_maps.at(user_maps_), orders_index_ > 0 ? &r.field_maps.at(user_maps_ + 1) : nullptr};
+  std::array<double, 3> phases{};
+  for (int a = 0; a < 3; ++a) phases[a] = im_ ? bloch_phase(g, scene_.domain, a) : 0.0;
+  std::vector<FieldMapResult> planes;
+  for (std::size_t i = 0; i < order_maps_[0].size(); ++i)
+    planes.push_back(order_maps_[0][i]->result(im_ ? order_maps_[1][i] : nullptr, phases));
+  const FieldMapResult* maps[2] = {&planes.at(0), planes.size() > 1 ? &planes[1] : nullptr};
   for (std::size_t q = 0; q < w.omegas.size(); ++q) {
     const double omega = w.omegas[q], incident = intensity(omega);
     out.omegas.push_back(omega);
@@ -450,7 +473,14 @@ DiffractionOrdersResult BlochRun::orders(const RunResults& r, const std::functio
 
 ModelSummary BlochRun::plan(const Scene& scene) {
   const Scene s = prepare(scene);
-  ModelSummary m = Simulation::plan(s);
+  Scene with_own = s;  // the run's own planes count in the memory estimate
+  if (!s.bloch_waves.empty()) {
+    const Grid g = plan_mesh(s).grid;
+    WaveOutputs own = wave_outputs(s, g, plan_bloch_wave(s.bloch_waves.front(), s, g));
+    with_own.fluxes.insert(with_own.fluxes.end(), own.planes.begin(), own.planes.end());
+    with_own.field_maps.insert(with_own.field_maps.end(), own.order_maps.begin(), own.order_maps.end());
+  }
+  ModelSummary m = Simulation::plan(with_own);
   const bool complex = needs_imaginary_part(s.domain);
   if (complex) {
     m.memory_bytes *= 2;

@@ -6,6 +6,7 @@
 // fluxes become reflectance, transmittance and absorptance without a separate reference run.
 #pragma once
 
+#include <array>
 #include <functional>
 #include <memory>
 #include <string>
@@ -13,6 +14,7 @@
 
 #include "solver/sources/bloch_wave.h"
 #include "solver/engine/simulation.h"
+#include "solver/outputs/recorders.h"
 
 namespace yeegap::solver {
 
@@ -28,8 +30,9 @@ class BlochRun : public Checkpointable {
   ~BlochRun() override;
 
   /// The scene as it runs: the Bloch wavevector set from the plane wave's angle, a time step that
-  /// is stable with it, the CPML shift from the wave's band, and the reflected and transmitted
-  /// power planes added after the user's fluxes. Throws RunError for what cannot run.
+  /// is stable with it, the CPML shift from the wave's band. The run's own reflected and
+  /// transmitted planes are not in it: the run adds them to its Simulations. Throws RunError for
+  /// what cannot run.
   static Scene prepare(const Scene& scene);
   /// Figures for `yeegap check`, with notes on the complex fields and the auxiliary problem.
   static ModelSummary plan(const Scene& scene);
@@ -60,10 +63,13 @@ class BlochRun : public Checkpointable {
   Scene scene_;
   bool wave_ = false;
   BlochWavePlan plan_;
-  std::size_t user_fluxes_ = 0;    // the user's fluxes come first; then reflected, transmitted
-  std::size_t user_maps_ = 0;      // the user's field maps come first; then those of `orders`
+  // The run's own outputs, in the real [0] and imaginary [1] parts (owned by those Simulations):
+  // the reflected and transmitted power planes, and the planes the diffraction orders come from.
+  std::vector<FluxSpec> plane_specs_;
+  std::array<std::vector<const FluxRecorder*>, 2> planes_;
+  std::array<std::vector<const FieldMapRecorder*>, 2> order_maps_;
   double orders_index_ = 0;        // medium of the transmitted orders; 0: absorbing, none
-  DiffractionOrdersResult orders(const RunResults& r, const std::function<double(double)>& intensity) const;
+  DiffractionOrdersResult orders(const std::function<double(double)>& intensity) const;
   std::unique_ptr<Simulation> re_, im_, inc_re_, inc_im_;
   long n_ = 0;
   double wall_seconds_ = 0;
