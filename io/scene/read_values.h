@@ -8,7 +8,7 @@
 #include <vector>
 
 #include "base/vec3.h"
-#include "io/units.h"
+#include "io/written_units.h"
 #include "io/yaml_node.h"
 
 namespace yeegap::io {

@@ -11,7 +11,7 @@
 
 #include "base/units.h"
 #include "io/scene/scene_blocks.h"
-#include "io/units.h"
+#include "io/written_units.h"
 #include "materials/library.h"
 
 namespace yeegap::io {

@@ -12,7 +12,7 @@
 #include "io/scene/scene_blocks.h"
 #include "base/constants.h"
 #include "io/suggest.h"
-#include "io/units.h"
+#include "io/written_units.h"
 #include "materials/library.h"
 
 namespace yeegap::io {

@@ -9,7 +9,7 @@
 #include "base/constants.h"
 #include "io/scene/read_values.h"
 #include "io/scene/scene_blocks.h"
-#include "io/units.h"
+#include "io/written_units.h"
 
 namespace yeegap::io {
 namespace {

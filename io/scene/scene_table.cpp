@@ -11,7 +11,7 @@
 #include "base/errors.h"
 #include "io/scene/read_values.h"
 #include "io/scene/scene_blocks.h"
-#include "io/units.h"
+#include "io/written_units.h"
 #include "materials/fit.h"
 #include "io/file_hash.h"
 #include "materials/nk_table.h"

@@ -10,7 +10,7 @@
 
 #include "base/errors.h"
 #include "io/suggest.h"
-#include "io/units.h"
+#include "io/written_units.h"
 
 namespace yeegap::io {
 namespace {

@@ -1,4 +1,4 @@
-// Fuzzes the number-and-unit parser (io/units.h) that every value of a scene goes through: any text
+// Fuzzes the number-and-unit parser (io/written_units.h) that every value of a scene goes through: any text
 // must split or be refused, never crash; a split value must be finite as the header promises, and so
 // must every SI value made from it (an infinite frequency would pass the reader's "> 0" checks).
 #include <cmath>
@@ -7,7 +7,7 @@
 #include <string_view>
 
 #include "fuzz_support.h"
-#include "io/units.h"
+#include "io/written_units.h"
 
 namespace {
 

@@ -19,7 +19,7 @@
 #include "commands.h"
 #include "io/results/pole_block_writer.h"
 #include "io/suggest.h"
-#include "io/units.h"
+#include "io/written_units.h"
 #include "json.h"
 #include "materials/fit.h"
 #include "materials/library.h"

@@ -15,7 +15,7 @@
 #include "base/units.h"
 #include "commands.h"
 #include "io/suggest.h"
-#include "io/units.h"
+#include "io/written_units.h"
 #include "json.h"
 #include "materials/tunnelling_model.h"
 

@@ -7,7 +7,7 @@
 
 #include "base/constants.h"
 #include "base/units.h"
-#include "io/units.h"
+#include "io/written_units.h"
 
 namespace {
 

@@ -1,6 +1,6 @@
-// Unit tables and number splitting for scene values (see units.h). Prefix factors (1e-9 for nano)
+// Unit tables and number splitting for scene values (see written_units.h). Prefix factors (1e-9 for nano)
 // are definitions of the SI prefixes; physical constants come only from base/constants.h.
-#include "io/units.h"
+#include "io/written_units.h"
 
 #include <charconv>
 #include <cmath>
