@@ -10,17 +10,14 @@
 
 namespace yeegap::solver {
 
-class CrossSectionRecorder : public Recorder {
+class CrossSectionRecorder : public DftRecorder {
  public:
   CrossSectionRecorder(const CrossSectionSpec& spec, const Scene& scene, const Grid& g, const BlockLayout& L);
-  void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
+  void record(const Fields& f, bool electric, const std::vector<Complex>& phase) override;
   /// `incident` is the DFT of the incident E at this recorder's frequencies.
   CrossSectionResult result(const std::vector<Complex>& incident) const;
   int plane_wave() const { return spec_.plane_wave; }
 
-  void sample(const Fields& f, bool electric, const SampleTime& when) override {
-    if (when.dft_now) record(f, electric, dft_phases(spec_.omegas, when.t, when.dft_dt));
-  }
   const std::vector<double>& result_omegas() const override { return spec_.omegas; }
   std::size_t memory_bytes() const override { return inner_->memory_bytes() + outer_->memory_bytes(); }
   const char* state_kind() const override { return "cross_sections"; }

@@ -13,20 +13,19 @@
 
 namespace yeegap::solver {
 
-class DecayRateRecorder : public Recorder {
+class DecayRateRecorder : public DftRecorder {
  public:
   /// Refuses (RunError) a 2D domain, a missing dipole or `radiated` output, frequencies that output
   /// does not record, and a box that leaves the domain's free cells or holds more than one medium
   /// (which must be lossless and without poles, so that P0 is known in closed form).
   DecayRateRecorder(const DecayRateSpec& spec, const Scene& scene, const Grid& g, const BlockLayout& L,
                     const MaterialIndex& mi);
-  void record(const Fields& f, bool electric, const std::vector<Complex>& phase) { box_->record(f, electric, phase); }
+  void record(const Fields& f, bool electric, const std::vector<Complex>& phase) override {
+    box_->record(f, electric, phase);
+  }
   /// Needs `r` to hold the source spectra and the far fields and fluxes already.
   DecayRateResult result(const RunResults& r) const;
 
-  void sample(const Fields& f, bool electric, const SampleTime& when) override {
-    if (when.dft_now) record(f, electric, dft_phases(omegas_, when.t, when.dft_dt));
-  }
   /// The frequencies: the scene's, or those of the `radiated` output when the scene lists none.
   const std::vector<double>& result_omegas() const override { return omegas_; }
   std::size_t memory_bytes() const override { return box_->memory_bytes(); }

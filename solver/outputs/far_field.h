@@ -15,7 +15,7 @@
 
 namespace yeegap::solver {
 
-class FarFieldRecorder : public Recorder {
+class FarFieldRecorder : public DftRecorder {
  public:
   /// Refuses (RunError) what the transform cannot handle: an invariant axis (2D), a face of the
   /// domain that is not an absorber, a dispersive, lossy or conducting background, a box that
@@ -23,14 +23,11 @@ class FarFieldRecorder : public Recorder {
   /// (including a substrate: the free-space Green's function would be wrong there).
   FarFieldRecorder(const FarFieldSpec& spec, const Scene& scene, const Grid& g, const BlockLayout& L,
                    const MaterialIndex& mi);
-  void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
+  void record(const Fields& f, bool electric, const std::vector<Complex>& phase) override;
   /// The transform itself; costs (surface points) x (directions) per frequency, so call it once.
   FarFieldResult result() const;
   const std::string& name() const { return spec_.name; }
 
-  void sample(const Fields& f, bool electric, const SampleTime& when) override {
-    if (when.dft_now) record(f, electric, dft_phases(spec_.omegas, when.t, when.dft_dt));
-  }
   const std::vector<double>& result_omegas() const override { return spec_.omegas; }
   std::size_t memory_bytes() const override;
   const char* state_kind() const override { return "far_field"; }

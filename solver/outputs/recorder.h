@@ -49,4 +49,14 @@ class Recorder {
   virtual void add_result(RunResults& r, const ResultInputs& in, const Recorder* twin) const = 0;
 };
 
+/// A Recorder of running DFTs at its result frequencies: it samples on the steps the DFTs sum,
+/// with the phases of those frequencies at that time.
+class DftRecorder : public Recorder {
+ public:
+  void sample(const Fields& f, bool electric, const SampleTime& when) final {
+    if (when.dft_now) record(f, electric, dft_phases(result_omegas(), when.t, when.dft_dt));
+  }
+  virtual void record(const Fields& f, bool electric, const std::vector<Complex>& phase) = 0;
+};
+
 }  // namespace yeegap::solver

@@ -40,19 +40,16 @@ class ProbeRecorder : public Recorder {
   std::vector<double> no_omegas_;
 };
 
-class FieldMapRecorder : public Recorder {
+class FieldMapRecorder : public DftRecorder {
  public:
   FieldMapRecorder(const FieldMapSpec& spec, const Grid& g, const BlockLayout& L);
-  void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
+  void record(const Fields& f, bool electric, const std::vector<Complex>& phase) override;
   /// With `imaginary` (the same map in the imaginary part of a Bloch run) the values are
   /// re + i im: the complex field's spectrum. A sample taken across a periodic edge (node n, or
   /// the half-cell below node 0 that interpolation reads) is the stored value times
   /// exp(i m bloch_phase[a]), m the periods it was wrapped by (bloch_halos.h).
   FieldMapResult result(const FieldMapRecorder* imaginary = nullptr, const std::array<double, 3>& bloch_phase = {}) const;
 
-  void sample(const Fields& f, bool electric, const SampleTime& when) override {
-    if (when.dft_now) record(f, electric, dft_phases(spec_.omegas, when.t, when.dft_dt));
-  }
   const std::vector<double>& result_omegas() const override { return spec_.omegas; }
   std::size_t memory_bytes() const override;
   const char* state_kind() const override { return "field_map"; }
@@ -70,17 +67,14 @@ class FieldMapRecorder : public Recorder {
   std::vector<double> x_, y_, z_;
 };
 
-class FluxRecorder : public Recorder {
+class FluxRecorder : public DftRecorder {
  public:
   FluxRecorder(const FluxSpec& spec, const Grid& g, const BlockLayout& L);
-  void record(const Fields& f, bool electric, const std::vector<Complex>& phase);
+  void record(const Fields& f, bool electric, const std::vector<Complex>& phase) override;
   /// With `imaginary` (the same surface in the imaginary part of a Bloch run) the power is that of
   /// the complex field E = E_re + i E_im, H likewise.
   FluxResult result(const FluxRecorder* imaginary = nullptr) const;
 
-  void sample(const Fields& f, bool electric, const SampleTime& when) override {
-    if (when.dft_now) record(f, electric, dft_phases(spec_.omegas, when.t, when.dft_dt));
-  }
   const std::vector<double>& result_omegas() const override { return spec_.omegas; }
   std::size_t memory_bytes() const override;
   const char* state_kind() const override { return "flux"; }

@@ -6,22 +6,7 @@ yeegap=$1
 src=$2
 work=$(mktemp -d)
 trap 'rm -rf "$work"' EXIT
-fails=0
-pass=0
-expect() {  # expect NAME WANT_EXIT PATTERN -- command...
-  local name=$1 want=$2 pattern=$3
-  shift 4
-  local out code
-  out=$("$@" 2>&1)
-  code=$?
-  if [ "$code" -ne "$want" ] || ! grep -qE -- "$pattern" <<<"$out"; then
-    echo "FAIL $name: exit $code (want $want), output:"
-    echo "$out" | head -5
-    fails=$((fails + 1))
-  else
-    pass=$((pass + 1))
-  fi
-}
+source "$(dirname "$0")/cli_expect.sh"
 
 # A misspelt top-level key: file:line:column, a suggestion, exit code 2, nothing run.
 sed 's/^outputs:/outptus:/' "$src/examples/dipole_near_sphere.yaml" >"$work/misspelt.yaml"
