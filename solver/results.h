@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "base/vec3.h"
+#include "solver/outputs/record.h"
 #include "solver/outputs/reflectance_dip.h"
 #include "solver/scene.h"
 
@@ -198,6 +199,7 @@ struct RunResults {
   std::vector<SensorResult> sensors;
   std::vector<ReflectanceResult> reflectance;    // plane waves in Bloch cells
   std::vector<DiffractionOrdersResult> orders;   // diffraction orders of a plane wave in a Bloch cell
+  std::vector<Record> records;                   // outputs that make their record directly (record.h)
 };
 
 }  // namespace yeegap::solver

@@ -9,6 +9,8 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
+#include "base/units.h"
+#include "solver/outputs/result_records.h"
 
 namespace yeegap::solver {
 
@@ -83,6 +85,33 @@ CrossSectionResult CrossSectionRecorder::result(const std::vector<Complex>& inci
     r.absorption.push_back(abs);
     r.extinction.push_back(sca + abs);
   }
+  return r;
+}
+
+Record record_of(const CrossSectionResult& x) {
+  Record r("cross_sections", x.name);
+  require_rows(r, x.omegas.size(),
+               {x.scattering.size(), x.absorption.size(), x.extinction.size(), x.incident_intensity.size()},
+               "frequencies");
+  r.set("per_unit_length", std::int32_t{x.per_unit_length ? 1 : 0});
+  add_frequency_axes(r, x.omegas);
+  const char* unit = x.per_unit_length ? "m" : "m^2";
+  r.add("scattering", unit, x.scattering, "outward flux of the scattered field around the plane-wave box over I0");
+  r.add("absorption", unit, x.absorption, "net inward flux of the total field inside the plane-wave box over I0");
+  r.add("extinction", unit, x.extinction, "scattering + absorption");
+  r.add("incident_intensity", "W s^2/m^2", x.incident_intensity, "|E_inc(omega)|^2 / (2 eta) from DFT spectra");
+  add_peak_headlines(r, "extinction", x.omegas, x.extinction, unit);
+  add_peak_headlines(r, "scattering", x.omegas, x.scattering, unit);
+  add_peak_headlines(r, "absorption", x.omegas, x.absorption, unit);
+  // The terminal in nm^2 (nm per unit length), --json in SI.
+  const double scale = x.per_unit_length ? 1e9 : 1e18;
+  r.summary.heading = fmt::format("  cross sections {} ({}): wavelength, extinction, scattering, absorption", x.name,
+                                  x.per_unit_length ? "nm" : "nm^2");
+  for (std::size_t q = 0; q < x.omegas.size(); ++q)
+    r.summary.rows.push_back(SummaryRow({{"wavelength_nm", units::omega_to_wavelength(x.omegas[q]) / units::nm, "{:8.2f}", 1, "    ", " nm"},
+                                        {"extinction", x.extinction[q], "{:.5g}", scale},
+                                        {"scattering", x.scattering[q], "{:.5g}", scale},
+                                        {"absorption", x.absorption[q], "{:.5g}", scale}}));
   return r;
 }
 

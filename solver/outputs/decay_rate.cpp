@@ -11,6 +11,8 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
+#include "base/units.h"
+#include "solver/outputs/result_records.h"
 #include "solver/media/material_map.h"
 
 namespace yeegap::solver {
@@ -154,6 +156,40 @@ DecayRateResult DecayRateRecorder::result(const RunResults& r) const {
     }
   }
   return out;
+}
+
+Record record_of(const DecayRateResult& x) {
+  Record r("decay_rate", x.name);
+  const std::size_t n = x.omegas.size();
+  require_rows(r, n, {x.total.size(), x.box_power.size(), x.alone_power.size()}, "frequencies");
+  if (!x.radiative.empty() || !x.efficiency.empty())
+    require_rows(r, n, {x.radiative.size(), x.efficiency.size()}, "frequencies");
+  r.set("dipole", std::int32_t{x.dipole});
+  r.set("index", x.index);
+  r.set("radiated", x.radiated);
+  add_frequency_axes(r, x.omegas);
+  r.add("total", "1", x.total,
+        "total decay-rate enhancement: power out of the box around the dipole / alone_power");
+  if (!x.radiative.empty()) {
+    r.add("radiative", "1", x.radiative, "radiated power (from the output named by 'radiated') / alone_power");
+    r.add("efficiency", "1", x.efficiency, "quantum efficiency of an ideal emitter: radiative / total");
+  }
+  r.add("box_power", "W s^2", x.box_power, "outward flux through the small box around the dipole");
+  r.add("alone_power", "W s^2", x.alone_power,
+        "n eta0 k0^2 |I l(omega)|^2 / (12 pi): the dipole alone in the medium around it");
+  add_peak_headlines(r, "total", x.omegas, x.total, "1");
+  r.summary.heading = fmt::format("  decay rate {} (dipole {}): wavelength, total enhancement{}", x.name, x.dipole,
+                                  x.radiative.empty() ? "" : ", radiative, quantum efficiency");
+  for (std::size_t q = 0; q < n; ++q) {
+    SummaryRow row({Cell("wavelength_nm", units::omega_to_wavelength(x.omegas[q]) / units::nm, "{:8.2f}", 1, "    ", " nm"),
+                             Cell("total", x.total[q])});
+    if (!x.radiative.empty()) {
+      row.cells.push_back(Cell("radiative", x.radiative[q]));
+      row.cells.push_back(Cell("efficiency", x.efficiency[q], "{:.4f}"));
+    }
+    r.summary.rows.push_back(std::move(row));
+  }
+  return r;
 }
 
 }  // namespace yeegap::solver

@@ -13,6 +13,8 @@
 
 #include "base/constants.h"
 #include "base/errors.h"
+#include "base/units.h"
+#include "solver/outputs/result_records.h"
 #include "solver/outputs/sphere_quadrature.h"
 
 namespace yeegap::solver {
@@ -357,6 +359,67 @@ FarFieldResult FarFieldRecorder::result() const {
 void FarFieldRecorder::add_state(StateArrays& s, const std::string& prefix) {
   for (std::size_t f = 0; f < faces_.size(); ++f)
     for (std::size_t t = 0; t < faces_[f].dft.size(); ++t) faces_[f].dft[t].add_state(s, fmt::format("{}/face{}/dft{}", prefix, f, t));
+}
+
+Record record_of(const FarFieldResult& x, const RunResults& run, const Scene& scene) {
+  Record r("far_field", x.name);
+  const std::size_t nf = x.omegas.size(), nd = x.theta.size();
+  require_rows(r, nf, {x.power.size(), x.surface_power.size(), x.e_theta.size(), x.e_phi.size(), x.intensity.size(),
+                       x.directivity.size()}, "frequencies");
+  if (!x.collected.empty()) require_rows(r, nf, {x.collected.size()}, "frequencies");
+  require_rows(r, nd, {x.phi.size()}, "directions");
+  if (x.theta_count != 0) require_rows(r, nd, {std::size_t(x.theta_count) * x.phi_count}, "directions (theta x phi)");
+  std::vector<std::complex<double>> et, ep;
+  std::vector<double> in, di;
+  for (std::size_t q = 0; q < nf; ++q) {
+    require_rows(r, nd, {x.e_theta[q].size(), x.e_phi[q].size(), x.intensity[q].size(), x.directivity[q].size()},
+                 "directions");
+    et.insert(et.end(), x.e_theta[q].begin(), x.e_theta[q].end());
+    ep.insert(ep.end(), x.e_phi[q].begin(), x.e_phi[q].end());
+    in.insert(in.end(), x.intensity[q].begin(), x.intensity[q].end());
+    di.insert(di.end(), x.directivity[q].begin(), x.directivity[q].end());
+  }
+  r.set("theta_count", std::int32_t{x.theta_count});
+  r.set("phi_count", std::int32_t{x.phi_count});
+  r.set("index", x.index);
+  r.set("box_from", std::vector<double>{x.box.lo.x, x.box.lo.y, x.box.lo.z});
+  r.set("box_to", std::vector<double>{x.box.hi.x, x.box.hi.y, x.box.hi.z});
+  r.set("numerical_aperture", x.numerical_aperture);
+  r.set("collection_axis", std::vector<double>{x.collection_axis.x, x.collection_axis.y, x.collection_axis.z});
+  add_frequency_axes(r, x.omegas);
+  r.add("theta", "rad", x.theta, "polar angle from +z of each direction");
+  r.add("phi", "rad", x.phi, "azimuth from +x of each direction");
+  const char* amplitude = "r exp(-i k r) E at large r from DFT spectra, [frequency, direction]";
+  r.add("E_theta", "V s", std::move(et), amplitude).shape = {nf, nd};
+  r.add("E_phi", "V s", std::move(ep), amplitude).shape = {nf, nd};
+  r.add("intensity", "W s^2/sr", std::move(in), "radiated power per solid angle dP/dOmega, [frequency, direction]")
+      .shape = {nf, nd};
+  r.add("directivity", "1", std::move(di), "4 pi (dP/dOmega) / power, [frequency, direction]").shape = {nf, nd};
+  r.add("power", "W s^2", x.power, "radiated power: dP/dOmega integrated over the whole sphere");
+  r.add("surface_power", "W s^2", x.surface_power,
+        "outward Poynting flux through the box the transform used (a check on power)");
+  if (!x.collected.empty())
+    r.add("collected", "W s^2", x.collected, "power into the cone of numerical_aperture about collection_axis");
+  add_peak_headlines(r, "power", x.omegas, x.power, "W s^2");
+
+  const bool one_dipole = run.source_spectra.size() == 1;
+  r.summary.heading = fmt::format("  far field {}: wavelength, radiated power{}, peak directivity{}", x.name,
+                                  one_dipole ? " (x the dipole alone)" : "",
+                                  x.collected.empty() ? "" : ", fraction collected");
+  for (std::size_t q = 0; q < nf; ++q) {
+    const double peak =
+        x.directivity[q].empty() ? 0.0 : std::max(0.0, *std::max_element(x.directivity[q].begin(), x.directivity[q].end()));
+    SummaryRow row({Cell("wavelength_nm", units::omega_to_wavelength(x.omegas[q]) / units::nm, "{:8.2f}", 1, "    ", " nm")});
+    // The terminal shows the power relative to the dipole alone when there is one dipole.
+    row.cells.push_back(Cell("power", x.power[q], one_dipole ? "" : "{:.5g}"));
+    if (one_dipole)
+      row.cells.push_back(Cell("relative_to_dipole_alone", relative_to_dipole_alone(run, scene, x.omegas[q], x.power[q])));
+    row.cells.push_back(Cell("peak_directivity", peak, "{:.3f}"));
+    if (!x.collected.empty())
+      row.cells.push_back(Cell("collected_fraction", x.collected[q] / x.power[q], "{:.4f}"));
+    r.summary.rows.push_back(std::move(row));
+  }
+  return r;
 }
 
 }  // namespace yeegap::solver

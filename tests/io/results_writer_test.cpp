@@ -544,4 +544,51 @@ TEST_F(ResultsWriter, OrdersListOneEntryPerOrderWithRowSideAndOrderNumbers) {
   EXPECT_DOUBLE_EQ(read_double_attribute(f.id(), g, "transmitted_index"), 1.5);
 }
 
+// An output that makes its record directly (as a new output would) is written with no code of its
+// own: attributes, each quantity with its shape, units and description, complex values as _re/_im.
+TEST_F(ResultsWriter, ARecordIsWrittenWithoutKnowingItsKind) {
+  solver::RunResults r = make_results();
+  solver::Record rec("made_up", "direct");
+  rec.set("count", std::int32_t{3});
+  rec.set("label", std::string("abc"));
+  rec.add("time", "s", std::vector<double>{0, 1e-15, 2e-15}, "sample times");
+  rec.add("amplitude", "V s", std::vector<std::complex<double>>{{1, 2}, {3, 4}, {5, 6}, {7, 8}}).shape = {2, 2};
+  rec.add("index", "none", std::vector<std::int32_t>{4, 5, 6}).attributes = {{"offset", 0.5}};
+  r.records.push_back(rec);
+  const fs::path path = dir_ / "record.h5";
+  io::write_results(path.string(), r, make_scene(), make_info());
+  Opened f(path);
+  const std::string g = "/outputs/direct";
+  EXPECT_EQ(read_string_attribute(f.id(), g, "kind"), "made_up");
+  EXPECT_EQ(read_int_attribute(f.id(), g, "count"), 3);
+  EXPECT_EQ(read_string_attribute(f.id(), g, "label"), "abc");
+  EXPECT_EQ(read_doubles(f.id(), g + "/time"), (std::vector<double>{0, 1e-15, 2e-15}));
+  EXPECT_EQ(read_string_attribute(f.id(), g + "/time", "units"), "s");
+  EXPECT_EQ(read_string_attribute(f.id(), g + "/time", "description"), "sample times");
+  EXPECT_EQ(dataset_shape(f.id(), g + "/amplitude_im"), (std::vector<hsize_t>{2, 2}));
+  EXPECT_EQ(read_doubles(f.id(), g + "/amplitude_im"), (std::vector<double>{2, 4, 6, 8}));
+  EXPECT_EQ(read_string_attribute(f.id(), g + "/amplitude_re", "units"), "V s");
+  EXPECT_EQ(read_dataset<std::int32_t>(f.id(), g + "/index", H5T_NATIVE_INT32), (std::vector<std::int32_t>{4, 5, 6}));
+  EXPECT_DOUBLE_EQ(read_double_attribute(f.id(), g + "/index", "offset"), 0.5);
+}
+
+TEST_F(ResultsWriter, ARecordWhoseValuesDoNotFillItsShapeIsRefusedByName) {
+  solver::RunResults r = make_results();
+  solver::Record rec("made_up", "short");
+  rec.add("grid", "1", std::vector<double>{1, 2, 3}).shape = {2, 2};
+  r.records.push_back(rec);
+  const fs::path path = dir_ / "bad.h5";
+  try {
+    io::write_results(path.string(), r, make_scene(), make_info());
+    ADD_FAILURE() << "no error";
+  } catch (const std::runtime_error& e) {
+    EXPECT_NE(std::string(e.what()).find("made_up 'short': quantity 'grid' has 3 values for a shape of 4"),
+              std::string::npos)
+        << e.what();
+  }
+  EXPECT_FALSE(fs::exists(path));
+  EXPECT_FALSE(fs::exists(path.string() + ".partial"));
+}
+
 }  // namespace
+

@@ -13,14 +13,16 @@
 
 #include "base/constants.h"
 #include "io/h5.h"
-#include "io/h5.h"
 #include "io/sweep/sweep_figures.h"
 #include "io/sweep/sweep_table.h"
+#include "solver/outputs/record.h"
 
 namespace yeegap::io {
 namespace {
 
 namespace fs = std::filesystem;
+using solver::Peak;
+using solver::spectrum_peak;
 
 TEST(SpectrumPeak, ParabolaThroughThreeSamplesFindsTheExactVertex) {
   // y = 5 - 2 (w - 3.3)^2 sampled unevenly and out of order: the parabola through the largest
@@ -63,11 +65,14 @@ TEST(SweepFigures, EachOutputGivesItsNamedPeaksAndTheGapItsWidth) {
   c.extinction = {1e-15, 3e-15, 2e-15};
   c.scattering = {1e-15, 2e-15, 1e-15};
   c.absorption = {0.5e-15, 1e-15, 1e-15};
+  c.incident_intensity = {1, 1, 1};  // a whole result, as a run makes it (records check their sizes)
   r.cross_sections.push_back(c);
   solver::DecayRateResult d;
   d.name = "purcell";
   d.omegas = {2e15, 3e15};
   d.total = {10, 40};
+  d.box_power = {1, 4};
+  d.alone_power = {0.1, 0.1};
   r.decay_rates.push_back(d);
   solver::TunnellingGap g;
   g.pair = {0, 1};

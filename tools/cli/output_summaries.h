@@ -1,7 +1,6 @@
 // What `yeegap run` says about each output at the end: table lines on stderr and a JSON value per
-// output for --json. One small function per kind of output, listed in one catalog
-// (output_summaries.cpp); a new output adds its function and its catalog line, and the run command
-// prints them all without knowing the kinds.
+// output for --json, both read from the outputs' records (solver/outputs/record.h: heading, rows,
+// cells), so a new output needs no code here.
 #pragma once
 
 #include <string>
@@ -30,18 +29,8 @@ class SummarySink {
   bool undefined_shown_ = false;
 };
 
-using SummaryFunction = void (*)(const solver::RunResults&, const solver::Scene&, SummarySink&);
-
-struct SummaryEntry {
-  const char* kind;  // "flux", "cross_sections", ... (the scene's output word)
-  SummaryFunction summarise;
-};
-
-/// Every kind of output's summary, in the order they are printed.
-const std::vector<SummaryEntry>& summary_catalog();
-
-/// Prints every output's summary (catalog order) and returns them as one encoded JSON object keyed
-/// by output name.
+/// Prints the tunnelling report and every output's summary (records_of order) and returns the
+/// summaries as one encoded JSON object keyed by output name.
 std::string summarise_outputs(const solver::RunResults& results, const solver::Scene& scene);
 
 }  // namespace yeegap::cli

@@ -7,6 +7,7 @@
                          (|E|^2/|E_inc|^2 when the run has a plane wave)
   <stem>_<name>          cross sections against wavelength; far-field directivity, polar
   <stem>_sensor_<name>   each sensor output's R(theta), before and after the index raise, dips marked
+  <stem>_<name>          any other output recorded against time: its series
 For a sweep's merged table (sweep.h5, format yeegap-sweep) instead:
   <stem>_<output>_<quantity>  a heat map of that spectrum over the swept parameter and the
                          wavelength (plot_sweep.py), read from the point files beside the table
@@ -50,13 +51,14 @@ def parse_arguments(argv):
 def write_figures(results, out_dir, formats):
     """Makes every figure of the results file (or sweep table); returns the written paths and notes
     for the user."""
-    from plot_common import open_results, output_stem, outputs_of_kind, save, wavelength_label
+    from plot_common import open_results, output_stem, outputs_of_kind, save, text, wavelength_label
     from plot_field_maps import field_map_figures
     from plot_orders import orders_figure
     from plot_particles import cross_sections_figure, far_field_figure
     from plot_probes import probe_figure
     from plot_sensor import sensor_figure
     from plot_spectra import flux_figure
+    from plot_time_series import time_series_figure
     from plot_sweep import is_sweep_table, sweep_figures
 
     written, notes = [], []
@@ -86,6 +88,12 @@ def write_figures(results, out_dir, formats):
                 written += save(fig, output_stem(results, out_dir, name, wavelength_label(wl) + "nm"), formats)
         for name, g in outputs_of_kind(f, "sensor"):
             written += save(sensor_figure(name, g), output_stem(results, out_dir, "sensor", name), formats)
+        own_figures = {"flux", "reflectance", "probe", "cross_sections", "far_field", "orders", "field_map", "sensor"}
+        for name, g in sorted(f["outputs"].items()) if "outputs" in f else []:
+            kind = text(g.attrs.get("kind", b""))
+            fig = None if kind in own_figures else time_series_figure(name, kind, g)
+            if fig is not None:
+                written += save(fig, output_stem(results, out_dir, name), formats)
     return written, notes
 
 
@@ -110,7 +118,7 @@ def main(argv):
     for note in notes:
         say(note)
     if not written:
-        say(f"{args.results} has no flux, probe, cross-section, far-field, field-map, orders or reflectance output to plot")
+        say(f"{args.results} has no output to plot")
     else:
         say(f"{len(written)} figures in {out_dir}: " + ", ".join(os.path.basename(p) for p in written))
     return 0
