@@ -247,6 +247,13 @@ struct TunnellingSpec {
   Where where;
 };
 
+/// The electromagnetic energy inside a box against time (solver/outputs/energy_in_box.h).
+struct EnergySpec {
+  std::string name;
+  Region region;                  // m, a box; the cells whose centres lie inside it count
+  Where where;
+};
+
 struct StopSpec {
   double after = 0;               // s; 0 = not set
   double energy_below = 0;        // stop when the field energy falls below this fraction of its peak
@@ -282,6 +289,7 @@ struct Scene {
   std::vector<DecayRateSpec> decay_rates;
   std::vector<OrdersSpec> orders;  // at most one; needs a plane_wave
   std::vector<SensorSpec> sensors;  // at most one; needs an angle scan
+  std::vector<EnergySpec> energies;
   StopSpec stop;
   std::vector<InputFile> input_files;  // in reading order
 };

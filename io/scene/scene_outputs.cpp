@@ -1,6 +1,7 @@
 // The `outputs` list: what a run records, one uniquely named recorder per item: a probe, field_map,
-// flux, cross sections, far_field, decay_rate, the diffraction orders of a Bloch plane wave, or a
-// sensor (the figures of an angle scan's dip, docs/sensor.md). Keys: docs/scene.md, `outputs`.
+// flux, cross sections, far_field, decay_rate, the diffraction orders of a Bloch plane wave, a
+// sensor (the figures of an angle scan's dip, docs/sensor.md) or the energy in a box. Keys:
+// docs/scene.md, `outputs`.
 #include <algorithm>
 #include <cctype>
 #include <cmath>
@@ -328,13 +329,24 @@ solver::OrdersSpec read_orders(const Node& block, const solver::Scene& scene, st
   return o;
 }
 
+solver::EnergySpec read_energy(const Node& block, const solver::DomainSpec& domain, std::map<std::string, Where>& used) {
+  block.allow({"name", "box"});
+  solver::EnergySpec e;
+  e.where = block.where();
+  e.name = read_name(block, used);
+  e.region = read_corners(block.require("box"), domain, /*closed=*/true);
+  block.done();
+  return e;
+}
+
 }  // namespace
 
 void read_outputs(const Node& list, solver::Scene& scene) {
   std::map<std::string, Where> used;  // output name -> where it was first given
   std::vector<Node> decay_blocks;     // the decay_rate blocks, for checking 'radiated' at the end
   for (const Node& item : list.items_or_single()) {
-    item.allow({"probe", "field_map", "flux", "cross_sections", "far_field", "decay_rate", "orders", "sensor"},
+    item.allow({"probe", "field_map", "flux", "cross_sections", "far_field", "decay_rate", "orders", "sensor",
+                "energy"},
                /*planned=*/{"resonances"});
     if (!item.is_map() || item.entries().size() != 1)
       item.fail(fmt::format("each item holds exactly one output, e.g. '- probe: {{...}}', got {}",
@@ -350,6 +362,7 @@ void read_outputs(const Node& list, solver::Scene& scene) {
       decay_blocks.push_back(*b);
     }
     if (auto b = item.get("sensor")) scene.sensors.push_back(read_sensor(*b, scene, used));
+    if (auto b = item.get("energy")) scene.energies.push_back(read_energy(*b, scene.domain, used));
   }
   for (std::size_t i = 0; i < decay_blocks.size(); ++i) check_radiated(decay_blocks[i], scene.decay_rates[i], scene);
 }

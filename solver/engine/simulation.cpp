@@ -20,6 +20,7 @@
 #include "solver/engine/time_loop.h"
 #include "solver/outputs/cross_sections.h"
 #include "solver/outputs/decay_rate.h"
+#include "solver/outputs/energy_in_box.h"
 #include "solver/outputs/far_field.h"
 #include "solver/outputs/recorders.h"
 
@@ -49,6 +50,7 @@ Parts build_parts(const Scene& s, const Grid& g, const BlockLayout& L, const Cur
   for (const auto& c : s.cross_sections) r.push_back(std::make_unique<CrossSectionRecorder>(c, s, g, L));
   for (const auto& f : s.far_fields) r.push_back(std::make_unique<FarFieldRecorder>(f, s, g, L, mi));
   for (const auto& d : s.decay_rates) r.push_back(std::make_unique<DecayRateRecorder>(d, s, g, L, mi));
+  for (const auto& e : s.energies) r.push_back(std::make_unique<EnergyRecorder>(e, s, g, L, mi));
   return p;
 }
 

@@ -158,6 +158,13 @@ def write_results(path):
             g.attrs["resonance_angle_deg" + suffix], g.attrs["r_min" + suffix] = centre, 0.03
             g.attrs["baseline" + suffix], g.attrs["half_depth_angles_deg" + suffix] = 0.9, np.array([centre - 2, centre + 2])
         g.attrs["width_deg"], g.attrs["sensitivity_deg_per_riu"], g.attrs["figure_of_merit"] = 4.0, 150.0, 37.5
+        g = f.create_group("outputs/inner")                 # a kind with no figure of its own: drawn
+        g.attrs["kind"] = np.bytes_("energy")               # against time from the generic layout
+        t = np.linspace(0, 30e-15, 300)
+        g["time"], g["magnetic_time"] = t, t - 0.05e-15
+        for key, value in (("electric", np.sin(t / 2e-15) ** 2), ("magnetic", np.cos(t / 2e-15) ** 2), ("total", np.ones(300))):
+            g[key] = value * 1e-28
+            g[key].attrs["units"] = np.bytes_("J")
 
 
 # A sweep (invented numbers): rows out of gap order, a peak that moves with the gap and is weaker
@@ -244,7 +251,7 @@ with tempfile.TemporaryDirectory() as work:
     done = subprocess.run([sys.executable, script, results], capture_output=True, text=True, env=headless)
     check(done.returncode == 0, f"plot script exit code {done.returncode}: {done.stderr}")
     check(done.stdout == "", f"the plot script wrote to stdout: {done.stdout!r}")
-    stems = ["flux", "probe_at_dipole", "particle", "pattern", "sensor_chip"] + [f"{m}_{w}nm" for m in ("volume", "xz_plane") for w in (500, 600, 700)]
+    stems = ["flux", "probe_at_dipole", "particle", "pattern", "sensor_chip", "inner"] + [f"{m}_{w}nm" for m in ("volume", "xz_plane") for w in (500, 600, 700)]
     check_figures(work, "synthetic_", stems, min_coloured=0.005)
 
     with h5py.File(results, "r") as f:
