@@ -1,6 +1,6 @@
-// The far_field and decay_rate outputs as read from a scene (io/scene/scene_outputs.cpp, docs/scene.md):
-// defaults, angle units, grids and lists of directions, collection cones, and the mistakes the
-// reader refuses with the place and what was expected.
+// The outputs around a dipole as read from a scene (io/scene/scene_outputs.cpp, docs/scene.md):
+// far_field and decay_rate (defaults, angle units, grids and lists of directions, collection cones)
+// and energy (its box), and the mistakes the reader refuses with the place and what was expected.
 #include <cmath>
 #include <string>
 
@@ -104,6 +104,23 @@ TEST(SceneFarField, RefusesARadiatedOutputThatDoesNotExistOrIsAPlane) {
 
 TEST(SceneFarField, DecayRateNeedsFrequenciesOrARadiatedOutput) {
   EXPECT_THAT(failure_of("  - decay_rate: {name: rate}\n"), HasSubstr("missing key 'frequencies'"));
+}
+
+TEST(SceneEnergy, ReadsItsBox) {
+  const auto s = read_scene_text(head + "  - energy: {name: inner, box: {from: [-100 nm, -50 nm, 0], to: [100 nm, 50 nm, 60 nm]}}\n",
+                                 "ok.yaml");
+  ASSERT_EQ(s.energies.size(), 1u);
+  EXPECT_EQ(s.energies[0].name, "inner");
+  EXPECT_NEAR(s.energies[0].region.lo.y, -50e-9, 1e-18);
+  EXPECT_NEAR(s.energies[0].region.hi.z, 60e-9, 1e-18);
+}
+
+TEST(SceneEnergy, RefusesAMissingBoxAFlatBoxAndAnUnknownKey) {
+  EXPECT_THAT(failure_of("  - energy: {name: inner}\n"), HasSubstr("missing key 'box'"));
+  EXPECT_THAT(failure_of("  - energy: {name: inner, box: {from: [0, 0, 0], to: [100 nm, 100 nm, 0]}}\n"),
+              HasSubstr("positive extent"));
+  EXPECT_THAT(failure_of("  - energy: {name: inner, plane: {axis: z, at: 0}, box: {from: [0, 0, 0], to: [1 nm, 1 nm, 1 nm]}}\n"),
+              HasSubstr("unknown key 'plane'"));
 }
 
 }  // namespace

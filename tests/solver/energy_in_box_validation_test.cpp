@@ -29,21 +29,30 @@ const std::vector<double>& values(const Record& r, const char* name) {
   return std::get<std::vector<double>>(q->values);
 }
 
-TEST(EnergyInBox, CurrentSheetPulseHoldsTheRadiatedEnergyHalfElectricHalfMagnetic) {
-  const double d = 5e-9;
-  Scene s = testing::vacuum_box({1, 1, 4000}, d,
+const double d = 5e-9;  // cell size
+
+/// A sheet of x-directed current at z = 0 (a dipole in a grid with invariant x and y), pulsed over
+/// 400-1000 nm (80 cells per wavelength at the short end), and an energy box |z| <= box_half.
+Scene current_sheet(int cells, double box_half) {
+  Scene s = testing::vacuum_box({1, 1, cells}, d,
                                 {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
                                  EdgeKind::cpml, EdgeKind::cpml});
   DipoleSpec dip;
   dip.direction = {1, 0, 0};
   dip.moment = 1e-30;
-  dip.waveform.omega_min = 2 * pi * c0 / 1000e-9;  // 80 cells per wavelength at the band's short end
+  dip.waveform.omega_min = 2 * pi * c0 / 1000e-9;
   dip.waveform.omega_max = 2 * pi * c0 / 400e-9;
   s.dipoles.push_back(dip);
   EnergySpec box;
   box.name = "slab";
-  box.region = {{-1, -1, -7e-6}, {1, 1, 7e-6}};
+  box.region = {{-1, -1, -box_half}, {1, 1, box_half}};
   s.energies.push_back(box);
+  return s;
+}
+
+TEST(EnergyInBox, CurrentSheetPulseHoldsTheRadiatedEnergyHalfElectricHalfMagnetic) {
+  Scene s = current_sheet(4000, 7e-6);
+  const DipoleSpec& dip = s.dipoles[0];
   const SourceTime pulse(dip.waveform);
   s.stop.after = pulse.end_time() + 4e-15;
   Simulation sim(s);
@@ -87,18 +96,7 @@ TEST(EnergyInBox, CurrentSheetPulseHoldsTheRadiatedEnergyHalfElectricHalfMagneti
 // A run stopped halfway and carried on from its checkpoint arrays (as `yeegap run --resume` does)
 // records the same series, bit for bit, as one never stopped.
 TEST(EnergyInBox, AResumedRunRecordsTheSameSeries) {
-  Scene s = testing::vacuum_box({1, 1, 200}, 5e-9,
-                                {EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic, EdgeKind::periodic,
-                                 EdgeKind::cpml, EdgeKind::cpml});
-  DipoleSpec dip;
-  dip.direction = {1, 0, 0};
-  dip.waveform.omega_min = 2 * pi * c0 / 1000e-9;
-  dip.waveform.omega_max = 2 * pi * c0 / 400e-9;
-  s.dipoles.push_back(dip);
-  EnergySpec box;
-  box.name = "slab";
-  box.region = {{-1, -1, -200e-9}, {1, 1, 200e-9}};
-  s.energies.push_back(box);
+  const Scene s = current_sheet(200, 200e-9);
   const int half = 300;
   Simulation whole(s), first(s), resumed(s);
   for (int n = 0; n < half; ++n) whole.step(), first.step();
