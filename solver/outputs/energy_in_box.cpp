@@ -97,7 +97,8 @@ void EnergyRecorder::add_result(RunResults& r, const ResultInputs&, const Record
                                     first_[0], last_[0], first_[1], last_[1], first_[2], last_[2]);
   rec.summary.rows.push_back(SummaryRow({{"peak", peak_value, "{:.5g}", 1, "    peak ", " J"},
                                         {"peak_time", peak_time, "{:.4g}", 1e15, " at ", " fs"},
-                                        {"final", final_value, "{:.5g}", 1, ", at the end ", " J"}}));
+                                        {"final", final_value, "{:.5g}", 1, ", at the end ", " J"}},
+                                       false));  // the terminal shows the headlines instead
   rec.summary.json_object = true;
   r.records.push_back(std::move(rec));
 }

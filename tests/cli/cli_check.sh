@@ -109,8 +109,8 @@ expect over_machine_memory 2 "but this machine has .* free" -- \
   "$yeegap" run "$work/scene.yaml" -o "$work/too_big.h5" --set "domain.size=[40 um, 40 um, 40 um]"
 expect bad_memory_size 2 "expected a size like 8GB" -- "$yeegap" run "$work/scene.yaml" --memory lots
 
-# The energy in a box: its summary line and JSON, and its group in the results file, with no code
-# for it outside its recorder and its scene reader.
+# The energy in a box: its summary line, headline figures and JSON, and its group in the results
+# file, with no code for it outside its recorder and its scene reader.
 cat > "$work/energy.yaml" <<'EOF2'
 scene: {version: 1, title: energy in a box}
 domain: {size: [800 nm, 800 nm, 800 nm], step: 20 nm, edges: cpml}
@@ -122,6 +122,10 @@ stop: {energy_below: 1e-4}
 EOF2
 expect energy_summary 0 "energy inner: [0-9]+ samples, cells 15..24 x 15..24 x 15..24" -- "$yeegap" run "$work/energy.yaml" -o "$work/energy.h5"
 expect energy_json 0 '"inner": \{"peak": [0-9.e+-]+, "peak_time": [0-9.e+-]+, "final": [0-9.e+-]+\}' -- \
+  "$yeegap" run "$work/energy.yaml" -o "$work/energy.h5" --json
+expect energy_headline 0 "^    largest total [0-9.e+-]+ J at [0-9.]+ fs; total_final [0-9.e+-]+ J$" -- \
+  "$yeegap" run "$work/energy.yaml" -o "$work/energy.h5"
+expect run_json_figures 0 '"figures": \{"inner.total_peak": [0-9.e+-]+, "inner.total_peak_time": [0-9.e+-]+, "inner.total_final": [0-9.e+-]+\}' -- \
   "$yeegap" run "$work/energy.yaml" -o "$work/energy.h5" --json
 expect energy_group 0 '\(0\): "J"' -- h5dump -a /outputs/inner/total/units "$work/energy.h5"
 

@@ -205,6 +205,11 @@ int execute_run(const RunOptions& o) {
         .number("mcells_per_second", s.cell_updates_per_second / 1e6)
         .number("threads", threads)
         .add("outputs", outs);
+    // The figures a sweep would tabulate for this run (spectrum peaks and where they are), SI
+    // unless the name ends in a unit: the same names as the sweep table's columns.
+    JsonObject figures;
+    for (const io::Figure& f : io::compute_figures(results, scene)) figures.number(f.name, f.value);
+    j.add("figures", figures.str());
     std::printf("%s\n", j.str().c_str());
   }
   if (interrupted) return checkpoint_failed ? exit_failure : exit_interrupted;
