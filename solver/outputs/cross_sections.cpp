@@ -108,7 +108,7 @@ Record record_of(const CrossSectionResult& x) {
   r.summary.heading = fmt::format("  cross sections {} ({}): wavelength, extinction, scattering, absorption", x.name,
                                   x.per_unit_length ? "nm" : "nm^2");
   for (std::size_t q = 0; q < x.omegas.size(); ++q)
-    r.summary.rows.push_back(SummaryRow({{"wavelength_nm", units::omega_to_wavelength(x.omegas[q]) / units::nm, "{:8.2f}", 1, "    ", " nm"},
+    r.summary.rows.push_back(SummaryRow({wavelength_cell(x.omegas[q]),
                                         {"extinction", x.extinction[q], "{:.5g}", scale},
                                         {"scattering", x.scattering[q], "{:.5g}", scale},
                                         {"absorption", x.absorption[q], "{:.5g}", scale}}));

@@ -181,7 +181,7 @@ Record record_of(const DecayRateResult& x) {
   r.summary.heading = fmt::format("  decay rate {} (dipole {}): wavelength, total enhancement{}", x.name, x.dipole,
                                   x.radiative.empty() ? "" : ", radiative, quantum efficiency");
   for (std::size_t q = 0; q < n; ++q) {
-    SummaryRow row({Cell("wavelength_nm", units::omega_to_wavelength(x.omegas[q]) / units::nm, "{:8.2f}", 1, "    ", " nm"),
+    SummaryRow row({wavelength_cell(x.omegas[q]),
                              Cell("total", x.total[q])});
     if (!x.radiative.empty()) {
       row.cells.push_back(Cell("radiative", x.radiative[q]));

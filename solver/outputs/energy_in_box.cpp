@@ -31,7 +31,8 @@ EnergyRecorder::EnergyRecorder(const EnergySpec& spec, const Scene& scene, const
 
 double EnergyRecorder::sum(const Fields& f, bool electric) const {
   const int planes = last_[2] - first_[2] + 1;
-  std::vector<double> per_plane(planes, 0.0);
+  std::vector<double>& per_plane = per_plane_;
+  per_plane.assign(planes, 0.0);
 #pragma omp parallel for schedule(static)
   for (int p = 0; p < planes; ++p) {
     const int k = first_[2] + p;

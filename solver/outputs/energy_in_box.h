@@ -34,6 +34,7 @@ class EnergyRecorder : public Recorder {
   std::vector<double> eps_;                 // F/m per material index
   std::array<int, 3> first_{}, last_{};     // cells counted, inclusive
   std::vector<double> time_, electric_, magnetic_time_, magnetic_;
+  mutable std::vector<double> per_plane_;   // the sum's partial results, kept between samples
   std::vector<double> no_omegas_;
 };
 

@@ -409,7 +409,7 @@ Record record_of(const FarFieldResult& x, const RunResults& run, const Scene& sc
   for (std::size_t q = 0; q < nf; ++q) {
     const double peak =
         x.directivity[q].empty() ? 0.0 : std::max(0.0, *std::max_element(x.directivity[q].begin(), x.directivity[q].end()));
-    SummaryRow row({Cell("wavelength_nm", units::omega_to_wavelength(x.omegas[q]) / units::nm, "{:8.2f}", 1, "    ", " nm")});
+    SummaryRow row({wavelength_cell(x.omegas[q])});
     // The terminal shows the power relative to the dipole alone when there is one dipole.
     row.cells.push_back(Cell("power", x.power[q], one_dipole ? "" : "{:.5g}"));
     if (one_dipole)

@@ -19,10 +19,6 @@ std::vector<double> in_degrees(const std::vector<double>& radians) {
   return out;
 }
 
-Cell wavelength_cell(double omega, const char* key = "wavelength_nm") {
-  return {key, units::omega_to_wavelength(omega) / units::nm, "{:8.2f}", 1, "    ", " nm"};
-}
-
 }  // namespace
 
 Record record_of(const ReflectanceResult& x) {

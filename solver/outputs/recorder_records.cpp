@@ -21,11 +21,11 @@ std::vector<double> flatten(const std::vector<Vec3>& points) {
   return flat;
 }
 
-Cell wavelength_cell(double omega) {
-  return {"wavelength_nm", units::omega_to_wavelength(omega) / units::nm, "{:8.2f}", 1, "    ", " nm"};
-}
-
 }  // namespace
+
+Cell wavelength_cell(double omega, const char* key) {
+  return {key, units::omega_to_wavelength(omega) / units::nm, "{:8.2f}", 1, "    ", " nm"};
+}
 
 double relative_to_dipole_alone(const RunResults& run, const Scene& scene, double omega, double power) {
   const auto it = std::find(run.source_omegas.begin(), run.source_omegas.end(), omega);

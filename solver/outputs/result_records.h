@@ -22,6 +22,10 @@ Record record_of(const FarFieldResult& x, const RunResults& run, const Scene& sc
 Record record_of(const DecayRateResult& x);
 Record record_of(const SensorResult& s);
 
+/// A row's first cell: the vacuum wavelength of `omega` ("    612.34 nm" on the terminal); with
+/// an empty key, terminal only.
+Cell wavelength_cell(double omega, const char* key = "wavelength_nm");
+
 /// Every output's record: the typed results above, then RunResults::records.
 std::vector<Record> records_of(const RunResults& run, const Scene& scene);
 
