@@ -382,17 +382,26 @@ void Simulation::fill_periodic_halos(bool electric) {
       // whole grid, and index arithmetic per element made the copy cost more than the update.
       const std::ptrdiff_t sa = L.stride(a), sb = L.stride(b), sc = L.stride(c);
       const std::ptrdiff_t shift = static_cast<std::ptrdiff_t>(to - from) * sa;
-      for_each_index(parallel_worth(L.n[b], L.n[c], 1), -1, L.n[c] + 1, [&](int q) {
-        const std::ptrdiff_t row = L.at(0, 0, 0) + from * sa + q * sc - sb;
-        const real* src = d + row;
-        real* dst = d + row + shift;
-        const int len = L.n[b] + 2;
-        if (sb == 1) {
-          for (int p = 0; p < len; ++p) dst[p] = sign * src[p];
-        } else {
-          for (int p = 0; p < len; ++p) dst[p * sb] = sign * src[p * sb];
+      const std::ptrdiff_t first_row = L.at(0, 0, 0) + from * sa - sc - sb;
+      const int len = L.n[b] + 2, rows = L.n[c] + 2;
+      // Rows of a thin grid are a few elements long: a plain loop with running pointers, no
+      // OpenMP region (field.h, for_each_index) unless the plane is large.
+      const auto copy_rows = [&](int q0, int q1) {
+        real* src = d + first_row + q0 * sc;
+        for (int q = q0; q < q1; ++q, src += sc) {
+          real* dst = src + shift;
+          if (sb == 1) {
+            for (int p = 0; p < len; ++p) dst[p] = sign * src[p];
+          } else {
+            for (int p = 0; p < len; ++p) dst[p * sb] = sign * src[p * sb];
+          }
         }
-      });
+      };
+      if (parallel_worth(L.n[b], L.n[c], 1)) {
+        for_each_index(true, 0, rows, [&](int q) { copy_rows(q, q + 1); });
+      } else {
+        copy_rows(0, rows);
+      }
     }
   }
 }

@@ -2,7 +2,8 @@
 // "Computational Electrodynamics", 3rd ed., ch. 3, eqs. 3.19-3.20 and 3.31), on a row length that is
 // not a multiple of the material block, with a body cutting blocks and a wall cell at i = 0, so the
 // single-material blocks, the per-cell gather and the remainder all run; and the AVX2 path against
-// the baseline path, bit for bit.
+// the baseline path, bit for bit; and a grid one cell wide along x (its own loop) against the same
+// cells inside a wide grid, bit for bit.
 #include <gtest/gtest.h>
 
 #include <cmath>
@@ -136,6 +137,63 @@ TEST(YeeKernels, Avx2AndBaselinePathsGiveTheSameBits) {
   }
   for (int c = 0; c < 6; ++c)
     EXPECT_EQ(std::memcmp(wide.c[c].data(), narrow.c[c].data(), wide.c[c].size() * sizeof(real)), 0) << "component " << c;
+}
+
+// The column at i0 of `wide` (with its x neighbours as the halo) as a grid one cell wide along x.
+struct Column {
+  Fields fields;
+  CurlCoefficients curls;
+  MaterialIndex materials;
+};
+
+Column column_of(const Fields& wide, const CurlCoefficients& cc, const MaterialIndex& mi, int i0) {
+  const BlockLayout& W = wide.layout;
+  Column col{Fields(BlockLayout::of({1, cells[1], cells[2]})), cc, {}};
+  const BlockLayout& L = col.fields.layout;
+  for (int c = 0; c < 3; ++c) col.materials.e[c].assign(L.total, 0);
+  for (int k = -1; k <= cells[2]; ++k)
+    for (int j = -1; j <= cells[1]; ++j)
+      for (int i = -1; i <= 1; ++i) {
+        for (int c = 0; c < 6; ++c) col.fields.c[c][L.at(i, j, k)] = wide.c[c][W.at(i0 + i, j, k)];
+        for (int c = 0; c < 3; ++c) col.materials.e[c][L.at(i, j, k)] = mi.e[c][W.at(i0 + i, j, k)];
+      }
+  col.curls.h[0] = {cc.h[0][i0]};
+  col.curls.e[0] = {cc.e[0][i0]};
+  return col;
+}
+
+TEST(YeeKernels, AGridOneCellWideGivesTheBitsOfTheSameCellsInAWideGrid) {
+  const CurlCoefficients cc = varied_curls();
+  const ECoefficients ec{{1.0f, 0.8f, 0.0f}, {0.5f, 0.25f, 0.0f}};
+  for (KernelIsa isa : {KernelIsa::baseline, KernelIsa::avx2}) {
+    Fields wide = smooth_fields();
+    const MaterialIndex mi = sphere_with_wall(wide.layout);
+    // i0 = 40 crosses the sphere (per-cell coefficients), i0 = 0 holds the wall, i0 = 70 is plain.
+    for (int i0 : {0, 40, 70}) {
+      Fields h_wide = wide;
+      Column col = column_of(wide, cc, mi, i0);
+      update_h(h_wide, cc, isa);
+      update_h(col.fields, col.curls, isa);
+      // E reads H at i0 - 1, which the wide grid has just updated: the column's halo takes it.
+      Column e_col = column_of(h_wide, cc, mi, i0);
+      Fields e_wide = h_wide;
+      update_e(e_wide, cc, ec, mi, isa);
+      update_e(e_col.fields, e_col.curls, ec, e_col.materials, isa);
+      const BlockLayout &W = wide.layout, &L = col.fields.layout;
+      int compared = 0;
+      for (int k = 0; k < cells[2]; ++k)
+        for (int j = 0; j < cells[1]; ++j) {
+          for (int c = 0; c < 3; ++c) {
+            const real h_expected = h_wide.c[3 + c][W.at(i0, j, k)], h_got = col.fields.c[3 + c][L.at(0, j, k)];
+            const real e_expected = e_wide.c[c][W.at(i0, j, k)], e_got = e_col.fields.c[c][L.at(0, j, k)];
+            ASSERT_EQ(std::memcmp(&h_got, &h_expected, sizeof(real)), 0) << "H" << c << " at " << i0 << "," << j << "," << k;
+            ASSERT_EQ(std::memcmp(&e_got, &e_expected, sizeof(real)), 0) << "E" << c << " at " << i0 << "," << j << "," << k;
+            compared += 2;
+          }
+        }
+      EXPECT_EQ(compared, 6 * cells[1] * cells[2]);
+    }
+  }
 }
 
 }  // namespace

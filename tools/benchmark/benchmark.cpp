@@ -1,11 +1,15 @@
-// yeegap_benchmark: in one run, the machine's memory bandwidth (STREAM triad) and the update rate
-// of the real solver on a vacuum box, for 1 thread and for all threads, and their ratio. The
-// Yee update is memory-bound, so the ratio says how close the solver comes to what memory allows.
+// yeegap_benchmark: in one run, the machine's memory bandwidth (STREAM triad), a bare fused vacuum
+// kernel and the real solver's update rate on a vacuum box, for 1 thread and for all threads; then
+// the costs of poles, averaging, field maps, memory per cell and a whole scene run. The Yee update
+// is memory-bound, so ratios to what memory and a bare kernel allow say how close the solver comes.
 #include <omp.h>
 
+#include <cmath>
 #include <cstdio>
 #include <exception>
 #include <stdexcept>
+#include <string>
+#include <utility>
 #include <vector>
 
 #include <CLI/CLI.hpp>
@@ -13,10 +17,13 @@
 
 #include "solver/real.h"
 #include "solver/engine/yee_kernels.h"
+#include "materials/library.h"
+#include "tools/benchmark/bare_kernel.h"
 #include "tools/benchmark/report.h"
 #include "tools/benchmark/stream_triad.h"
 #include "tools/benchmark/timing.h"
-#include "tools/benchmark/vacuum_rate.h"
+#include "tools/benchmark/periodic_box.h"
+#include "tools/benchmark/run_costs.h"
 
 #ifndef YEEGAP_BUILD_FLAGS
 #define YEEGAP_BUILD_FLAGS "unknown"
@@ -42,13 +49,37 @@ std::string compiler_name() {
 #endif
 }
 
+// The least bytes a step of a gold cell moves: the six field components, and per E component each
+// pole's currents read and written once (Q for a Drude pole; Q and P for Lorentz and critical
+// points, and E^{n-1} once for critical points); float storage.
+double gold_bytes_per_cell_step() {
+  const auto& p = yeegap::materials::find_material("Au")->poles;
+  const double per_component = 2.0 * sizeof(yeegap::solver::real) *
+                               (p.drude.size() + 2.0 * p.lorentz.size() + 2.0 * p.critical_points.size() +
+                                (p.critical_points.empty() ? 0 : 1));
+  return bytes_per_cell_step + 3 * per_component;
+}
+
+// Best rates of two things timed in alternating batches, so both see the same load.
+template <class A, class B>
+std::pair<std::vector<double>, std::vector<double>> alternate(int batches, A&& first, B&& second) {
+  std::vector<double> a, b;
+  for (int n = 0; n < batches; ++n) {
+    a.push_back(first());
+    b.push_back(second());
+  }
+  return {a, b};
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
   using namespace yeegap::benchmark;
   CLI::App app{"yeegap_benchmark: STREAM triad bandwidth and the solver's vacuum update rate, for 1 thread and all threads,\n"
                "and the cost of subcell averaging at a metal surface"};
-  int cells = 256, steps = 10, batches = 8, sphere_cells = 96;
+  int cells = 256, steps = 10, batches = 8, sphere_cells = 96, gold_cells = 128;
+  std::size_t triad_size = triad_elements;
+  std::string scan_scene;
   int threads = omp_get_max_threads();
   bool json = false;
   app.add_option("--cells", cells, "cells per axis of the vacuum cube")->check(CLI::Range(4, 2048))->capture_default_str();
@@ -59,6 +90,12 @@ int main(int argc, char** argv) {
       ->check(CLI::PositiveNumber)->capture_default_str();
   app.add_option("--sphere-cells", sphere_cells, "cells per axis of the averaging-cost box (0: skip it)")
       ->check(CLI::Range(0, 1024))->capture_default_str();
+  app.add_option("--gold-cells", gold_cells, "cells per axis of the gold box (pole currents; 0: skip it)")
+      ->check(CLI::Range(0, 1024))->capture_default_str();
+  app.add_option("--scene", scan_scene, "a scene to run and time as a whole, e.g. examples/spr_sensor_chip.yaml "
+                 "(scan_1d_seconds)");
+  app.add_option("--triad-elements", triad_size, "doubles per triad array (at least 4x the last-level cache)")
+      ->check(CLI::Range(std::size_t{1} << 10, std::size_t{1} << 31))->capture_default_str();
   app.add_flag("--json", json, "print one JSON object on stdout instead of the table");
   CLI11_PARSE(app, argc, argv);
 
@@ -72,7 +109,7 @@ int main(int argc, char** argv) {
     report.flags = YEEGAP_BUILD_FLAGS;
     using yeegap::solver::kernel_isa_names;
     report.kernel_isa = kernel_isa_names[static_cast<int>(yeegap::solver::resolved_kernel_isa())];
-    report.triad_elements = triad_elements;
+    report.triad_elements = triad_size;
     report.triad_repeats = triad_runs_per_batch * batches;
     report.cells = cells;
     report.warmup_steps = warmup_steps;
@@ -83,30 +120,63 @@ int main(int argc, char** argv) {
     std::vector<int> counts{1};
     if (threads > 1) counts.push_back(threads);
     omp_set_num_threads(threads);
-    TriadArrays triad(triad_elements);
+    TriadArrays triad(triad_size);
     for (int t : counts) {
       omp_set_num_threads(t);
       if (!json) std::fprintf(stderr, "measuring with %d thread%s ...\n", t, t > 1 ? "s" : "");
-      VacuumBox box(cells);
+      const std::size_t before = resident_bytes();
+      PeriodicBox box(cells, BoxFill::vacuum);
+      if (report.extras.bytes_per_cell_vacuum == 0)
+        report.extras.bytes_per_cell_vacuum = (static_cast<double>(resident_bytes()) - before) / std::pow(cells, 3.0);
       box.warm_up(warmup_steps);
+      BareVacuumBox bare(cells);
+      bare.timed_mcells_per_second(warmup_steps);
       // Triad runs and solver batches alternate, so both see the same spells of load from others.
-      std::vector<double> bandwidths, rates;
+      std::vector<double> bandwidths, rates, bare_rates;
       for (int b = 0; b < batches; ++b) {
         for (int r = 0; r < triad_runs_per_batch; ++r) bandwidths.push_back(triad.run_once());
         rates.push_back(box.timed_mcells_per_second(steps));
+        bare_rates.push_back(bare.timed_mcells_per_second(steps));
       }
       Row row;
       row.threads = t;
       row.triad_gb_per_second = spread_of(bandwidths);
       row.mcells_per_second = spread_of(rates);
+      row.bare_mcells_per_second = spread_of(bare_rates);
       row.field_hash = box.field_hash();
       row.ratio = bytes_per_cell_step * row.mcells_per_second.best * 1e6 / (row.triad_gb_per_second.best * 1e9);
       report.rows.push_back(row);
+    }
+    omp_set_num_threads(threads);
+    {
+      if (!json) std::fprintf(stderr, "measuring the cost of a field map ...\n");
+      PeriodicBox plain(cells, BoxFill::vacuum), mapped(cells, BoxFill::vacuum_with_field_map);
+      plain.warm_up(warmup_steps);
+      mapped.warm_up(warmup_steps);
+      const auto [p, m] = alternate(batches, [&] { return plain.timed_mcells_per_second(steps); },
+                                    [&] { return mapped.timed_mcells_per_second(steps); });
+      report.extras.plain_mcells = spread_of(p).best;
+      report.extras.mapped_mcells = spread_of(m).best;
+    }
+    if (gold_cells > 0) {
+      if (!json) std::fprintf(stderr, "measuring the cost of pole currents ...\n");
+      PeriodicBox gold(gold_cells, BoxFill::gold);
+      gold.warm_up(warmup_steps);
+      std::vector<double> rates;
+      for (int b = 0; b < batches; ++b) rates.push_back(gold.timed_mcells_per_second(steps));
+      report.extras.dispersive_cells = gold_cells;
+      report.extras.dispersive_mcells = spread_of(rates).best;
+      report.extras.dispersive_bytes_per_cell_step = gold_bytes_per_cell_step();
     }
     if (sphere_cells > 0) {
       omp_set_num_threads(threads);
       if (!json) std::fprintf(stderr, "measuring the cost of subcell averaging ...\n");
       report.averaging = measure_averaging_cost(sphere_cells, steps, batches);
+    }
+    if (!scan_scene.empty()) {
+      if (!json) std::fprintf(stderr, "running %s ...\n", scan_scene.c_str());
+      report.extras.scan_scene = scan_scene;
+      report.extras.scan_seconds = time_scene_run(scan_scene).seconds;
     }
     if (!triad.result_is_right()) throw std::runtime_error("the triad left wrong values in a[]");
     std::fputs((json ? json_text(report) + "\n" : table_text(report)).c_str(), stdout);

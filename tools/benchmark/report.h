@@ -14,10 +14,23 @@ namespace yeegap::benchmark {
 struct Row {
   int threads = 1;
   Spread triad_gb_per_second;
-  Spread mcells_per_second;
+  Spread mcells_per_second;       // the solver on the vacuum box
+  Spread bare_mcells_per_second;  // the bare fused kernel (bare_kernel.h) on a box of the same size
   std::uint64_t field_hash = 0;
   /// (bytes per cell-step x best update rate) / best triad bandwidth.
   double ratio = 0;
+};
+
+/// Measured with all threads, in the same run as the rows.
+struct Extras {
+  // Vacuum box alone and with a 20-frequency field map on one plane (periodic_box.h), best Mcells/s.
+  double plain_mcells = 0, mapped_mcells = 0;
+  // Box filled with gold (periodic_box.h), best Mcells/s, and the least bytes a step of it moves.
+  int dispersive_cells = 0;
+  double dispersive_mcells = 0, dispersive_bytes_per_cell_step = 0;
+  double bytes_per_cell_vacuum = 0;  // resident memory of the vacuum box over its cells
+  std::string scan_scene;            // empty: not measured
+  double scan_seconds = 0;
 };
 
 struct Report {
@@ -33,6 +46,7 @@ struct Report {
   double bytes_per_cell_step = 0;
   std::vector<Row> rows;
   AveragingCost averaging;          // with all threads; cells = 0 when not measured
+  Extras extras;
   /// Whether every row left bit-identical fields.
   bool fields_identical() const;
 };
@@ -40,7 +54,13 @@ struct Report {
 /// The processor's model name from /proc/cpuinfo, or "unknown".
 std::string cpu_model_name();
 
+/// The table, ending with the headline JSON line (summary_json).
 std::string table_text(const Report& r);
+/// One JSON object: the headline figures at its top level, then everything else.
 std::string json_text(const Report& r);
+/// The headline figures (triad_GBps, bare_fused_Mcells, vacuum_Mcells, vacuum_vs_bare, vacuum_ratio,
+/// dispersive_ratio, averaging_cost, dft_overhead, bytes_per_cell_vacuum, scan_1d_seconds, ...) as
+/// the members of a JSON object, without its braces; null for what was not measured.
+std::string summary_json(const Report& r);
 
 }  // namespace yeegap::benchmark

@@ -1,13 +1,14 @@
-// Vacuum box for the update rate (see vacuum_rate.h), its scene built in a few lines like a test's:
-// a cube of `cells` cells of 10 nm (an invented demo size: any spacing runs at the same speed),
-// periodic on all faces, vacuum only, one short dipole pulse at the centre.
-#include "tools/benchmark/vacuum_rate.h"
+// Periodic box for the update rates (see periodic_box.h), its scene built in a few lines like a
+// test's: a cube of `cells` cells of 10 nm (an invented demo size: any spacing runs at the same
+// speed), periodic on all faces, one short dipole pulse at the centre.
+#include "tools/benchmark/periodic_box.h"
 
 #include <cmath>
-#include <cstring>
 
 #include "base/constants.h"
+#include "materials/library.h"
 #include "solver/engine/simulation.h"
+#include "tools/benchmark/fingerprint.h"
 #include "tools/benchmark/timing.h"
 
 namespace yeegap::benchmark {
@@ -21,22 +22,33 @@ constexpr double cell_size = 10e-9;          // m
 constexpr double wave_amplitude = 1.0;       // V/m of each initial plane wave
 constexpr double pulse_wavelength_lo = 0.6e-6, pulse_wavelength_hi = 1.2e-6;  // m, the dipole's band
 
-solver::Scene vacuum_box(int cells) {
+solver::Scene periodic_box(int cells, BoxFill fill) {
   solver::Scene s;
   s.file = "benchmark";
-  s.title = "vacuum box for the update-rate benchmark";
+  s.title = "periodic box for the update-rate benchmark";
   s.domain.step = {cell_size, cell_size, cell_size};
   s.domain.size = {cells * cell_size, cells * cell_size, cells * cell_size};
   s.domain.edges.fill(EdgeKind::periodic);
-  solver::MaterialSpec vacuum;
-  vacuum.name = "vacuum";
-  s.materials.push_back(vacuum);
+  solver::MaterialSpec medium;
+  medium.name = fill == BoxFill::gold ? "Au" : "vacuum";
+  if (fill == BoxFill::gold) medium.poles = materials::find_material("Au")->poles;
+  s.materials.push_back(medium);
   solver::DipoleSpec d;
   d.position = s.domain.center + Vec3{0.3 * cell_size, 0.2 * cell_size, 0.1 * cell_size};  // off the nodes: 8 taps
   d.direction = {0, 0, 1};
   d.waveform.omega_min = 2 * constants::pi * constants::c0 / pulse_wavelength_hi;
   d.waveform.omega_max = 2 * constants::pi * constants::c0 / pulse_wavelength_lo;
   s.dipoles.push_back(d);
+  if (fill == BoxFill::vacuum_with_field_map) {
+    solver::FieldMapSpec map;
+    map.name = "centre plane";
+    map.region.lo = {-0.5 * s.domain.size.x, -0.5 * s.domain.size.y, 0.0};
+    map.region.hi = {0.5 * s.domain.size.x, 0.5 * s.domain.size.y, 0.0};
+    for (int q = 0; q < field_map_frequencies; ++q)
+      map.omegas.push_back(d.waveform.omega_min + (d.waveform.omega_max - d.waveform.omega_min) * q / (field_map_frequencies - 1));
+    map.components = {Component::Ex, Component::Ey, Component::Ez, Component::Hx, Component::Hy, Component::Hz};
+    s.field_maps.push_back(map);
+  }
   s.stop.max_steps = 1;  // run() is not used; step() is called directly
   return s;
 }
@@ -62,43 +74,31 @@ void fill_plane_waves(solver::Fields& f, int cells) {
       }
 }
 
-// 64-bit FNV-1a (Fowler, Noll and Vo; common practice for a quick fingerprint), taken over 8-byte
-// words rather than bytes to be eight times faster: any differing bit changes it with near certainty.
 std::uint64_t hash_of(const solver::Fields& f) {
-  constexpr std::uint64_t offset_basis = 14695981039346656037ull, prime = 1099511628211ull;
-  std::uint64_t h = offset_basis;
-  for (const auto& comp : f.c) {
-    const auto* p = reinterpret_cast<const unsigned char*>(comp.data());
-    const std::size_t n = comp.size() * sizeof(solver::real);
-    std::size_t b = 0;
-    for (; b + 8 <= n; b += 8) {
-      std::uint64_t w;
-      std::memcpy(&w, p + b, 8);
-      h = (h ^ w) * prime;
-    }
-    for (; b < n; ++b) h = (h ^ p[b]) * prime;
-  }
+  std::uint64_t h = fingerprint_start;
+  for (const auto& comp : f.c) h = fingerprint(h, comp.data(), comp.size() * sizeof(solver::real));
   return h;
 }
 
 }  // namespace
 
-VacuumBox::VacuumBox(int cells) : sim_(std::make_unique<solver::Simulation>(vacuum_box(cells))) {
+PeriodicBox::PeriodicBox(int cells, BoxFill fill)
+    : sim_(std::make_unique<solver::Simulation>(periodic_box(cells, fill))) {
   fill_plane_waves(sim_->fields(), cells);
 }
 
-VacuumBox::~VacuumBox() = default;
+PeriodicBox::~PeriodicBox() = default;
 
-void VacuumBox::warm_up(int steps) {
+void PeriodicBox::warm_up(int steps) {
   for (int s = 0; s < steps; ++s) sim_->step();
 }
 
-double VacuumBox::timed_mcells_per_second(int steps) {
+double PeriodicBox::timed_mcells_per_second(int steps) {
   const auto t0 = std::chrono::steady_clock::now();
   for (int s = 0; s < steps; ++s) sim_->step();
   return static_cast<double>(sim_->grid().cell_count()) * steps / seconds_since(t0) * 1e-6;
 }
 
-std::uint64_t VacuumBox::field_hash() const { return hash_of(sim_->fields()); }
+std::uint64_t PeriodicBox::field_hash() const { return hash_of(sim_->fields()); }
 
 }  // namespace yeegap::benchmark
