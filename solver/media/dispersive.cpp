@@ -3,13 +3,15 @@
 // point's E^{n+1} share is implicit: folded into ca, cb (material_map.cpp), completed after update_e.
 // Stable for any damping: the Drude factor tends to -1 from above as g dt grows (physics.md 1.4).
 #include "solver/media/dispersive.h"
-#include "solver/engine/simulation_state.h"
+
+#include <algorithm>
 
 #include <fmt/format.h>
 
 #include "base/constants.h"
 #include "base/errors.h"
 #include "materials/discrete_permittivity.h"
+#include "solver/engine/simulation_state.h"
 
 namespace yeegap::solver {
 
@@ -98,38 +100,67 @@ DispersiveCurrents::Group& DispersiveCurrents::group_of(int material) {
   throw RunError(fmt::format("material {} has no dispersive cells in this block", material));
 }
 
+namespace {
+
+// Cells per block of the passes: each block gathers its E values once into a buffer that every
+// pole then reads, so a material with six poles reads the offsets and E once per step instead of
+// six times, and the pole loops run over contiguous arrays (vectorised). The arithmetic of each
+// cell is the same as pole by pole, so are the bits. 256 floats: the buffers stay in L1.
+constexpr std::size_t cell_block = 256;
+
+// body(b0, b1) for the blocks of [lo, hi), over the threads when `parallel`.
+template <class Body>
+void for_each_block(bool parallel, std::size_t lo, std::size_t hi, const Body& body) {
+  const std::size_t blocks = (hi - lo + cell_block - 1) / cell_block;
+  for_each_index(parallel, std::size_t{0}, blocks, [&](std::size_t b) {
+    const std::size_t b0 = lo + b * cell_block;
+    body(b0, std::min(hi, b0 + cell_block));
+  });
+}
+
+}  // namespace
+
 void DispersiveCurrents::advance(const Fields& f) {
   for (Group& g : groups_) {
     for (int c = 0; c < 3; ++c) {
       const real* __restrict e = f.c[c].data();
       const std::ptrdiff_t* __restrict off = g.offset.data();
       const std::size_t lo = g.start[c], hi = g.start[c + 1];
-      const bool par = parallel_worth(static_cast<long long>(hi - lo));
-      for (Pole& p : g.drude) {
-        real* __restrict q = p.q.data();
-        const Coefficient &cq = p.cq, &ce = p.ce;
-        for_each_index(par, lo, hi, [&](std::size_t i) { q[i] = cq.at(i) * q[i] + ce.at(i) * e[off[i]]; });
-      }
-      for (Pole& p : g.lorentz) {
-        real* __restrict q = p.q.data();
-        real* __restrict pp = p.p.data();
-        const real cq = p.cq.at(0), cp = p.cp.at(0), ce = p.ce.at(0);
-        for_each_index(par, lo, hi, [&](std::size_t i) {
-          q[i] = cq * q[i] + cp * pp[i] + ce * e[off[i]];
-          pp[i] += q[i];
-        });
-      }
-      if (g.critical.empty()) continue;
-      real* __restrict prev = g.e_previous.data();
-      for (Pole& p : g.critical) {
-        // Explicit part Q*; correct() adds the E^{n+1} share and advances P.
-        real* __restrict q = p.q.data();
-        const real* __restrict pp = p.p.data();
-        const real cq = p.cq.at(0), cp = p.cp.at(0), ce = p.ce.at(0), cm = p.cm.at(0);
-        for_each_index(par, lo, hi,
-                       [&](std::size_t i) { q[i] = cq * q[i] + cp * pp[i] + ce * e[off[i]] + cm * prev[i]; });
-      }
-      for_each_index(par, lo, hi, [&](std::size_t i) { prev[i] = e[off[i]]; });  // E^n becomes next step's E^{n-1}
+      for_each_block(parallel_worth(static_cast<long long>(hi - lo)), lo, hi, [&](std::size_t b0, std::size_t b1) {
+        const std::size_t n = b1 - b0;
+        alignas(64) real eb[cell_block];
+        for (std::size_t i = 0; i < n; ++i) eb[i] = e[off[b0 + i]];
+        for (Pole& p : g.drude) {
+          real* __restrict q = p.q.data() + b0;
+          if (p.cq.stride == 0) {
+            const real cq = p.cq.at(0), ce = p.ce.at(0);
+            for (std::size_t i = 0; i < n; ++i) q[i] = cq * q[i] + ce * eb[i];
+          } else {  // per-cell dampings (tunnelling gaps)
+            const real* __restrict cq = p.cq.value.data() + b0;
+            const real* __restrict ce = p.ce.value.data() + b0;
+            for (std::size_t i = 0; i < n; ++i) q[i] = cq[i] * q[i] + ce[i] * eb[i];
+          }
+        }
+        for (Pole& p : g.lorentz) {
+          real* __restrict q = p.q.data() + b0;
+          real* __restrict pp = p.p.data() + b0;
+          const real cq = p.cq.at(0), cp = p.cp.at(0), ce = p.ce.at(0);
+          for (std::size_t i = 0; i < n; ++i) {
+            q[i] = cq * q[i] + cp * pp[i] + ce * eb[i];
+            pp[i] += q[i];
+          }
+        }
+        if (g.critical.empty()) return;
+        real* __restrict prev = g.e_previous.data() + b0;
+        for (Pole& p : g.critical) {
+          // Explicit part Q*; correct() adds the E^{n+1} share and advances P.
+          real* __restrict q = p.q.data() + b0;
+          const real* __restrict pp = p.p.data() + b0;
+          const real cq = p.cq.at(0), cp = p.cp.at(0), ce = p.ce.at(0), cm = p.cm.at(0);
+          for (std::size_t i = 0; i < n; ++i) q[i] = cq * q[i] + cp * pp[i] + ce * eb[i] + cm * prev[i];
+        }
+        for (std::size_t i = 0; i < n; ++i) prev[i] = eb[i];  // E^n becomes next step's E^{n-1}
+      });
     }
   }
 }
@@ -139,28 +170,32 @@ void DispersiveCurrents::correct(Fields& f) {
     std::vector<const real*> currents;
     for (const auto* list : {&g.drude, &g.lorentz, &g.critical})
       for (const Pole& p : *list) currents.push_back(p.q.data());
-    const std::size_t np = currents.size();
-    const real* const* cur = currents.data();
     const real corr = g.correction;
     for (int c = 0; c < 3; ++c) {
       real* __restrict e = f.c[c].data();
       const std::ptrdiff_t* __restrict off = g.offset.data();
       const std::size_t lo = g.start[c], hi = g.start[c + 1];
-      const bool par = parallel_worth(static_cast<long long>(hi - lo));
-      for_each_index(par, lo, hi, [&](std::size_t i) {
-        real sum = 0;
-        for (std::size_t k = 0; k < np; ++k) sum += cur[k][i];
-        e[off[i]] -= corr * sum;
+      for_each_block(parallel_worth(static_cast<long long>(hi - lo)), lo, hi, [&](std::size_t b0, std::size_t b1) {
+        const std::size_t n = b1 - b0;
+        // Summed pole by pole in the lists' order, as one cell at a time would.
+        alignas(64) real sum[cell_block] = {};
+        for (const real* cur : currents)
+          for (std::size_t i = 0; i < n; ++i) sum[i] += cur[b0 + i];
+        alignas(64) real eb[cell_block];  // E^{n+1}
+        for (std::size_t i = 0; i < n; ++i) {
+          eb[i] = e[off[b0 + i]] - corr * sum[i];
+          e[off[b0 + i]] = eb[i];
+        }
+        for (Pole& p : g.critical) {
+          real* __restrict q = p.q.data() + b0;
+          real* __restrict pp = p.p.data() + b0;
+          const real implicit = p.implicit;
+          for (std::size_t i = 0; i < n; ++i) {
+            q[i] += implicit * eb[i];
+            pp[i] += q[i];
+          }
+        }
       });
-      for (Pole& p : g.critical) {
-        real* __restrict q = p.q.data();
-        real* __restrict pp = p.p.data();
-        const real implicit = p.implicit;
-        for_each_index(par, lo, hi, [&](std::size_t i) {
-          q[i] += implicit * e[off[i]];
-          pp[i] += q[i];
-        });
-      }
     }
   }
 }
