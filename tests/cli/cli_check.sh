@@ -30,6 +30,14 @@ expect cross_section_margin 2 "sweep point 0 \(spacer = 2 nm, model = classical\
 expect check_json 0 '"cells": 512000.*"memory_bytes": [0-9]+.*"time_step_s": [0-9.e-]+.*"steps": [0-9]+' -- \
   "$yeegap" check "$src/examples/dipole_near_sphere.yaml" --json
 
+# check's time estimate: from this scene's own steps, timed for about a second; --quick assumes a rate.
+expect check_timed 0 '"estimated_seconds": [0-9.e+-]+, "cell_updates_per_second": [0-9.e+]+, "rate_source": "timed", "setup_seconds": [0-9.e+-]+, "timed_steps": [1-9][0-9]*' -- \
+  "$yeegap" check "$src/examples/gold_grating.yaml" --json
+expect check_timed_text 0 "cost +about .* cell updates: [0-9.]+ s at [0-9.]+ Mcells/s, this machine's rate for this scene \([0-9]+ steps timed" -- \
+  "$yeegap" check "$src/examples/gold_grating.yaml"
+expect check_quick 0 '"cell_updates_per_second": 100000000, "rate_source": "assumed", "setup_seconds": 0, "timed_steps": 0' -- \
+  "$yeegap" check "$src/examples/gold_grating.yaml" --json --quick
+
 # A missing file, a bad option.
 expect missing_file 2 "nothing.yaml" -- "$yeegap" check "$work/nothing.yaml"
 expect unknown_option 2 "" -- "$yeegap" run --no-such-option x.yaml

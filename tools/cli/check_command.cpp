@@ -1,5 +1,6 @@
 // `yeegap check SCENE`: validates the scene and prints the grid, time step, steps, memory and a
-// cost estimate without running anything (and without allocating the fields).
+// cost estimate. The estimate steps the run for about a second to measure this machine's rate for
+// this scene (check_timing.h); `--quick` skips that and allocates nothing.
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
@@ -8,6 +9,7 @@
 #include <fmt/format.h>
 
 #include "base/errors.h"
+#include "check_timing.h"
 #include "commands.h"
 #include "io/scene/scene_reader.h"
 #include "json.h"
@@ -18,9 +20,11 @@ namespace yeegap::cli {
 
 namespace {
 
-// Cell updates per second assumed for the time estimate until the benchmark figure of this
-// machine is known: a conservative figure for two cores (docs/performance.md).
+// Cell updates per second assumed by `check --quick` (and where the run is not timed): a 3D vacuum
+// rate of two cores; 1D stacks, poles and averaging run several times slower (docs/performance.md).
 constexpr double assumed_cell_updates_per_second = 1.0e8;
+// Seconds of stepping that `check` times.
+constexpr double timing_budget_seconds = 1.0;
 // Gaps listed one per line before the rest are summed up.
 constexpr std::size_t gaps_listed = 12;
 
@@ -28,8 +32,58 @@ struct CheckOptions {
   std::string scene;
   std::vector<std::string> overrides;
   bool json = false;
+  bool quick = false;
   std::string memory;
 };
+
+// How the time estimate was made.
+struct Rate {
+  double cell_updates_per_second = assumed_cell_updates_per_second;
+  double setup_seconds = 0;
+  std::optional<StepTiming> timing;  // empty: assumed
+  std::string why_assumed;           // when not timed
+  double seconds(double cell_updates) const { return setup_seconds + cell_updates / cell_updates_per_second; }
+};
+
+Rate measure_rate(const CheckOptions& o, const solver::RunPlan& plan) {
+  Rate r;
+  if (o.quick) {
+    r.why_assumed = "--quick";
+    return r;
+  }
+  try {
+    refuse_if_over_memory(static_cast<double>(plan.summary.memory_bytes),
+                          o.memory.empty() ? std::nullopt : parse_memory_size(o.memory));
+  } catch (const RunError&) {
+    r.why_assumed = "not timed: the run would not fit in memory";
+    return r;
+  }
+  const StepTiming t = time_steps(plan, timing_budget_seconds);
+  if (!(t.cell_updates_per_second > 0)) {
+    r.why_assumed = "not timed: the run ended before a step could be timed";
+    return r;
+  }
+  r.timing = t;
+  r.cell_updates_per_second = t.cell_updates_per_second;
+  r.setup_seconds = t.setup_seconds;
+  return r;
+}
+
+// "42 s", "7.5 min", "3.2 h".
+std::string duration_text(double s) {
+  if (s < 10) return fmt::format("{:.2g} s", s);
+  if (s < 120) return fmt::format("{:.0f} s", s);
+  if (s < 7200) return fmt::format("{:.2g} min", s / 60);
+  return fmt::format("{:.2g} h", s / 3600);
+}
+
+std::string rate_text(const Rate& r) {
+  if (!r.timing)
+    return fmt::format("at an assumed {:.0f} Mcells/s ({})", r.cell_updates_per_second / 1e6, r.why_assumed);
+  return fmt::format("at {:.3g} Mcells/s, this machine's rate for this scene ({} steps timed in {:.2f} s after a "
+                     "{:.2f} s set-up; --quick skips the timing)",
+                     r.cell_updates_per_second / 1e6, r.timing->timed_steps, r.timing->timed_seconds, r.setup_seconds);
+}
 
 std::vector<std::string> gap_rows(const solver::ModelSummary& m) {
   std::vector<std::string> rows;
@@ -100,7 +154,7 @@ SweepCost sweep_cost(const std::string& text, const CheckOptions& o, const io::S
         .text("values", plan.describe(k))
         .number("cells", static_cast<double>(m.cell_count))
         .number("steps", static_cast<double>(m.steps))
-        .number("estimated_seconds", cell_updates(m) / assumed_cell_updates_per_second);
+        .number("cell_updates", cell_updates(m));
     c.rows.push_back(row.str());
   }
   return c;
@@ -108,7 +162,7 @@ SweepCost sweep_cost(const std::string& text, const CheckOptions& o, const io::S
 
 // `check --json`: the same figures as one object on stdout.
 void print_json(const CheckOptions& o, const solver::Scene& scene, const solver::RunPlan& run_plan,
-                const std::optional<SweepCost>& sweep, double uniform, double cost_seconds) {
+                const std::optional<SweepCost>& sweep, double uniform, const Rate& rate) {
   const solver::ModelSummary& m = run_plan.summary;
   JsonObject j;
   if (sweep) {
@@ -116,7 +170,7 @@ void print_json(const CheckOptions& o, const solver::Scene& scene, const solver:
     s.number("points", static_cast<double>(sweep->points))
         .text("combine", sweep->combine)
         .number("cell_updates", sweep->cell_updates)
-        .number("estimated_seconds", sweep->cell_updates / assumed_cell_updates_per_second)
+        .number("estimated_seconds", rate.seconds(sweep->cell_updates) + (sweep->points - 1) * rate.setup_seconds)
         .number("largest_memory_bytes", static_cast<double>(sweep->memory_bytes))
         .add("per_point", json_array(sweep->rows));
     j.add("sweep", s.str());
@@ -142,7 +196,11 @@ void print_json(const CheckOptions& o, const solver::Scene& scene, const solver:
       .number("courant_limit_s", m.courant_limit)
       .number("steps", static_cast<double>(m.steps))
       .add("steps_estimated", m.steps_estimated ? "true" : "false")
-      .number("estimated_seconds", cost_seconds);
+      .number("estimated_seconds", rate.seconds(cell_updates(m)))
+      .number("cell_updates_per_second", rate.cell_updates_per_second)
+      .text("rate_source", rate.timing ? "timed" : "assumed")
+      .number("setup_seconds", rate.setup_seconds)
+      .number("timed_steps", rate.timing ? static_cast<double>(rate.timing->timed_steps) : 0.0);
   std::printf("%s\n", j.str().c_str());
 }
 
@@ -157,20 +215,17 @@ int run_check(const CheckOptions& o) {
                                                                   [](const std::string&) {});
   const solver::RunPlan run_plan = solver::plan_run(scene);
   const solver::ModelSummary& m = run_plan.summary;
-  const double cost_seconds = cell_updates(m) / assumed_cell_updates_per_second;
   const double uniform = uniform_cells_at(scene, m);
   if (o.json) {
-    print_json(o, scene, run_plan, sweep, uniform, cost_seconds);
+    print_json(o, scene, run_plan, sweep, uniform, measure_rate(o, run_plan));
     return exit_ok;
   }
   std::fprintf(stderr, "%s: valid\n", o.scene.c_str());
   if (sweep) {
-    const double seconds = sweep->cell_updates / assumed_cell_updates_per_second;
     std::fprintf(stderr, "  sweep       %zu points (%s), %lld to %lld cells each\n", sweep->points, sweep->combine.c_str(),
                  sweep->fewest_cells, sweep->most_cells);
-    std::fprintf(stderr, "  sweep cost  about %.3g cell updates in all, %.3g s at %.0f Mcells/s (one point at a time; "
-                 "largest point %.1f MB)\n", sweep->cell_updates, seconds, assumed_cell_updates_per_second / 1e6,
-                 sweep->memory_bytes / 1e6);
+    std::fprintf(stderr, "  sweep cost  about %.3g cell updates in all, one point at a time (largest point %.1f MB); "
+                 "time below\n", sweep->cell_updates, sweep->memory_bytes / 1e6);
     std::fprintf(stderr, "  below: point 0 (%s)\n", plan.describe(0).c_str());
   }
   std::fprintf(stderr, "  run         %s\n", run_plan.description().c_str());
@@ -212,8 +267,14 @@ int run_check(const CheckOptions& o) {
   } catch (const RunError& e) {
     std::fprintf(stderr, "  warning     %s: `run` here would refuse it\n", e.what());
   }
-  std::fprintf(stderr, "  cost        about %.3g cell updates, %.0f s at %.0f Mcells/s\n",
-               static_cast<double>(m.cell_count) * m.steps, cost_seconds, assumed_cell_updates_per_second / 1e6);
+  const Rate rate = measure_rate(o, run_plan);
+  std::fprintf(stderr, "  cost        about %.3g cell updates: %s%s %s\n", cell_updates(m),
+               m.steps_estimated ? "about " : "", duration_text(rate.seconds(cell_updates(m))).c_str(),
+               rate_text(rate).c_str());
+  if (sweep)
+    std::fprintf(stderr, "  sweep time  %s%s for all %zu points at point 0's rate\n", m.steps_estimated ? "about " : "",
+                 duration_text(rate.seconds(sweep->cell_updates) + (sweep->points - 1) * rate.setup_seconds).c_str(),
+                 sweep->points);
   return exit_ok;
 }
 
@@ -227,6 +288,8 @@ void add_check_command(CLI::App& app, int& exit_code) {
   cmd->add_option("scene", opts->scene, "scene file (YAML)")->required();
   cmd->add_option("--set", opts->overrides, "override a scene value, e.g. --set domain.step=2nm (repeatable)");
   cmd->add_flag("--json", opts->json, "print one JSON object on stdout");
+  cmd->add_flag("--quick", opts->quick,
+                "do not step the run for a second to time it: estimate the cost at an assumed 100 Mcells/s");
   add_memory_option(*cmd, opts->memory);
   cmd->callback([opts, &exit_code] { exit_code = guarded([&] { return run_check(*opts); }); });
 }
