@@ -90,6 +90,7 @@ DispersiveCurrents::DispersiveCurrents(const Scene& s, const BlockLayout& L, con
       g.critical.push_back(std::move(p));
     }
     if (!g.critical.empty()) g.e_previous.assign(n, real(0));
+    g.current_sum.assign(n, real(0));
     groups_.push_back(std::move(g));
   }
 }
@@ -150,16 +151,25 @@ void DispersiveCurrents::advance(const Fields& f) {
             pp[i] += q[i];
           }
         }
-        if (g.critical.empty()) return;
-        real* __restrict prev = g.e_previous.data() + b0;
-        for (Pole& p : g.critical) {
-          // Explicit part Q*; correct() adds the E^{n+1} share and advances P.
-          real* __restrict q = p.q.data() + b0;
-          const real* __restrict pp = p.p.data() + b0;
-          const real cq = p.cq.at(0), cp = p.cp.at(0), ce = p.ce.at(0), cm = p.cm.at(0);
-          for (std::size_t i = 0; i < n; ++i) q[i] = cq * q[i] + cp * pp[i] + ce * eb[i] + cm * prev[i];
+        if (!g.critical.empty()) {
+          real* __restrict prev = g.e_previous.data() + b0;
+          for (Pole& p : g.critical) {
+            // Explicit part Q*; correct() adds the E^{n+1} share and advances P.
+            real* __restrict q = p.q.data() + b0;
+            const real* __restrict pp = p.p.data() + b0;
+            const real cq = p.cq.at(0), cp = p.cp.at(0), ce = p.ce.at(0), cm = p.cm.at(0);
+            for (std::size_t i = 0; i < n; ++i) q[i] = cq * q[i] + cp * pp[i] + ce * eb[i] + cm * prev[i];
+          }
+          for (std::size_t i = 0; i < n; ++i) prev[i] = eb[i];  // E^n becomes next step's E^{n-1}
         }
-        for (std::size_t i = 0; i < n; ++i) prev[i] = eb[i];  // E^n becomes next step's E^{n-1}
+        // Summed pole by pole in the lists' order, as one cell at a time would.
+        real* __restrict sum = g.current_sum.data() + b0;
+        for (std::size_t i = 0; i < n; ++i) sum[i] = 0;
+        for (const auto* list : {&g.drude, &g.lorentz, &g.critical})
+          for (const Pole& p : *list) {
+            const real* __restrict q = p.q.data() + b0;
+            for (std::size_t i = 0; i < n; ++i) sum[i] += q[i];
+          }
       });
     }
   }
@@ -167,9 +177,6 @@ void DispersiveCurrents::advance(const Fields& f) {
 
 void DispersiveCurrents::correct(Fields& f) {
   for (Group& g : groups_) {
-    std::vector<const real*> currents;
-    for (const auto* list : {&g.drude, &g.lorentz, &g.critical})
-      for (const Pole& p : *list) currents.push_back(p.q.data());
     const real corr = g.correction;
     for (int c = 0; c < 3; ++c) {
       real* __restrict e = f.c[c].data();
@@ -177,10 +184,7 @@ void DispersiveCurrents::correct(Fields& f) {
       const std::size_t lo = g.start[c], hi = g.start[c + 1];
       for_each_block(parallel_worth(static_cast<long long>(hi - lo)), lo, hi, [&](std::size_t b0, std::size_t b1) {
         const std::size_t n = b1 - b0;
-        // Summed pole by pole in the lists' order, as one cell at a time would.
-        alignas(64) real sum[cell_block] = {};
-        for (const real* cur : currents)
-          for (std::size_t i = 0; i < n; ++i) sum[i] += cur[b0 + i];
+        const real* __restrict sum = g.current_sum.data() + b0;
         alignas(64) real eb[cell_block];  // E^{n+1}
         for (std::size_t i = 0; i < n; ++i) {
           eb[i] = e[off[b0 + i]] - corr * sum[i];
@@ -246,7 +250,7 @@ std::vector<double> DispersiveCurrents::drude_damping(int material, int pole) co
 std::size_t DispersiveCurrents::memory_bytes() const {
   std::size_t bytes = 0;
   for (const Group& g : groups_) {
-    bytes += g.offset.size() * sizeof(std::ptrdiff_t) + g.e_previous.size() * sizeof(real);
+    bytes += g.offset.size() * sizeof(std::ptrdiff_t) + (g.e_previous.size() + g.current_sum.size()) * sizeof(real);
     for (const auto* list : {&g.drude, &g.lorentz, &g.critical})
       for (const Pole& p : *list) {
         bytes += (p.q.size() + p.p.size()) * sizeof(real);

@@ -80,6 +80,10 @@ class DispersiveCurrents {
     real correction = 0;                       // cb eps0 / dt: E -= correction * sum Q
     std::vector<Pole> drude, lorentz, critical;
     AlignedVector<real> e_previous;            // E^{n-1}, only when the material has critical points
+    // Sum over the poles of Q^{n+1/2} (the explicit part for critical points), left by advance()
+    // for correct() in the same step, so correct() reads one array instead of every pole's again.
+    // Never carried across steps, so not part of a checkpoint.
+    AlignedVector<real> current_sum;
   };
   Group& group_of(int material);
 

@@ -28,6 +28,7 @@ struct Extras {
   // Box filled with gold (periodic_box.h), best Mcells/s, and the least bytes a step of it moves.
   int dispersive_cells = 0;
   double dispersive_mcells = 0, dispersive_bytes_per_cell_step = 0;
+  double dispersive_triad_GBps = 0;  // best triad between the gold box's batches
   double bytes_per_cell_vacuum = 0;  // resident memory of the vacuum box over its cells
   std::string scan_scene;            // empty: not measured
   double scan_seconds = 0;
