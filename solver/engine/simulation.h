@@ -100,6 +100,8 @@ class Simulation : public Checkpointable {
   const Grid& grid() const override { return grid_; }
   Fields& fields() { return fields_; }
   double dt() const override { return dt_; }
+  /// Steps between running-DFT samples (recorders sum their DFTs on every such step only).
+  long dft_sample_stride() const { return dft_stride_; }
   const Scene& scene() const { return scene_; }
   const CurlCoefficients& curls() const { return curls_; }
   const ECoefficients& e_update_coefficients() const { return ecoef_; }

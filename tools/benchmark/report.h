@@ -23,8 +23,9 @@ struct Row {
 
 /// Measured with all threads, in the same run as the rows.
 struct Extras {
-  // Vacuum box alone and with a 20-frequency field map on one plane (periodic_box.h), best Mcells/s.
-  double plain_mcells = 0, mapped_mcells = 0;
+  // Seconds per step of the vacuum box, and what a 20-frequency field map on one plane adds to it
+  // (periodic_box.h); the least of each over the batches.
+  double step_seconds = 0, field_map_seconds = 0;
   // Box filled with gold (periodic_box.h), best Mcells/s, and the least bytes a step of it moves.
   int dispersive_cells = 0;
   double dispersive_mcells = 0, dispersive_bytes_per_cell_step = 0;
