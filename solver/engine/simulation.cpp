@@ -107,8 +107,9 @@ CurlCoefficients plain_curls(const Grid& g, double dt) {
 
 // The refined gaps with the number of cells across each, counted along the axis the gap spans most.
 // Dispersive currents: per E location of a dispersive material its field offset, the previous E, the
-// sum of the currents and two numbers per pole (dispersive.cpp). Counted over each dispersive body's box clipped to the
-// grid (exact for slabs, about 1.9x a sphere): an upper bound, so a memory check errs on the safe side.
+// sum of the currents and two numbers per pole (dispersive.cpp). Counted over each dispersive body's
+// box clipped to the grid (exact for slabs, about 1.9x a sphere): an upper bound, so a memory check
+// errs on the safe side.
 std::size_t dispersive_bytes_bound(const Scene& s, const Grid& g) {
   auto per_location = [&](int material) -> std::size_t {
     const materials::PoleSet& p = s.materials.at(static_cast<std::size_t>(material)).poles;

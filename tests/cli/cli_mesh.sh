@@ -9,7 +9,7 @@ src=$2
 fails=0
 fail() { echo "FAIL $*"; fails=$((fails + 1)); }
 
-json=$("$yeegap" check "$src/examples/dimer_gap_mesh.yaml" --json) || { echo "FAIL: check exited with $?"; exit 1; }
+json=$("$yeegap" check "$src/examples/dimer_gap_mesh.yaml" --json --quick) || { echo "FAIL: check exited with $?"; exit 1; }
 num() { sed -n "s/.*\"$1\": \\([-0-9.e+]*\\).*/\\1/p" <<<"$json"; }
 cells=$(num cells)
 uniform=$(num uniform_cells_at_smallest)
@@ -26,7 +26,7 @@ awk -v u="$uniform" 'BEGIN { want = 2720 * 2080 * 2080; exit !(u == want) }' || 
 awk -v c="$cells" -v u="$uniform" 'BEGIN { exit !(u / c >= 50) }' || fail "graded $cells vs uniform $uniform: less than 50x"
 echo "graded cells $cells, uniform at the gap step $uniform, ratio $(awk -v c="$cells" -v u="$uniform" 'BEGIN { printf "%.0f", u / c }')"
 
-text=$("$yeegap" check "$src/examples/dimer_gap_mesh.yaml" 2>&1) || fail "human check exited with $?"
+text=$("$yeegap" check "$src/examples/dimer_gap_mesh.yaml" --quick 2>&1) || fail "human check exited with $?"
 grep -qE "^  x axis +[0-9]+ cells, 0\.125 to 5 nm" <<<"$text" || fail "no x axis line: $text"
 grep -qE "^  gaps? +bodies 0 and 1: 0\.5 nm" <<<"$text" || fail "no gap line: $text"
 grep -qE "uniform" <<<"$text" || fail "no uniform comparison: $text"

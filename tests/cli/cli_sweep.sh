@@ -160,8 +160,8 @@ for n, v in zip(names, p["sweep/figure_values"][:]):
 '
 
 # check: the number of points and the cost of all of them.
-expect check_sweep 0 "sweep +3 points \(grid\)" -- "$yeegap" check "$work/cyl.yaml"
-expect check_sweep_json 0 '"sweep": \{"points": 3, "combine": "grid", "cell_updates": [0-9.e+]+' -- "$yeegap" check "$work/cyl.yaml" --json
+expect check_sweep 0 "sweep +3 points \(grid\)" -- "$yeegap" check "$work/cyl.yaml" --quick
+expect check_sweep_json 0 '"sweep": \{"points": 3, "combine": "grid", "cell_updates": [0-9.e+]+' -- "$yeegap" check "$work/cyl.yaml" --json --quick
 
 # The Slurm script: an array of 3 tasks, each running one point; valid shell.
 expect batch_slurm 0 "sbatch --dependency=afterok" -- "$yeegap" sweep "$work/cyl.yaml" --batch slurm -o "$work/batch" --threads 2

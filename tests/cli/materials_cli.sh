@@ -178,14 +178,14 @@ excitation: {dipole: {position: [0, 0, 80 nm], direction: z, band: {from: 450 nm
 stop: {after: 10 fs}
 EOF
 cat "$work/head.yaml" "$work/snippet.yaml" >"$work/fitted_scene.yaml"
-expect snippet_parses_in_a_scene 0 "fitted_scene.yaml: valid" -- "$yeegap" check "$work/fitted_scene.yaml"
+expect snippet_parses_in_a_scene 0 "fitted_scene.yaml: valid" -- "$yeegap" check "$work/fitted_scene.yaml" --quick
 
 # The same table named in a scene (relative to the scene file) is fitted on load, with the error on stderr.
 mkdir -p "$work/tables"
 cp "$work/gold_like.csv" "$work/tables/"
 cp "$work/head.yaml" "$work/table_scene.yaml"
 printf 'materials:\n  fitted_gold: {table: tables/gold_like.csv, poles: 2}\n' >>"$work/table_scene.yaml"
-expect table_scene_reports_fit 0 "table_scene.yaml:7:24: note: materials.fitted_gold: fitted 1 Drude \+ 2 Lorentz poles to 'tables/gold_like.csv' \(40 rows, 400 nm to 1000 nm\): RMS" -- "$yeegap" check "$work/table_scene.yaml"
+expect table_scene_reports_fit 0 "table_scene.yaml:7:24: note: materials.fitted_gold: fitted 1 Drude \+ 2 Lorentz poles to 'tables/gold_like.csv' \(40 rows, 400 nm to 1000 nm\): RMS" -- "$yeegap" check "$work/table_scene.yaml" --quick
 
 # Bad tables: file:line:column, exit code 2.
 printf 'wavelength_nm,n,k\n400,1.5,0.1\n500,1.4,0.1\n600,1.3,-0.1\n' >"$work/gain.csv"

@@ -42,7 +42,8 @@ BareVacuumBox::BareVacuumBox(int cells) : n_(cells) {
 }
 
 void BareVacuumBox::h_row(int j, int k) {
-  const std::size_t o = at(1, j, k), sy = sy_, sz = sz_;
+  const std::size_t o = at(1, j, k);
+  const auto sy = static_cast<std::ptrdiff_t>(sy_), sz = static_cast<std::ptrdiff_t>(sz_);
   float* __restrict hx = hx_.data() + o;
   float* __restrict hy = hy_.data() + o;
   float* __restrict hz = hz_.data() + o;
@@ -58,7 +59,9 @@ void BareVacuumBox::h_row(int j, int k) {
 }
 
 void BareVacuumBox::e_row(int j, int k) {
-  const std::size_t o = at(1, j, k), sy = sy_, sz = sz_;
+  const std::size_t o = at(1, j, k);
+  // Signed strides: E reads H at i - sy and i - sz, which unsigned arithmetic would wrap.
+  const auto sy = static_cast<std::ptrdiff_t>(sy_), sz = static_cast<std::ptrdiff_t>(sz_);
   float* __restrict ex = ex_.data() + o;
   float* __restrict ey = ey_.data() + o;
   float* __restrict ez = ez_.data() + o;

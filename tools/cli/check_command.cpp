@@ -25,6 +25,9 @@ namespace {
 constexpr double assumed_cell_updates_per_second = 1.0e8;
 // Seconds of stepping that `check` times.
 constexpr double timing_budget_seconds = 1.0;
+// Above this memory a run is not built just to time it: on a shared login node, or for a run
+// meant for a cluster, a validation should not take minutes and gigabytes.
+constexpr double largest_timed_bytes = 4e9;
 // Gaps listed one per line before the rest are summed up.
 constexpr std::size_t gaps_listed = 12;
 
@@ -56,6 +59,11 @@ Rate measure_rate(const CheckOptions& o, const solver::RunPlan& plan) {
                           o.memory.empty() ? std::nullopt : parse_memory_size(o.memory));
   } catch (const RunError&) {
     r.why_assumed = "not timed: the run would not fit in memory";
+    return r;
+  }
+  if (static_cast<double>(plan.summary.memory_bytes) > largest_timed_bytes) {
+    r.why_assumed = fmt::format("not timed: a run of {} is not built just to time it", format_bytes(
+                                    static_cast<double>(plan.summary.memory_bytes)));
     return r;
   }
   const StepTiming t = time_steps(plan, timing_budget_seconds);
